@@ -1,0 +1,56 @@
+import {
+  createBrowserRouter,
+  Outlet,
+  ScrollRestoration,
+} from "react-router-dom";
+import { PublicOutlet, RequireAuth } from "./layout/guards";
+import { RouteErrorPage } from "./routes/route-error";
+import { SignInRoute } from "./routes/sign-in";
+import { ForgotPasswordRoute } from "./routes/forgot-password";
+import { InviteRoute, ResetRoute } from "./routes/set-password";
+import { DevMailRoute } from "./routes/dev-mail";
+import { HomeRoute } from "./routes/home";
+import { JobRoute } from "./routes/job";
+import { TradesRoute } from "./routes/trades";
+import { MembersRoute } from "./routes/members";
+import { NotFoundRoute } from "./routes/not-found";
+
+function Root() {
+  return (
+    <>
+      <Outlet />
+      <ScrollRestoration />
+    </>
+  );
+}
+
+export function createAppRouter() {
+  return createBrowserRouter([
+    {
+      element: <Root />,
+      errorElement: <RouteErrorPage />,
+      children: [
+        {
+          element: <PublicOutlet />,
+          children: [
+            { path: "sign-in", element: <SignInRoute /> },
+            { path: "forgot-password", element: <ForgotPasswordRoute /> },
+            { path: "invite/:token", element: <InviteRoute /> },
+            { path: "reset/:token", element: <ResetRoute /> },
+            { path: "dev/mail/:messageId?", element: <DevMailRoute /> },
+          ],
+        },
+        {
+          element: <RequireAuth />,
+          children: [
+            { index: true, element: <HomeRoute /> },
+            { path: "jobs/:jobId", element: <JobRoute /> },
+            { path: "trades", element: <TradesRoute /> },
+            { path: "members", element: <MembersRoute /> },
+          ],
+        },
+        { path: "*", element: <NotFoundRoute /> },
+      ],
+    },
+  ]);
+}

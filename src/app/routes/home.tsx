@@ -1,0 +1,154 @@
+import { useState } from "react";
+import { useNavigate } from "react-router-dom";
+import { useCustomers } from "../../features/customers/api/list-customers";
+import { AddCustomerForm } from "../../features/customers/components/AddCustomerForm";
+import { useJobs } from "../../features/jobs/api/list-jobs";
+import { JobsTable } from "../../features/jobs/components/JobsTable";
+import { NewJobForm } from "../../features/jobs/components/NewJobForm";
+import {
+  Button,
+  EmptyState,
+  ErrorState,
+  LoadingState,
+  PageHeader,
+  Section,
+} from "../../components/ui";
+import { errorMessage } from "../../lib/api-client";
+import type { Membership } from "../../features/auth/viewer";
+import { useActiveWorkshop } from "../active-workshop";
+import { useViewer } from "../layout/guards";
+
+function NewJobPanel({
+  workshop,
+  onClose,
+}: {
+  workshop: Membership;
+  onClose: () => void;
+}) {
+  const navigate = useNavigate();
+  const customers = useCustomers(workshop.workshopId);
+  return (
+    <Section title="New job" id="new-job" className="mb-6">
+      <NewJobForm
+        workshopId={workshop.workshopId}
+        customers={customers.data}
+        customersLoading={customers.isPending}
+        customersError={
+          customers.isError
+            ? `Customers could not be loaded: ${errorMessage(customers.error)}`
+            : null
+        }
+        renderAddCustomer={(onAdded, onCancel) => (
+          <AddCustomerForm
+            workshopId={workshop.workshopId}
+            onCreated={(c) => onAdded(c.id)}
+            onCancel={onCancel}
+          />
+        )}
+        onCreated={(job) => navigate(`/jobs/${job.id}`)}
+        onCancel={onClose}
+      />
+    </Section>
+  );
+}
+
+/** Home: the workshop's jobs for members; a trade's or customer's own jobs otherwise. */
+export function HomeRoute() {
+  const viewer = useViewer();
+  const { active } = useActiveWorkshop();
+  const jobs = useJobs();
+  const [creating, setCreating] = useState(false);
+
+  const isMember = !!active;
+  const all = jobs.data ?? [];
+  const workshopJobs = isMember
+    ? all.filter((j) => j.workshopId === active.workshopId)
+    : all;
+  // A member may also be a trade or customer of another workshop; keep those jobs visible.
+  const otherJobs = isMember
+    ? all.filter((j) => j.workshopId !== active.workshopId)
+    : [];
+  const isCustomer =
+    !isMember &&
+    viewer.user.trades.length === 0 &&
+    viewer.user.customers.length > 0;
+
+  return (
+    <>
+      <PageHeader
+        title={isMember ? "Jobs" : "Your jobs"}
+        eyebrow={active?.workshopName}
+        description={
+          isMember
+            ? undefined
+            : isCustomer
+              ? "Who comes to your home, and when."
+              : "Jobs where you have work, with what comes next."
+        }
+        actions={
+          isMember && !creating ? (
+            <Button
+              onClick={() => setCreating(true)}
+              aria-controls="new-job"
+              aria-expanded={creating}
+            >
+              New job
+            </Button>
+          ) : null
+        }
+      />
+      {isMember && creating ? (
+        <NewJobPanel workshop={active} onClose={() => setCreating(false)} />
+      ) : null}
+
+      {jobs.isPending ? (
+        <LoadingState label="Loading jobs…" />
+      ) : jobs.isError ? (
+        <ErrorState error={jobs.error} onRetry={() => jobs.refetch()} />
+      ) : workshopJobs.length === 0 && otherJobs.length === 0 ? (
+        <EmptyState
+          title="No jobs yet"
+          action={
+            isMember && !creating ? (
+              <Button onClick={() => setCreating(true)}>
+                Create the first job
+              </Button>
+            ) : null
+          }
+        >
+          {isMember
+            ? "Each customer's install is a job. Create one to plan its programme and book trades."
+            : isCustomer
+              ? "When the workshop adds your install, it appears here."
+              : "When a workshop books you for a job, it appears here."}
+        </EmptyState>
+      ) : (
+        <div className="flex flex-col gap-8">
+          {workshopJobs.length > 0 ? (
+            <JobsTable
+              jobs={workshopJobs}
+              variant={isMember ? "workshop" : "party"}
+              caption={
+                isMember ? `Jobs of ${active.workshopName}` : "Your jobs"
+              }
+            />
+          ) : isMember ? (
+            <EmptyState title={`No jobs in ${active.workshopName} yet`} />
+          ) : null}
+          {otherJobs.length > 0 ? (
+            <section aria-labelledby="other-jobs">
+              <h2 id="other-jobs" className="mb-3 text-lg font-semibold">
+                Jobs with other workshops
+              </h2>
+              <JobsTable
+                jobs={otherJobs}
+                variant="party"
+                caption="Jobs with other workshops"
+              />
+            </section>
+          ) : null}
+        </div>
+      )}
+    </>
+  );
+}

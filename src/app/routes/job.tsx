@@ -1,0 +1,117 @@
+import { useState } from "react";
+import { Link, useNavigate, useParams } from "react-router-dom";
+import { useJob } from "../../features/jobs/api/get-job";
+import { DeleteJobButton } from "../../features/jobs/components/DeleteJobButton";
+import { EditJobForm } from "../../features/jobs/components/EditJobForm";
+import {
+  JobBookingsSection,
+  JobDetailsSection,
+  JobPartiesSection,
+  JobTasksSection,
+} from "../../features/jobs/components/JobDetailView";
+import {
+  Button,
+  ErrorState,
+  JobStatusBadge,
+  LoadingState,
+  PageHeader,
+  Section,
+} from "../../components/ui";
+import { isApiError } from "../../lib/api-client";
+
+function BackLink() {
+  return (
+    <p className="mb-3 text-sm">
+      <Link to="/" className="text-accent underline underline-offset-2">
+        ← All jobs
+      </Link>
+    </p>
+  );
+}
+
+export function JobRoute() {
+  const { jobId = "" } = useParams();
+  const navigate = useNavigate();
+  const job = useJob(jobId);
+  const [editing, setEditing] = useState(false);
+
+  if (job.isPending) {
+    return (
+      <>
+        <BackLink />
+        <LoadingState label="Loading the job…" />
+      </>
+    );
+  }
+  if (job.isError) {
+    // 403 and 404 read the same to the person: this job isn't theirs to see.
+    const missing =
+      isApiError(job.error) &&
+      (job.error.status === 404 ||
+        job.error.status === 403 ||
+        job.error.status === 400);
+    return (
+      <>
+        <BackLink />
+        <PageHeader title={missing ? "Job not found" : "Job"} />
+        <ErrorState
+          error={job.error}
+          title={missing ? "There's no job here you can see" : undefined}
+          onRetry={() => job.refetch()}
+        />
+      </>
+    );
+  }
+
+  const j = job.data;
+  const isWorkshop = j.viewerRole === "owner" || j.viewerRole === "fitter";
+  return (
+    <>
+      <BackLink />
+      <PageHeader
+        title={j.title}
+        eyebrow={
+          <span className="flex flex-wrap items-center gap-2">
+            <span>{j.workshopName}</span>
+            <span aria-hidden="true">·</span>
+            <span>{j.area}</span>
+            <JobStatusBadge status={j.status} />
+          </span>
+        }
+        actions={
+          isWorkshop && !editing ? (
+            <Button variant="secondary" onClick={() => setEditing(true)}>
+              Edit job
+            </Button>
+          ) : null
+        }
+      />
+      {editing ? (
+        <Section title="Edit job" className="mb-6">
+          <EditJobForm
+            job={j}
+            onSaved={() => setEditing(false)}
+            onCancel={() => setEditing(false)}
+          />
+        </Section>
+      ) : null}
+      <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
+        <div className="flex min-w-0 flex-col gap-6">
+          <JobTasksSection job={j} />
+          <JobBookingsSection job={j} />
+        </div>
+        <div className="flex min-w-0 flex-col gap-6">
+          <JobDetailsSection job={j} />
+          <JobPartiesSection job={j} />
+          {j.viewerRole === "owner" ? (
+            <DeleteJobButton
+              jobId={j.id}
+              title={j.title}
+              onDeleted={() => navigate("/", { replace: true })}
+            />
+          ) : null}
+        </div>
+      </div>
+    </>
+  );
+}

@@ -1,0 +1,21 @@
+export { Button, LinkButton, buttonClasses } from "./Button";
+export { TextField, TextArea, Select, WeekdayPicker } from "./Field";
+export { Card, Section } from "./Card";
+export {
+  PartyChip,
+  StatusBadge,
+  JobStatusBadge,
+  BookingStateBadge,
+  TaskStatusBadge,
+} from "./Badge";
+export {
+  Spinner,
+  LoadingState,
+  EmptyState,
+  ErrorState,
+  FormError,
+  Notice,
+  CautionNote,
+} from "./States";
+export { PageHeader } from "./PageHeader";
+export { cx } from "./cx";

@@ -1,0 +1,89 @@
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useForm } from "react-hook-form";
+import { z } from "zod";
+import { passwordSchema } from "../../../../shared/schemas";
+import { Button, FormError, TextField } from "../../../components/ui";
+import { isApiError } from "../../../lib/api-client";
+import { applyServerErrors } from "../../../lib/form-errors";
+import { useSetPassword } from "../api/set-password";
+
+// The shared rule for a password, plus the confirmation only a form needs.
+const setPasswordFormSchema = z
+  .object({
+    password: passwordSchema,
+    confirm: z.string().min(1, "Type the password again"),
+  })
+  .refine((v) => v.password === v.confirm, {
+    message: "The two passwords differ",
+    path: ["confirm"],
+  });
+
+type Input = z.input<typeof setPasswordFormSchema>;
+type Output = z.output<typeof setPasswordFormSchema>;
+
+interface SetPasswordFormProps {
+  token: string;
+  email: string;
+  submitLabel: string;
+  onDone: () => void;
+}
+
+export function SetPasswordForm({
+  token,
+  email,
+  submitLabel,
+  onDone,
+}: SetPasswordFormProps) {
+  const setPassword = useSetPassword();
+  const form = useForm<Input, unknown, Output>({
+    resolver: zodResolver(setPasswordFormSchema),
+    defaultValues: { password: "", confirm: "" },
+  });
+  const { errors } = form.formState;
+
+  let formError: string | null = null;
+  if (setPassword.isError) {
+    formError =
+      isApiError(setPassword.error) &&
+      setPassword.error.code === "token-invalid"
+        ? "This link has expired or has already been used. Ask for a new one."
+        : applyServerErrors(setPassword.error, form.setError, ["password"]);
+  }
+
+  const onSubmit = form.handleSubmit(({ password }) =>
+    setPassword.mutate({ token, password }, { onSuccess: onDone }),
+  );
+
+  return (
+    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4">
+      <FormError message={formError} />
+      {/* Lets password managers store the new password against the right account. */}
+      <input
+        type="email"
+        name="username"
+        autoComplete="username"
+        value={email}
+        readOnly
+        hidden
+      />
+      <TextField
+        label="New password"
+        type="password"
+        autoComplete="new-password"
+        hint="At least 10 characters. A few unrelated words make a strong one."
+        error={errors.password?.message}
+        {...form.register("password")}
+      />
+      <TextField
+        label="Confirm password"
+        type="password"
+        autoComplete="new-password"
+        error={errors.confirm?.message}
+        {...form.register("confirm")}
+      />
+      <Button type="submit" busy={setPassword.isPending} className="w-full">
+        {submitLabel}
+      </Button>
+    </form>
+  );
+}

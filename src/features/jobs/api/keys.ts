@@ -1,0 +1,7 @@
+// Query keys for jobs; mutations invalidate through these, never a retyped array.
+export const jobKeys = {
+  all: ["jobs"] as const,
+  lists: () => [...jobKeys.all, "list"] as const,
+  details: () => [...jobKeys.all, "detail"] as const,
+  detail: (jobId: string) => [...jobKeys.details(), jobId] as const,
+};

@@ -1,0 +1,153 @@
+import { zodResolver } from "@hookform/resolvers/zod";
+import { Controller, useForm } from "react-hook-form";
+import type { z } from "zod";
+import { tradeBodySchema, tradeKinds } from "../../../../shared/schemas";
+import {
+  Button,
+  FormError,
+  Select,
+  TextField,
+  WeekdayPicker,
+} from "../../../components/ui";
+import { applyServerErrors } from "../../../lib/form-errors";
+import { partyLabels } from "../../../lib/labels";
+import { useCreateTrade } from "../api/create-trade";
+
+type Input = z.input<typeof tradeBodySchema>;
+type Output = z.output<typeof tradeBodySchema>;
+
+const FIELDS = [
+  "businessName",
+  "kind",
+  "contactName",
+  "email",
+  "phone",
+  "workingWeekdays",
+  "dayStart",
+  "dayEnd",
+];
+
+export function AddTradeForm({
+  workshopId,
+  onAdded,
+  onCancel,
+}: {
+  workshopId: string;
+  onAdded: () => void;
+  onCancel: () => void;
+}) {
+  const create = useCreateTrade(workshopId);
+  const form = useForm<Input, unknown, Output>({
+    resolver: zodResolver(tradeBodySchema),
+    defaultValues: {
+      businessName: "",
+      kind: "plasterer",
+      contactName: "",
+      email: "",
+      phone: "",
+      workingWeekdays: [1, 2, 3, 4, 5],
+      dayStart: "08:00",
+      dayEnd: "16:30",
+      daysOff: [],
+    },
+  });
+  const { errors } = form.formState;
+  const formError = create.isError
+    ? applyServerErrors(create.error, form.setError, FIELDS)
+    : null;
+
+  const onSubmit = form.handleSubmit((body) =>
+    create.mutate(body, {
+      onSuccess: () => {
+        form.reset();
+        onAdded();
+      },
+    }),
+  );
+
+  return (
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      aria-label="Add a trade"
+      className="grid gap-4 md:grid-cols-2"
+    >
+      <div className="md:col-span-2">
+        <FormError message={formError} />
+      </div>
+      <TextField
+        label="Business name"
+        autoFocus
+        error={errors.businessName?.message}
+        {...form.register("businessName")}
+      />
+      <Select
+        label="Trade"
+        error={errors.kind?.message}
+        {...form.register("kind")}
+      >
+        {tradeKinds.map((k) => (
+          <option key={k} value={k}>
+            {partyLabels[k]}
+          </option>
+        ))}
+      </Select>
+      <TextField
+        label="Contact name"
+        hint="Who to ask for."
+        error={errors.contactName?.message}
+        {...form.register("contactName")}
+      />
+      <TextField
+        label="E-mail"
+        type="email"
+        error={errors.email?.message}
+        {...form.register("email")}
+      />
+      <TextField
+        label="Phone"
+        type="tel"
+        error={errors.phone?.message}
+        {...form.register("phone")}
+      />
+      <div className="grid grid-cols-2 gap-3">
+        <TextField
+          label="Day starts"
+          type="time"
+          inputClassName="font-mono"
+          error={errors.dayStart?.message}
+          {...form.register("dayStart")}
+        />
+        <TextField
+          label="Day ends"
+          type="time"
+          inputClassName="font-mono"
+          error={errors.dayEnd?.message}
+          {...form.register("dayEnd")}
+        />
+      </div>
+      <div className="md:col-span-2">
+        <Controller
+          control={form.control}
+          name="workingWeekdays"
+          render={({ field }) => (
+            <WeekdayPicker
+              legend="Working days"
+              value={field.value ?? []}
+              onChange={field.onChange}
+              error={errors.workingWeekdays?.message}
+            />
+          )}
+        />
+      </div>
+      <div className="flex flex-wrap gap-2 md:col-span-2">
+        <Button type="submit" busy={create.isPending}>
+          Add trade
+        </Button>
+        <Button variant="secondary" onClick={onCancel}>
+          Cancel
+        </Button>
+      </div>
+    </form>
+  );
+}

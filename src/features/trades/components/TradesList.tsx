@@ -1,0 +1,109 @@
+import { useState } from "react";
+import type { TradeResponse } from "../../../../shared/schemas";
+import { Button, FormError, PartyChip } from "../../../components/ui";
+import { errorMessage } from "../../../lib/api-client";
+import { formatWeekdays } from "../../../lib/format";
+import { useDeleteTrade } from "../api/delete-trade";
+
+function DeleteTrade({ trade }: { trade: TradeResponse }) {
+  const [confirming, setConfirming] = useState(false);
+  const remove = useDeleteTrade();
+  if (!confirming) {
+    return (
+      <Button
+        variant="quiet"
+        size="sm"
+        className="px-0 text-risk"
+        onClick={() => setConfirming(true)}
+      >
+        Delete<span className="sr-only"> {trade.businessName}</span>
+      </Button>
+    );
+  }
+  return (
+    <div
+      role="group"
+      aria-label={`Confirm deleting ${trade.businessName}`}
+      className="flex flex-col gap-2 rounded border border-risk/40 bg-risk-wash p-2.5"
+    >
+      <p className="text-sm">
+        Delete {trade.businessName} from the workshop's trades? This cannot be
+        undone.
+      </p>
+      <FormError message={remove.isError ? errorMessage(remove.error) : null} />
+      <div className="flex flex-wrap gap-2">
+        <Button
+          variant="danger"
+          size="sm"
+          busy={remove.isPending}
+          onClick={() => remove.mutate(trade.id)}
+        >
+          Delete
+        </Button>
+        <Button
+          variant="secondary"
+          size="sm"
+          autoFocus
+          onClick={() => setConfirming(false)}
+        >
+          Keep
+        </Button>
+      </div>
+    </div>
+  );
+}
+
+/** The workshop's trades; contact details are the workshop's own records. */
+export function TradesList({
+  trades,
+  canDelete,
+}: {
+  trades: TradeResponse[];
+  canDelete: boolean;
+}) {
+  return (
+    <ul className="flex flex-col divide-y divide-rule rounded border border-rule bg-card">
+      {trades.map((t) => (
+        <li
+          key={t.id}
+          className="grid gap-2 px-4 py-3 md:grid-cols-[minmax(0,1.4fr)_minmax(0,1fr)_minmax(0,1.3fr)_auto] md:items-start md:gap-4"
+        >
+          <div className="flex min-w-0 flex-col gap-1">
+            <span className="font-semibold">{t.businessName}</span>
+            <span className="flex flex-wrap items-center gap-2">
+              <PartyChip party={t.kind} />
+              {t.hasAccount ? (
+                <span className="text-xs text-ink-soft">Has signed in</span>
+              ) : null}
+            </span>
+          </div>
+          <div className="min-w-0 text-sm">
+            <span className="block">{t.contactName}</span>
+            <span className="block font-mono text-ink-soft">
+              {formatWeekdays(t.workingWeekdays)} {t.dayStart}–{t.dayEnd}
+            </span>
+          </div>
+          <div className="flex min-w-0 flex-col text-sm">
+            <a
+              href={`mailto:${t.email}`}
+              className="break-all text-accent underline underline-offset-2"
+            >
+              {t.email}
+            </a>
+            <a
+              href={`tel:${t.phone.replace(/[^+0-9]/g, "")}`}
+              className="font-mono text-accent underline underline-offset-2"
+            >
+              {t.phone}
+            </a>
+          </div>
+          {canDelete ? (
+            <div className="md:text-right">
+              <DeleteTrade trade={t} />
+            </div>
+          ) : null}
+        </li>
+      ))}
+    </ul>
+  );
+}
