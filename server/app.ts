@@ -1,0 +1,150 @@
+import express, { type Express } from "express";
+import session from "express-session";
+import MySQLStoreFactory from "express-mysql-session";
+import helmet from "helmet";
+import passport from "passport";
+import { Strategy as LocalStrategy } from "passport-local";
+import type { DataSource } from "typeorm";
+import type { DbSettings } from "./db/data-source";
+import { csrfProtection } from "./http/csrf";
+import { errorHandler, notFoundRoute } from "./http/errors";
+import { openApiDocument } from "./http/openapi";
+import { ApiRoutes } from "./http/routes";
+import type { Mailer } from "./infra/mail/mailer";
+import type { SmtpFake } from "./infra/mail/smtp-fake";
+import { registerAuthRoutes } from "./modules/auth/auth.router";
+import { checkCredentials } from "./modules/auth/auth.service";
+import { registerCustomerRoutes } from "./modules/customers/customers.router";
+import { registerHealthRoutes } from "./modules/health/health.router";
+import { registerJobRoutes } from "./modules/jobs/jobs.router";
+import { registerDevMailRoutes } from "./modules/mail/mail.router";
+import { registerTradeRoutes } from "./modules/trades/trades.router";
+import { loadSessionUser } from "./modules/users/users.service";
+import { registerWorkshopRoutes } from "./modules/workshops/workshops.router";
+
+export interface AppDeps {
+  ds: DataSource;
+  db: DbSettings;
+  mailer: Mailer;
+  /** The local SMTP fake, when one runs (development and tests): enables /api/dev/mail. */
+  mailbox: SmtpFake | null;
+  appUrl: string;
+  sessionSecret: string;
+  production: boolean;
+  /** The dev client (Vite) needs inline scripts and a websocket; production does not. */
+  devClient?: boolean;
+  signInLimit?: number;
+  signInWindowMs?: number;
+  trustProxy?: boolean;
+  version?: string;
+}
+
+export interface SitecueApp {
+  app: Express;
+  routes: ApiRoutes;
+  close(): Promise<void>;
+}
+
+/** The Express app without listening (tests use it with supertest). Client serving is added by the caller. */
+export function createApp(deps: AppDeps): SitecueApp {
+  const app = express();
+  const version = deps.version ?? "0.1.0";
+  app.disable("x-powered-by");
+  if (deps.trustProxy) app.set("trust proxy", 1);
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          "default-src": ["'self'"],
+          // Production serves only bundled files. Vite's dev client injects an inline preamble
+          // and talks over a websocket, so development relaxes exactly those two.
+          "script-src": deps.devClient ? ["'self'", "'unsafe-inline'"] : ["'self'"],
+          "style-src": deps.devClient ? ["'self'", "'unsafe-inline'"] : ["'self'"],
+          "connect-src": deps.devClient ? ["'self'", "ws:"] : ["'self'"],
+          "img-src": ["'self'", "data:", "blob:"],
+          "font-src": ["'self'", "data:"],
+          "object-src": ["'none'"],
+          "base-uri": ["'self'"],
+          "form-action": ["'self'"],
+          "frame-ancestors": ["'none'"],
+        },
+      },
+      crossOriginEmbedderPolicy: false,
+    }),
+  );
+
+  const MySQLStore = MySQLStoreFactory(session as never);
+  const store = new MySQLStore({
+    host: deps.db.host,
+    port: deps.db.port,
+    user: deps.db.user,
+    password: deps.db.password,
+    database: deps.db.database,
+    createDatabaseTable: false, // made by the migration
+    clearExpired: true,
+    checkExpirationInterval: 15 * 60 * 1000,
+    expiration: 14 * 24 * 3600 * 1000,
+  });
+
+  passport.use(
+    new LocalStrategy({ usernameField: "email", passwordField: "password" }, (email, password, done) => {
+      checkCredentials(deps.ds, email, password)
+        .then(async (userId) => (userId ? done(null, (await loadSessionUser(deps.ds, userId)) ?? false) : done(null, false)))
+        .catch(done);
+    }),
+  );
+  passport.serializeUser((u, done) => done(null, (u as Express.User).user.id));
+  passport.deserializeUser((id: string, done) => {
+    loadSessionUser(deps.ds, id)
+      .then((loaded) => done(null, loaded ?? false))
+      .catch(done);
+  });
+
+  const api = new ApiRoutes();
+  const authDeps = { ds: deps.ds, mailer: deps.mailer, appUrl: deps.appUrl };
+  registerHealthRoutes(api, deps.ds, version);
+  registerAuthRoutes(api, authDeps, {
+    signInLimit: deps.signInLimit ?? 10,
+    windowMs: deps.signInWindowMs ?? 15 * 60 * 1000,
+  });
+  registerJobRoutes(api, deps.ds);
+  registerWorkshopRoutes(api, authDeps);
+  registerTradeRoutes(api, deps.ds);
+  registerCustomerRoutes(api, deps.ds);
+  if (deps.mailbox) registerDevMailRoutes(api, deps.mailbox);
+  api.add({
+    method: "get",
+    path: "/openapi.json",
+    tag: "meta",
+    summary: "This API as OpenAPI 3.1",
+    handler: async () => openApiDocument(api.specs, version),
+  });
+
+  app.use(
+    "/api",
+    express.json({ limit: "1mb" }),
+    session({
+      name: "sitecue.sid",
+      secret: deps.sessionSecret,
+      store,
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      cookie: { httpOnly: true, sameSite: "lax", secure: deps.production, maxAge: 14 * 24 * 3600 * 1000 },
+    }),
+    passport.initialize(),
+    passport.session(),
+    csrfProtection,
+    api.router,
+    notFoundRoute,
+    errorHandler((err) => console.error("[sitecue] unexpected error:", err)),
+  );
+
+  return {
+    app,
+    routes: api,
+    close: () => store.close(),
+  };
+}

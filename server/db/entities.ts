@@ -1,0 +1,25 @@
+import { User } from "../modules/users/users.entity";
+import { Workshop, WorkshopMember } from "../modules/workshops/workshops.entity";
+import { Trade, TradeMember } from "../modules/trades/trades.entity";
+import { Customer } from "../modules/customers/customers.entity";
+import { Job } from "../modules/jobs/jobs.entity";
+import { Task, TaskLink } from "../modules/programme/programme.entity";
+import { Booking } from "../modules/bookings/bookings.entity";
+import { AuditEntry } from "../modules/audit/audit.entity";
+import { AuthToken } from "../modules/auth/auth-tokens.entity";
+
+/** Every entity, listed once (the data source and tests use this list). */
+export const entities = [
+  User,
+  Workshop,
+  WorkshopMember,
+  Trade,
+  TradeMember,
+  Customer,
+  Job,
+  Task,
+  TaskLink,
+  Booking,
+  AuditEntry,
+  AuthToken,
+];

@@ -1,0 +1,4 @@
+import { Initial1764633600000 } from "./1764633600000-initial";
+
+/** Migration classes in order (classes, not a glob, so vitest and tsx load them alike). */
+export const migrations = [Initial1764633600000];

@@ -1,0 +1,80 @@
+import type { ErrorRequestHandler, RequestHandler } from "express";
+import { ZodError } from "zod";
+
+/** Stable error codes the client can switch on. */
+export type ErrorCode =
+  | "validation"
+  | "unauthenticated"
+  | "invalid-credentials"
+  | "forbidden"
+  | "csrf"
+  | "not-found"
+  | "token-invalid"
+  | "version-conflict"
+  | "conflict"
+  | "too-large"
+  | "rate-limited"
+  | "unprocessable"
+  | "internal";
+
+/** A typed error thrown anywhere in a request; mapped once to `{ error: { code, message, fields? } }`. */
+export class HttpError extends Error {
+  constructor(
+    public readonly status: number,
+    public readonly code: ErrorCode,
+    message: string,
+    public readonly fields?: Record<string, string[]>,
+  ) {
+    super(message);
+  }
+}
+
+export const notFound = (what = "That record") => new HttpError(404, "not-found", `${what} was not found.`);
+export const forbidden = (message = "You do not have permission to do that.") =>
+  new HttpError(403, "forbidden", message);
+export const unauthenticated = () => new HttpError(401, "unauthenticated", "Please sign in first.");
+
+/** Turns zod issues into a field → messages map (path joined with dots; "" for the whole body). */
+export function zodFields(err: ZodError): Record<string, string[]> {
+  const fields: Record<string, string[]> = {};
+  for (const issue of err.issues) {
+    const key = issue.path.join(".") || "_";
+    (fields[key] ??= []).push(issue.message);
+  }
+  return fields;
+}
+
+export const notFoundRoute: RequestHandler = (req, _res, next) => {
+  next(new HttpError(404, "not-found", `No API route for ${req.method} ${req.path}.`));
+};
+
+/** The one error handler: known errors keep their status; anything else is a 500 without a stack. */
+export function errorHandler(log: (err: unknown) => void): ErrorRequestHandler {
+  return (err, _req, res, _next) => {
+    if (res.headersSent) return;
+    if (err instanceof HttpError) {
+      res.status(err.status).json({ error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}) } });
+      return;
+    }
+    if (err instanceof ZodError) {
+      res.status(400).json({ error: { code: "validation", message: "Some fields need attention.", fields: zodFields(err) } });
+      return;
+    }
+    // body-parser / multer errors carry a status and a type.
+    const e = err as { status?: number; type?: string; code?: string; message?: string };
+    if (e?.type === "entity.too.large" || e?.code === "LIMIT_FILE_SIZE") {
+      res.status(413).json({ error: { code: "too-large", message: "That request is too large." } });
+      return;
+    }
+    if (e?.type === "entity.parse.failed") {
+      res.status(400).json({ error: { code: "validation", message: "The request body is not valid JSON." } });
+      return;
+    }
+    if (typeof e?.status === "number" && e.status >= 400 && e.status < 500) {
+      res.status(e.status).json({ error: { code: "validation", message: "The request could not be read." } });
+      return;
+    }
+    log(err);
+    res.status(500).json({ error: { code: "internal", message: "Something went wrong on our side. Please try again." } });
+  };
+}

@@ -1,0 +1,256 @@
+#!/usr/bin/env node
+// Sitecue bootstrap: the whole set-up behind `npm start` and `npm test`, in plain Node with no
+// dependencies, so it can run before `npm ci` has. It installs what is missing, runs a private
+// MariaDB on loopback (own port, socket and data folder under .data/), then either serves the
+// app (start) or runs the test suites (test), and stops everything it started on the way out.
+import { spawn, spawnSync } from "node:child_process";
+import { createHash, randomBytes } from "node:crypto";
+import fs from "node:fs";
+import net from "node:net";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../..");
+const mode = process.argv[2];
+const extraArgs = process.argv.slice(3);
+if (mode !== "start" && mode !== "test") {
+  console.error("Usage: node server/infra/bootstrap.mjs start|test");
+  process.exit(2);
+}
+const production = process.env.NODE_ENV === "production";
+const children = new Set();
+let stopping = false;
+
+function say(msg) {
+  console.log(`[sitecue] ${msg}`);
+}
+
+function fail(msg) {
+  console.error(`[sitecue] ${msg}`);
+  process.exitCode = 1;
+}
+
+function has(cmd) {
+  return spawnSync("sh", ["-c", `command -v ${cmd}`], { stdio: "ignore" }).status === 0;
+}
+
+function run(cmd, args, opts = {}) {
+  const r = spawnSync(cmd, args, { stdio: "inherit", cwd: root, ...opts });
+  if (r.status !== 0) throw new Error(`${cmd} ${args.join(" ")} exited with ${r.status ?? r.signal}`);
+}
+
+/** npm ci when node_modules is missing or was installed from another package-lock.json. */
+function ensureNodeModules() {
+  const lock = path.join(root, "package-lock.json");
+  const stamp = path.join(root, "node_modules", ".sitecue-lock-hash");
+  const hash = createHash("sha256").update(fs.readFileSync(lock)).digest("hex");
+  const current = fs.existsSync(stamp) ? fs.readFileSync(stamp, "utf8").trim() : null;
+  if (current === hash && fs.existsSync(path.join(root, "node_modules", ".bin", "vitest"))) return;
+  say(current ? "package-lock.json changed: running npm ci" : "Installing packages (npm ci)");
+  run("npm", ["ci", "--no-audit", "--no-fund"]);
+  fs.writeFileSync(stamp, hash + "\n");
+}
+
+/** Installs a Debian package when its program is missing (as root), or says how to. */
+function ensureDebian(pkg, program) {
+  if (has(program)) return;
+  const cmd = `apt-get update && apt-get install -y ${pkg}`;
+  if (process.getuid?.() !== 0) {
+    throw new Error(`${program} is missing. Install it with:\n  sudo sh -c '${cmd}'`);
+  }
+  say(`${program} is missing: installing Debian's ${pkg}`);
+  run("sh", ["-c", `DEBIAN_FRONTEND=noninteractive ${cmd}`], { stdio: ["ignore", "inherit", "inherit"] });
+}
+
+function portFree(port) {
+  return new Promise((resolve) => {
+    const s = net.createServer();
+    s.once("error", () => resolve(false));
+    s.listen(port, "127.0.0.1", () => s.close(() => resolve(true)));
+  });
+}
+
+async function freePort(preferred) {
+  for (let p = preferred; p < preferred + 50; p++) if (await portFree(p)) return p;
+  throw new Error(`No free port near ${preferred}`);
+}
+
+function sql(dir, statements) {
+  const r = spawnSync(
+    "mariadb",
+    ["--no-defaults", `--socket=${path.join(dir, "mysqld.sock")}`, "-uroot", "-e", statements],
+    { encoding: "utf8" },
+  );
+  if (r.status !== 0) throw new Error(`MariaDB refused set-up SQL: ${r.stderr.trim()}`);
+}
+
+/** Starts a private mariadbd on 127.0.0.1 with its data under `dir`; resolves when it answers. */
+async function startMariaDB(dir, port) {
+  const dataDir = path.join(dir, "db");
+  fs.mkdirSync(dir, { recursive: true });
+  if (!fs.existsSync(path.join(dataDir, "mysql"))) {
+    say(`Initialising a MariaDB data folder in ${path.relative(root, dataDir)}`);
+    fs.mkdirSync(dataDir, { recursive: true });
+    run("mariadb-install-db", [
+      "--no-defaults",
+      "--user=root",
+      "--auth-root-authentication-method=normal",
+      "--skip-test-db",
+      `--datadir=${dataDir}`,
+    ], { stdio: ["ignore", "ignore", "inherit"] });
+  }
+  const socket = path.join(dir, "mysqld.sock");
+  const pidFile = path.join(dir, "mysqld.pid");
+  if (fs.existsSync(pidFile)) {
+    const pid = Number(fs.readFileSync(pidFile, "utf8"));
+    let alive = false;
+    try { process.kill(pid, 0); alive = true; } catch { /* stale pid file */ }
+    if (alive) throw new Error(`A MariaDB for ${path.relative(root, dir)} is already running (pid ${pid}). Is another Sitecue running? Stop it first.`);
+    fs.rmSync(pidFile, { force: true });
+  }
+  fs.rmSync(socket, { force: true });
+  say(`Starting MariaDB on 127.0.0.1:${port}`);
+  const child = spawn("mariadbd", [
+    "--no-defaults",
+    "--user=root",
+    `--datadir=${dataDir}`,
+    `--port=${port}`,
+    "--bind-address=127.0.0.1",
+    `--socket=${socket}`,
+    `--pid-file=${pidFile}`,
+    `--log-error=${path.join(dir, "mariadb.log")}`,
+    "--skip-name-resolve",
+    "--character-set-server=utf8mb4",
+    "--collation-server=utf8mb4_unicode_ci",
+    "--innodb-buffer-pool-size=128M",
+    "--innodb-flush-log-at-trx-commit=2",
+    "--max-connections=500",
+  ], { stdio: "ignore", detached: true });
+  children.add(child);
+  child.on("exit", () => children.delete(child));
+  const deadline = Date.now() + 30000;
+  for (;;) {
+    const r = spawnSync("mariadb-admin", ["--no-defaults", `--socket=${socket}`, "-uroot", "ping"], { stdio: "ignore" });
+    if (r.status === 0) break;
+    if (child.exitCode !== null) throw new Error(`MariaDB stopped at start-up; see ${path.join(dir, "mariadb.log")}`);
+    if (Date.now() > deadline) throw new Error(`MariaDB did not answer within 30 s; see ${path.join(dir, "mariadb.log")}`);
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  return child;
+}
+
+function credentials(dir) {
+  const file = path.join(dir, "credentials.json");
+  if (fs.existsSync(file)) return JSON.parse(fs.readFileSync(file, "utf8"));
+  const c = {
+    appPassword: randomBytes(18).toString("base64url"),
+    sessionSecret: randomBytes(32).toString("base64url"),
+  };
+  fs.writeFileSync(file, JSON.stringify(c, null, 2), { mode: 0o600 });
+  return c;
+}
+
+async function stopChild(child, name, signal = "SIGTERM", ms = 15000) {
+  if (child.exitCode !== null || child.signalCode !== null) return;
+  const done = new Promise((r) => child.once("exit", r));
+  try { process.kill(-child.pid, signal); } catch { try { child.kill(signal); } catch { /* gone */ } }
+  const timer = setTimeout(() => { say(`${name} did not stop in time; killing it`); try { process.kill(-child.pid, "SIGKILL"); } catch { /* gone */ } }, ms);
+  await done;
+  clearTimeout(timer);
+}
+
+let mariadb = null;
+let app = null;
+async function stopAll() {
+  if (stopping) return;
+  stopping = true;
+  if (app) { say("Stopping the app"); await stopChild(app, "The app"); }
+  if (mariadb) { say("Stopping MariaDB"); await stopChild(mariadb, "MariaDB", "SIGTERM", 30000); }
+}
+
+for (const sig of ["SIGINT", "SIGTERM", "SIGHUP"]) {
+  process.on(sig, () => { stopAll().then(() => process.exit(process.exitCode ?? 0)); });
+}
+
+async function main() {
+  const t0 = Date.now();
+  ensureNodeModules();
+  ensureDebian("mariadb-server", "mariadbd");
+  if (mode === "test") ensureDebian("chromium", "chromium");
+
+  const dir = path.join(root, ".data", mode === "start" ? (production ? "prod" : "dev") : "test");
+  if (mode === "test") fs.rmSync(path.join(dir, "db"), { recursive: true, force: true });
+  const dbPort = await freePort(Number(process.env.SITECUE_DB_PORT ?? (mode === "start" ? 3406 : 3456)));
+  mariadb = await startMariaDB(dir, dbPort);
+  const creds = credentials(dir);
+  const esc = (s) => s.replace(/'/g, "''");
+  const env = {
+    ...process.env,
+    DB_HOST: "127.0.0.1",
+    DB_PORT: String(dbPort),
+  };
+
+  if (mode === "start") {
+    sql(dir, [
+      "CREATE DATABASE IF NOT EXISTS sitecue CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;",
+      `CREATE USER IF NOT EXISTS 'sitecue'@'127.0.0.1' IDENTIFIED BY '${esc(creds.appPassword)}';`,
+      `ALTER USER 'sitecue'@'127.0.0.1' IDENTIFIED BY '${esc(creds.appPassword)}';`,
+      "GRANT ALL PRIVILEGES ON sitecue.* TO 'sitecue'@'127.0.0.1';",
+    ].join(" "));
+    if (production && !fs.existsSync(path.join(root, "dist", "client", "index.html"))) {
+      say("Building the client (vite build)");
+      run("npx", ["vite", "build", "--logLevel", "warn"]);
+    }
+    const port = await freePort(Number(process.env.PORT ?? 3000));
+    Object.assign(env, {
+      NODE_ENV: production ? "production" : "development",
+      PORT: String(port),
+      DB_NAME: "sitecue",
+      DB_USER: "sitecue",
+      DB_PASSWORD: creds.appPassword,
+      SESSION_SECRET: process.env.SESSION_SECRET ?? creds.sessionSecret,
+      APP_URL: process.env.APP_URL ?? `http://localhost:${port}`,
+      SITECUE_MAIL_DIR: path.join(dir, "mail"),
+      SITECUE_BOOT_STARTED: String(t0),
+    });
+    if (!production) env.SMTP_FAKE ??= "1";
+    app = spawn("node", ["--import", "tsx", "server/main.ts"], { cwd: root, env, stdio: "inherit", detached: true });
+    children.add(app);
+    const code = await new Promise((r) => app.once("exit", (c, s) => r(c ?? (s ? 1 : 0))));
+    if (!stopping) {
+      if (code !== 0) fail(`The app stopped with exit code ${code}`);
+      await stopAll();
+    }
+    return;
+  }
+
+  // Test mode: an admin user that may create one database per test file (sitecue_t_*).
+  const adminPassword = randomBytes(18).toString("base64url");
+  sql(dir, [
+    `CREATE USER IF NOT EXISTS 'sitecue_test'@'127.0.0.1' IDENTIFIED BY '${esc(adminPassword)}';`,
+    `ALTER USER 'sitecue_test'@'127.0.0.1' IDENTIFIED BY '${esc(adminPassword)}';`,
+    "GRANT ALL PRIVILEGES ON `sitecue\\_t\\_%`.* TO 'sitecue_test'@'127.0.0.1';",
+  ].join(" "));
+  say("Building the client for the browser tests (vite build)");
+  run("npx", ["vite", "build", "--logLevel", "warn"]);
+  Object.assign(env, {
+    NODE_ENV: "test",
+    DB_ADMIN_USER: "sitecue_test",
+    DB_ADMIN_PASSWORD: adminPassword,
+    SESSION_SECRET: randomBytes(32).toString("base64url"),
+  });
+  say(`Set-up took ${((Date.now() - t0) / 1000).toFixed(1)} s; running the tests`);
+  const vitest = spawn("npx", ["vitest", "run", ...extraArgs], { cwd: root, env, stdio: "inherit", detached: true });
+  app = vitest;
+  const code = await new Promise((r) => vitest.once("exit", (c, s) => r(c ?? (s ? 1 : 0))));
+  app = null;
+  say(`Tests finished in ${((Date.now() - t0) / 1000).toFixed(1)} s with exit code ${code}`);
+  process.exitCode = code;
+  await stopAll();
+}
+
+main().catch(async (err) => {
+  fail(err.message);
+  await stopAll();
+  process.exit(1);
+});

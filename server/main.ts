@@ -1,0 +1,76 @@
+import http from "node:http";
+import { createApp } from "./app";
+import { loadEnv } from "./config/env";
+import { createDataSource } from "./db/data-source";
+import { migrate } from "./db/migrate";
+import { seedDemoIfEmpty } from "./db/seed";
+import { mountClient } from "./http/client";
+import { createMailer } from "./infra/mail/mailer";
+import { startSmtpFake, type SmtpFake } from "./infra/mail/smtp-fake";
+
+const log = (msg: string) => console.log(`[sitecue] ${msg}`);
+
+async function main() {
+  const env = loadEnv();
+  const production = env.NODE_ENV === "production";
+  const db = { host: env.DB_HOST, port: env.DB_PORT, user: env.DB_USER, password: env.DB_PASSWORD, database: env.DB_NAME };
+  const ds = createDataSource(db);
+  await ds.initialize();
+  const ran = await migrate(ds);
+  log(ran.length ? `Migrated: ${ran.join(", ")}` : "Database schema is up to date");
+
+  let mailbox: SmtpFake | null = null;
+  let smtp = { host: env.SMTP_HOST, port: env.SMTP_PORT, secure: env.SMTP_SECURE === "1", user: env.SMTP_USER, password: env.SMTP_PASSWORD, from: env.MAIL_FROM };
+  if (env.SMTP_FAKE === "1") {
+    if (production) throw new Error("SMTP_FAKE=1 is for development only; set SMTP_HOST and friends in production.");
+    mailbox = await startSmtpFake({ dir: env.SITECUE_MAIL_DIR });
+    smtp = { ...smtp, host: "127.0.0.1", port: mailbox.port, secure: false, user: undefined, password: undefined };
+    log(`Local SMTP fake listening on 127.0.0.1:${mailbox.port} (mailbox at /dev/mail)`);
+  }
+  const mailer = createMailer(smtp);
+
+  if (!production) {
+    const seeded = await seedDemoIfEmpty(ds, { production });
+    if (seeded) log("Loaded the demo scenario (Hollin & Vane Joinery)");
+  }
+
+  const appUrl = env.APP_URL ?? `http://localhost:${env.PORT}`;
+  const sitecue = createApp({
+    ds,
+    db,
+    mailer,
+    mailbox,
+    appUrl,
+    sessionSecret: env.SESSION_SECRET,
+    production,
+    devClient: !production,
+    trustProxy: env.TRUST_PROXY === "1",
+  });
+  const server = http.createServer(sitecue.app);
+  const closeClient = await mountClient(sitecue.app, production ? "static" : "vite", server);
+  await new Promise<void>((resolve) => server.listen(env.PORT, "127.0.0.1", resolve));
+  const took = env.SITECUE_BOOT_STARTED ? ` (${((Date.now() - env.SITECUE_BOOT_STARTED) / 1000).toFixed(1)} s after npm start)` : "";
+  log(`Sitecue is ready at ${appUrl}${took}`);
+
+  let closing = false;
+  const shutdown = async () => {
+    if (closing) return;
+    closing = true;
+    log("Shutting down");
+    server.closeAllConnections();
+    await new Promise<void>((resolve) => server.close(() => resolve()));
+    await closeClient();
+    await sitecue.close();
+    mailer.close();
+    await mailbox?.close();
+    await ds.destroy();
+    process.exit(0);
+  };
+  process.on("SIGTERM", shutdown);
+  process.on("SIGINT", shutdown);
+}
+
+main().catch((err) => {
+  console.error(`[sitecue] ${err instanceof Error ? err.message : String(err)}`);
+  process.exit(1);
+});

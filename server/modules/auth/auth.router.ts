@@ -1,0 +1,130 @@
+import passport from "passport";
+import type { Request, Response } from "express";
+import rateLimit from "express-rate-limit";
+import { z } from "zod";
+import {
+  passwordResetBodySchema,
+  sessionResponseSchema,
+  setPasswordBodySchema,
+  signInBodySchema,
+  tokenInfoResponseSchema,
+  tokenParamsSchema,
+} from "../../../shared/schemas";
+import { csrfTokenFor } from "../../http/csrf";
+import { HttpError } from "../../http/errors";
+import type { ApiRoutes } from "../../http/routes";
+import { loadSessionUser } from "../users/users.service";
+import { requestPasswordReset, setPasswordWithToken, tokenInfo, type AuthDeps } from "./auth.service";
+
+export interface AuthRouteOptions {
+  /** Attempts per window per client address for sign-in and link use. */
+  signInLimit: number;
+  windowMs: number;
+}
+
+function limiter(opts: AuthRouteOptions) {
+  return rateLimit({
+    windowMs: opts.windowMs,
+    limit: opts.signInLimit,
+    standardHeaders: "draft-8",
+    legacyHeaders: false,
+    handler: (_req, _res, next) =>
+      next(new HttpError(429, "rate-limited", "Too many attempts. Wait a few minutes and try again.")),
+  });
+}
+
+const login = (req: Request, user: Express.User) =>
+  new Promise<void>((resolve, reject) => req.login(user, (err) => (err ? reject(err) : resolve())));
+
+const authenticateLocal = (req: Request, res: Response) =>
+  new Promise<Express.User | false>((resolve, reject) =>
+    passport.authenticate("local", { session: false }, (err: unknown, user: Express.User | false) =>
+      err ? reject(err) : resolve(user),
+    )(req, res, reject),
+  );
+
+/** Sign-in, sign-out, the session, password reset and set-password-by-link. */
+export function registerAuthRoutes(api: ApiRoutes, deps: AuthDeps, opts: AuthRouteOptions): void {
+  const attempts = limiter(opts);
+  const session = (req: Request) => ({ user: req.user?.user ?? null, csrfToken: csrfTokenFor(req) });
+
+  api.add({
+    method: "get",
+    path: "/auth/session",
+    tag: "auth",
+    summary: "The signed-in person (or null) and the CSRF token for state-changing requests",
+    response: sessionResponseSchema,
+    handler: async ({ req }) => session(req),
+  });
+
+  api.add({
+    method: "post",
+    path: "/auth/sign-in",
+    tag: "auth",
+    summary: "Sign in with e-mail and password (the session id is renewed)",
+    before: [attempts],
+    body: signInBodySchema,
+    response: sessionResponseSchema,
+    handler: async ({ req, res }) => {
+      const user = await authenticateLocal(req, res);
+      if (!user) throw new HttpError(401, "invalid-credentials", "That e-mail and password do not match an account.");
+      await login(req, user);
+      return session(req);
+    },
+  });
+
+  api.add({
+    method: "post",
+    path: "/auth/sign-out",
+    tag: "auth",
+    summary: "Sign out",
+    response: sessionResponseSchema,
+    handler: async ({ req }) => {
+      await new Promise<void>((resolve, reject) => req.logout((err) => (err ? reject(err) : resolve())));
+      return { user: null, csrfToken: csrfTokenFor(req) };
+    },
+  });
+
+  api.add({
+    method: "post",
+    path: "/auth/password-reset",
+    tag: "auth",
+    summary: "E-mail a password-reset link (always answers 202, so accounts are not revealed)",
+    before: [attempts],
+    body: passwordResetBodySchema,
+    status: 202,
+    response: z.object({ ok: z.literal(true) }),
+    handler: async ({ body }) => {
+      await requestPasswordReset(deps, body.email);
+      return { ok: true };
+    },
+  });
+
+  api.add({
+    method: "get",
+    path: "/auth/tokens/:token",
+    tag: "auth",
+    summary: "What an invitation or reset link is for",
+    before: [attempts],
+    params: tokenParamsSchema,
+    response: tokenInfoResponseSchema,
+    handler: async ({ params }) => tokenInfo(deps.ds, params.token),
+  });
+
+  api.add({
+    method: "post",
+    path: "/auth/set-password",
+    tag: "auth",
+    summary: "Use an invitation or reset link once: set the password and sign in",
+    before: [attempts],
+    body: setPasswordBodySchema,
+    response: sessionResponseSchema,
+    handler: async ({ req, body }) => {
+      const userId = await setPasswordWithToken(deps.ds, body.token, body.password);
+      const loaded = await loadSessionUser(deps.ds, userId);
+      if (!loaded) throw new HttpError(404, "token-invalid", "This link is no longer valid.");
+      await login(req, loaded);
+      return session(req);
+    },
+  });
+}

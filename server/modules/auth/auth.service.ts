@@ -1,0 +1,182 @@
+import type { DataSource, EntityManager } from "typeorm";
+import { IsNull } from "typeorm";
+import { newId } from "../../db/columns";
+import { HttpError } from "../../http/errors";
+import type { Mailer } from "../../infra/mail/mailer";
+import { audit } from "../audit/audit.service";
+import { Customer } from "../customers/customers.entity";
+import { Trade, TradeMember } from "../trades/trades.entity";
+import { User } from "../users/users.entity";
+import { Workshop, WorkshopMember } from "../workshops/workshops.entity";
+import { AuthToken, type TokenGrant } from "./auth-tokens.entity";
+import { hashPassword, verifyPassword } from "./passwords";
+import { hashToken, newToken } from "./tokens";
+import type { TokenInfoResponse } from "../../../shared/schemas";
+
+const INVITATION_DAYS = 7;
+const RESET_HOURS = 1;
+
+export interface AuthDeps {
+  ds: DataSource;
+  mailer: Mailer;
+  appUrl: string;
+}
+
+/** Checks an e-mail and password; returns the user id or null (same time either way). */
+export async function checkCredentials(ds: DataSource, email: string, password: string): Promise<string | null> {
+  const user = await ds.getRepository(User).findOneBy({ email: email.toLowerCase() });
+  const ok = await verifyPassword(user?.passwordHash ?? null, password);
+  if (!user || !ok) return null;
+  await ds.getRepository(User).update({ id: user.id }, { lastSignInAt: new Date() });
+  return user.id;
+}
+
+async function issueToken(
+  m: EntityManager,
+  kind: AuthToken["kind"],
+  userId: string,
+  grant: TokenGrant,
+  ttlMs: number,
+  invitedByUserId: string | null,
+): Promise<{ raw: string; expiresAt: Date; id: string }> {
+  const { raw, hash } = newToken();
+  const id = newId();
+  const expiresAt = new Date(Date.now() + ttlMs);
+  await m.insert(AuthToken, {
+    id,
+    tokenHash: hash,
+    kind,
+    userId,
+    workshopId: "workshopId" in grant ? grant.workshopId : null,
+    invitedByUserId,
+    grant,
+    expiresAt,
+    usedAt: null,
+  });
+  return { raw, expiresAt, id };
+}
+
+const roleWords: Record<string, string> = {
+  owner: "an owner",
+  fitter: "a fitter",
+  trade: "a trade",
+  customer: "a customer",
+};
+
+/** Creates (or reuses) the invitee's user and e-mails them a set-password link. */
+export async function invite(
+  deps: AuthDeps,
+  by: { userId: string; name: string },
+  workshopId: string,
+  input: { name: string; email: string; role: "fitter" | "trade" | "customer"; tradeId?: string; customerId?: string },
+) {
+  const { raw, record, workshop } = await deps.ds.transaction(async (m) => {
+    const workshop = await m.findOneByOrFail(Workshop, { id: workshopId });
+    let grant: TokenGrant;
+    if (input.role === "trade") {
+      const trade = await m.findOneBy(Trade, { id: input.tradeId!, workshopId });
+      if (!trade) throw new HttpError(422, "unprocessable", "That trade is not one of this workshop's.", { tradeId: ["Choose one of the workshop's trades"] });
+      grant = { role: "trade", workshopId, tradeId: trade.id };
+    } else if (input.role === "customer") {
+      const customer = await m.findOneBy(Customer, { id: input.customerId!, workshopId });
+      if (!customer) throw new HttpError(422, "unprocessable", "That customer is not one of this workshop's.", { customerId: ["Choose one of the workshop's customers"] });
+      grant = { role: "customer", workshopId, customerId: customer.id };
+    } else {
+      grant = { role: "fitter", workshopId };
+      const user = await m.findOneBy(User, { email: input.email });
+      if (user && (await m.findOneBy(WorkshopMember, { workshopId, userId: user.id }))) {
+        throw new HttpError(409, "conflict", `${input.email} is already a member of this workshop.`, { email: ["Already a member"] });
+      }
+    }
+    let user = await m.findOneBy(User, { email: input.email });
+    if (!user) {
+      user = m.create(User, { id: newId(), email: input.email, name: input.name, passwordHash: null, lastSignInAt: null });
+      await m.insert(User, user);
+    }
+    const token = await issueToken(m, "invitation", user.id, grant, INVITATION_DAYS * 86400_000, by.userId);
+    await audit(m, { workshopId, actorUserId: by.userId, action: "invitation.created", entityType: "user", entityId: user.id, detail: { role: input.role, email: input.email } });
+    return { raw: token.raw, record: { id: token.id, expiresAt: token.expiresAt, userId: user.id }, workshop };
+  });
+  const link = `${deps.appUrl}/invite/${raw}`;
+  await deps.mailer.send({
+    to: input.email,
+    subject: `${workshop.name} invites you to Sitecue`,
+    text: [
+      `Hello ${input.name},`,
+      "",
+      `${by.name} of ${workshop.name} has invited you to Sitecue as ${roleWords[input.role]}.`,
+      "Sitecue is where the job's programme, visits and messages are kept.",
+      "",
+      `Choose a password to accept: ${link}`,
+      "",
+      `The link works once and expires in ${INVITATION_DAYS} days.`,
+    ].join("\n"),
+    html: `<p>Hello ${escapeHtml(input.name)},</p><p>${escapeHtml(by.name)} of ${escapeHtml(workshop.name)} has invited you to Sitecue as ${roleWords[input.role]}.</p><p><a href="${link}">Choose a password to accept</a></p><p>The link works once and expires in ${INVITATION_DAYS} days.</p>`,
+  });
+  return record;
+}
+
+/** E-mails a reset link when the address has an account; says nothing either way. */
+export async function requestPasswordReset(deps: AuthDeps, email: string): Promise<void> {
+  const user = await deps.ds.getRepository(User).findOneBy({ email });
+  if (!user) return;
+  const token = await deps.ds.transaction((m) => issueToken(m, "password-reset", user.id, { role: null }, RESET_HOURS * 3600_000, null));
+  const link = `${deps.appUrl}/reset/${token.raw}`;
+  await deps.mailer.send({
+    to: user.email,
+    subject: "Reset your Sitecue password",
+    text: `Hello ${user.name},\n\nSomeone asked to reset the password for this e-mail address on Sitecue.\nChoose a new password: ${link}\n\nThe link works once and expires in ${RESET_HOURS} hour. If it was not you, ignore this e-mail.`,
+    html: `<p>Hello ${escapeHtml(user.name)},</p><p>Someone asked to reset the password for this e-mail address on Sitecue.</p><p><a href="${link}">Choose a new password</a></p><p>The link works once and expires in ${RESET_HOURS} hour. If it was not you, ignore this e-mail.</p>`,
+  });
+}
+
+async function liveToken(m: EntityManager, raw: string, lock = false): Promise<AuthToken> {
+  const token = await m.findOne(AuthToken, {
+    where: { tokenHash: hashToken(raw), usedAt: IsNull() },
+    ...(lock ? { lock: { mode: "pessimistic_write" as const } } : {}),
+  });
+  if (!token || token.expiresAt.getTime() <= Date.now()) {
+    throw new HttpError(404, "token-invalid", "This link has expired or has already been used. Ask for a new one.");
+  }
+  return token;
+}
+
+/** What the set-password screen shows about a link. */
+export async function tokenInfo(ds: DataSource, raw: string): Promise<TokenInfoResponse> {
+  const token = await liveToken(ds.manager, raw);
+  const user = await ds.getRepository(User).findOneByOrFail({ id: token.userId });
+  const workshop = token.workshopId ? await ds.getRepository(Workshop).findOneBy({ id: token.workshopId }) : null;
+  return { kind: token.kind, email: user.email, name: user.name, workshopName: workshop?.name ?? null, role: token.grant.role };
+}
+
+/** Uses a link once: sets the password and grants what the invitation carried. Returns the user id. */
+export async function setPasswordWithToken(ds: DataSource, raw: string, password: string): Promise<string> {
+  const passwordHash = await hashPassword(password);
+  return ds.transaction(async (m) => {
+    const token = await liveToken(m, raw, true);
+    await m.update(User, { id: token.userId }, { passwordHash });
+    await m.update(AuthToken, { id: token.id }, { usedAt: new Date() });
+    const g = token.grant;
+    if (g.role === "owner" || g.role === "fitter") {
+      const exists = await m.findOneBy(WorkshopMember, { workshopId: g.workshopId, userId: token.userId });
+      if (!exists) await m.insert(WorkshopMember, { id: newId(), workshopId: g.workshopId, userId: token.userId, role: g.role });
+    } else if (g.role === "trade") {
+      const exists = await m.findOneBy(TradeMember, { tradeId: g.tradeId, userId: token.userId });
+      if (!exists) await m.insert(TradeMember, { id: newId(), workshopId: g.workshopId, tradeId: g.tradeId, userId: token.userId });
+    } else if (g.role === "customer") {
+      await m.update(Customer, { id: g.customerId, workshopId: g.workshopId }, { userId: token.userId });
+    }
+    await audit(m, {
+      workshopId: token.workshopId,
+      actorUserId: token.userId,
+      action: token.kind === "invitation" ? "invitation.accepted" : "password.reset",
+      entityType: "user",
+      entityId: token.userId,
+    });
+    return token.userId;
+  });
+}
+
+export function escapeHtml(s: string): string {
+  return s.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
+}

@@ -1,0 +1,56 @@
+// The role matrix's expected answers, written by hand from the brief's roles table — never
+// derived from the permission module, so the test checks the code against the brief.
+//
+//   owner     runs the workshop: everything, incl. members, trades, deleting
+//   fitter    workshop staff: all jobs, edit programmes, trades and customers; NOT members,
+//             workshop settings, deleting jobs or trades
+//   tradeOn   a trade with a booking sent on the job: sees that job, nothing of the workshop's admin
+//   tradeOff  a trade of the same workshop with no booking on the job: does not see the job
+//   customer  the job's householder: sees own job only
+//   other     another customer of the same workshop: does not see this job
+//   anon      not signed in
+//
+// 404 = the record is invisible to them; 403 = visible but not theirs to change (see policies).
+
+export const roles = ["owner", "fitter", "tradeOn", "tradeOff", "customer", "other", "anon"] as const;
+export type MatrixRole = (typeof roles)[number];
+type Row = Record<MatrixRole, number>;
+
+const all = (s: number): Row => ({ owner: s, fitter: s, tradeOn: s, tradeOff: s, customer: s, other: s, anon: s });
+const signedIn = (s: number): Row => ({ ...all(s), anon: 401 });
+/** Workshop admin: others of the workshop are refused (403), strangers too. */
+const ownerOnly = (ok: number): Row => ({ owner: ok, fitter: 403, tradeOn: 403, tradeOff: 403, customer: 403, other: 403, anon: 401 });
+const staff = (ok: number): Row => ({ owner: ok, fitter: ok, tradeOn: 403, tradeOff: 403, customer: 403, other: 403, anon: 401 });
+
+export const expected: Record<string, Row> = {
+  "GET /health": all(200),
+  "GET /openapi.json": all(200),
+  "GET /dev/mail": all(200), // development/test only: the route does not exist in production
+  "GET /auth/session": all(200),
+  "POST /auth/sign-in": all(401), // with wrong credentials: reachable by anyone, grants nothing
+  "POST /auth/sign-out": all(200),
+  "POST /auth/password-reset": all(202),
+  "GET /auth/tokens/:token": all(404), // an unknown token
+  "POST /auth/set-password": all(404), // an unknown token
+
+  "GET /jobs": signedIn(200),
+  "GET /jobs/:jobId": { owner: 200, fitter: 200, tradeOn: 200, tradeOff: 404, customer: 200, other: 404, anon: 401 },
+  "POST /workshops/:workshopId/jobs": staff(201),
+  "PATCH /jobs/:jobId": { owner: 200, fitter: 200, tradeOn: 403, tradeOff: 404, customer: 403, other: 404, anon: 401 },
+  "DELETE /jobs/:jobId": { owner: 204, fitter: 403, tradeOn: 403, tradeOff: 404, customer: 403, other: 404, anon: 401 },
+
+  "GET /workshops/:workshopId": staff(200),
+  "PATCH /workshops/:workshopId": ownerOnly(200),
+  "GET /workshops/:workshopId/members": ownerOnly(200),
+  "GET /workshops/:workshopId/invitations": ownerOnly(200),
+  "POST /workshops/:workshopId/invitations": ownerOnly(201),
+
+  "GET /workshops/:workshopId/trades": staff(200),
+  "POST /workshops/:workshopId/trades": staff(201),
+  // Another trade's record: trades and customers cannot see it at all.
+  "PATCH /trades/:tradeId": { owner: 200, fitter: 200, tradeOn: 404, tradeOff: 404, customer: 404, other: 404, anon: 401 },
+  "DELETE /trades/:tradeId": { owner: 204, fitter: 403, tradeOn: 404, tradeOff: 404, customer: 404, other: 404, anon: 401 },
+
+  "GET /workshops/:workshopId/customers": staff(200),
+  "POST /workshops/:workshopId/customers": staff(201),
+};

@@ -1,0 +1,53 @@
+import { z } from "zod";
+import { idSchema, memberRoleSchema, tradeKindSchema } from "./common";
+
+export const emailSchema = z.email({ message: "Enter a valid e-mail address" }).max(254).transform((s) => s.toLowerCase());
+export const passwordSchema = z
+  .string()
+  .min(10, "Use at least 10 characters")
+  .max(200, "Use at most 200 characters");
+
+export const signInBodySchema = z.object({
+  email: emailSchema,
+  password: z.string().min(1, "Enter your password").max(200),
+});
+export type SignInBody = z.input<typeof signInBodySchema>;
+
+export const passwordResetBodySchema = z.object({ email: emailSchema });
+
+export const setPasswordBodySchema = z.object({
+  token: z.string().min(20).max(200),
+  password: passwordSchema,
+});
+
+export const tokenParamsSchema = z.object({ token: z.string().min(20).max(200) });
+
+/** What the signed-in person is, in each workshop they belong to. */
+export const sessionUserSchema = z.object({
+  id: idSchema,
+  email: z.string(),
+  name: z.string(),
+  memberships: z.array(
+    z.object({ workshopId: idSchema, workshopName: z.string(), role: memberRoleSchema }),
+  ),
+  trades: z.array(
+    z.object({ tradeId: idSchema, workshopId: idSchema, workshopName: z.string(), businessName: z.string(), kind: tradeKindSchema }),
+  ),
+  customers: z.array(z.object({ customerId: idSchema, workshopId: idSchema, workshopName: z.string() })),
+});
+export type SessionUser = z.infer<typeof sessionUserSchema>;
+
+export const sessionResponseSchema = z.object({
+  user: sessionUserSchema.nullable(),
+  csrfToken: z.string(),
+});
+export type SessionResponse = z.infer<typeof sessionResponseSchema>;
+
+export const tokenInfoResponseSchema = z.object({
+  kind: z.enum(["invitation", "password-reset"]),
+  email: z.string(),
+  name: z.string(),
+  workshopName: z.string().nullable(),
+  role: z.enum(["owner", "fitter", "trade", "customer"]).nullable(),
+});
+export type TokenInfoResponse = z.infer<typeof tokenInfoResponseSchema>;

@@ -1,0 +1,7 @@
+import { z } from "zod";
+
+export const healthResponseSchema = z.object({
+  status: z.enum(["ok", "degraded"]),
+  database: z.enum(["up", "down"]),
+  version: z.string(),
+});

@@ -1,0 +1,57 @@
+import { z } from "zod";
+import { clockTimeSchema, idSchema, isoDateSchema, tradeKindSchema, weekdaysSchema } from "./common";
+import { emailSchema } from "./auth";
+
+const phoneSchema = z
+  .string()
+  .trim()
+  .regex(/^[+0-9 ()-]{6,24}$/, "Use digits, spaces, + ( ) or -");
+
+export const tradeBodySchema = z
+  .object({
+    businessName: z.string().trim().min(1, "Enter the business name").max(120),
+    kind: tradeKindSchema,
+    contactName: z.string().trim().min(1, "Enter who to ask for").max(120),
+    email: emailSchema,
+    phone: phoneSchema,
+    workingWeekdays: weekdaysSchema.default([1, 2, 3, 4, 5]),
+    dayStart: clockTimeSchema.default("08:00"),
+    dayEnd: clockTimeSchema.default("16:30"),
+    daysOff: z.array(isoDateSchema).max(366).default([]),
+  })
+  .refine((b) => b.dayStart < b.dayEnd, { message: "The day must end after it starts", path: ["dayEnd"] });
+export type TradeBody = z.input<typeof tradeBodySchema>;
+
+export const updateTradeBodySchema = z
+  .object({
+    businessName: z.string().trim().min(1, "Enter the business name").max(120),
+    kind: tradeKindSchema,
+    contactName: z.string().trim().min(1).max(120),
+    email: emailSchema,
+    phone: phoneSchema,
+    workingWeekdays: weekdaysSchema,
+    dayStart: clockTimeSchema,
+    dayEnd: clockTimeSchema,
+    daysOff: z.array(isoDateSchema).max(366),
+  })
+  .partial()
+  .refine((b) => !(b.dayStart && b.dayEnd) || b.dayStart < b.dayEnd, {
+    message: "The day must end after it starts",
+    path: ["dayEnd"],
+  });
+
+export const tradeResponseSchema = z.object({
+  id: idSchema,
+  workshopId: idSchema,
+  businessName: z.string(),
+  kind: tradeKindSchema,
+  contactName: z.string(),
+  email: z.string(),
+  phone: z.string(),
+  workingWeekdays: z.array(z.number()),
+  dayStart: z.string(),
+  dayEnd: z.string(),
+  daysOff: z.array(z.string()),
+  hasAccount: z.boolean(),
+});
+export type TradeResponse = z.infer<typeof tradeResponseSchema>;

@@ -1,0 +1,92 @@
+import http from "node:http";
+import type { AddressInfo } from "node:net";
+import request from "supertest";
+import type TestAgent from "supertest/lib/agent";
+import { createApp, type SitecueApp } from "../../server/app";
+import { mountClient } from "../../server/http/client";
+import { createMailer } from "../../server/infra/mail/mailer";
+import { startSmtpFake, type SmtpFake } from "../../server/infra/mail/smtp-fake";
+import { localToday } from "../../server/modules/jobs/jobs.presenter";
+import { DEMO_PASSWORD, loadDemoScenario } from "../factories/demo-scenario";
+import { createTestDatabase, type TestDatabase } from "./test-db";
+
+export interface TestApp {
+  sitecue: SitecueApp;
+  db: TestDatabase;
+  mail: SmtpFake;
+  /** Set when `listen` was asked for: the base URL of a real HTTP server (browser tests). */
+  url: string | null;
+  close(): Promise<void>;
+}
+
+/**
+ * Sitecue against a fresh database, with the SMTP fake on a free loopback port. `demo` loads the
+ * demo scenario; `listen` serves the built client over real HTTP for the browser.
+ */
+export async function startTestApp(opts: { demo?: boolean; listen?: boolean; signInLimit?: number } = {}): Promise<TestApp> {
+  const db = await createTestDatabase();
+  const mail = await startSmtpFake();
+  const mailer = createMailer({ host: "127.0.0.1", port: mail.port, secure: false, from: "Sitecue <no-reply@sitecue.example.test>" });
+  if (opts.demo) await loadDemoScenario(db.ds, localToday("Europe/London"));
+  let url: string | null = null;
+  let server: http.Server | null = null;
+  const deps = {
+    ds: db.ds,
+    db: db.settings,
+    mailer,
+    mailbox: mail,
+    appUrl: "http://localhost",
+    sessionSecret: process.env.SESSION_SECRET ?? "test-secret-test-secret",
+    production: false,
+    signInLimit: opts.signInLimit ?? 1000,
+  };
+  let sitecue: SitecueApp;
+  if (opts.listen) {
+    // The URL must be known before the app is made (links in e-mails), so listen first.
+    server = http.createServer();
+    await new Promise<void>((r) => server!.listen(0, "127.0.0.1", r));
+    url = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+    sitecue = createApp({ ...deps, appUrl: url });
+    await mountClient(sitecue.app, "static");
+    server.on("request", sitecue.app);
+  } else {
+    sitecue = createApp(deps);
+  }
+  return {
+    sitecue,
+    db,
+    mail,
+    url,
+    async close() {
+      if (server) {
+        server.closeAllConnections();
+        await new Promise<void>((r) => server!.close(() => r()));
+      }
+      await sitecue.close();
+      mailer.close();
+      await mail.close();
+      await db.drop();
+    },
+  };
+}
+
+/** A supertest agent keeping cookies, with the CSRF token it was given. */
+export interface Session {
+  agent: TestAgent;
+  csrf: string;
+}
+
+/** A fresh anonymous session (it has a CSRF token but nobody signed in). */
+export async function anonymous(t: TestApp): Promise<Session> {
+  const agent = request.agent(t.sitecue.app);
+  const res = await agent.get("/api/auth/session").expect(200);
+  return { agent, csrf: res.body.csrfToken };
+}
+
+/** Signs in through the real route and returns the session. */
+export async function signIn(t: TestApp, email: string, password = DEMO_PASSWORD): Promise<Session> {
+  const s = await anonymous(t);
+  const res = await s.agent.post("/api/auth/sign-in").set("X-CSRF-Token", s.csrf).send({ email, password });
+  if (res.status !== 200) throw new Error(`Sign-in as ${email} failed: ${res.status} ${JSON.stringify(res.body)}`);
+  return { agent: s.agent, csrf: res.body.csrfToken };
+}
