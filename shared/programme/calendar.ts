@@ -7,7 +7,11 @@
 // (slots before each day), so no operation loops over dates.
 import { bankHolidayDays } from './holidays';
 import type { CalendarInput, HolidayRegion } from './types';
-import { MINUTES_PER_DAY, NOON, parseDay, parseTime } from './time';
+import { parseDay, parseTime } from './time';
+
+// Local copies: module-level imports of constants cost a binding lookup in the hot path.
+const MINUTES_PER_DAY = 1440;
+const NOON = 720;
 
 export const DEFAULT_WEEKDAYS = [1, 2, 3, 4, 5];
 export const DEFAULT_DAY_START = '08:00';
@@ -226,4 +230,24 @@ export function slotTableFor(members: CalendarDef[], baseDay: number): SlotTable
     tableCache.set(key, tb);
   }
   return tb;
+}
+
+/** Whether `date` ("YYYY-MM-DD") is a working day of the intersection of `calendars`. */
+export function isWorkingDay(calendars: CalendarInput | CalendarInput[], date: string): boolean {
+  const day = parseDay(date);
+  if (day === null) throw new Error(`"${date}" is not a date (YYYY-MM-DD)`);
+  const list = Array.isArray(calendars) ? calendars : [calendars];
+  return slotTableFor(list.map(resolveCalendar), Math.floor((day - 800) / 512) * 512).isWorkingDay(day);
+}
+
+/** The working days ("YYYY-MM-DD") from `from` to `to` inclusive, on the intersection of `calendars`. */
+export function workingDaysBetween(calendars: CalendarInput | CalendarInput[], from: string, to: string): string[] {
+  const a = parseDay(from);
+  const b = parseDay(to);
+  if (a === null || b === null) throw new Error('from and to must be dates (YYYY-MM-DD)');
+  const list = Array.isArray(calendars) ? calendars : [calendars];
+  const tb = slotTableFor(list.map(resolveCalendar), Math.floor((a - 800) / 512) * 512);
+  const out: string[] = [];
+  for (let d = a; d <= b; d++) if (tb.isWorkingDay(d)) out.push(new Date(d * 86400000).toISOString().slice(0, 10));
+  return out;
 }

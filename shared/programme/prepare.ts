@@ -5,7 +5,7 @@
 import { resolveCalendar, slotTableFor, SlotTable, type CalendarDef } from './calendar';
 import type { HolidayRegion, ProgrammeInput } from './types';
 import { ProgrammeInputError } from './types';
-import { isDateOnly, MINUTES_PER_DAY, NOON, parseDateTime, parseDay, parseTime, formatTime } from './time';
+import { MINUTES_PER_DAY, NOON, parseDateOrDateTime, parseDateTime, parseDay, parseTime, formatTime } from './time';
 import { isValidZone } from './zone';
 
 export const KIND_FS = 0;
@@ -101,11 +101,10 @@ export function prepare(input: ProgrammeInput): Prepared {
 
   // The slot tables start well before every date in the input so that negative lags and
   // negative float have room; rounding keeps the table cache warm between runs.
-  let minDay = dataDay ?? 0;
+  // ISO dates compare as strings, so the earliest is found without parsing each one.
+  let minDate = typeof input.dataDate === 'string' ? input.dataDate : '9999';
   const consider = (s: string | null | undefined) => {
-    if (!s) return;
-    const d = parseDay(s.slice(0, 10));
-    if (d !== null && d < minDay) minDay = d;
+    if (typeof s === 'string' && s < minDate) minDate = s;
   };
   consider(input.handover);
   for (const t of input.tasks) {
@@ -115,6 +114,7 @@ export function prepare(input: ProgrammeInput): Prepared {
     consider(t.actualFinish);
   }
   for (const b of input.busy ?? []) consider(b.start);
+  const minDay = parseDay(minDate.slice(0, 10)) ?? dataDay ?? 0;
   const baseDay = Math.floor((minDay - 800) / 512) * 512;
 
   const tasks = input.tasks;
@@ -130,6 +130,7 @@ export function prepare(input: ProgrammeInput): Prepared {
   const actS = new Float64Array(n).fill(NaN);
   const actF = new Float64Array(n).fill(NaN);
   const tableByKey = new Map<string, SlotTable | null>();
+  const pairTables = new Map<string, Map<string, SlotTable | null>>();
   const workshop = slotTableFor([workshopDef], baseDay);
 
   for (let i = 0; i < n; i++) {
@@ -137,16 +138,26 @@ export function prepare(input: ProgrammeInput): Prepared {
     ids[i] = t.id;
     names[i] = t.name ?? t.id;
     resource[i] = t.resource ?? null;
-    const where = label(t.id);
+    const where = label(t.id); // a cheap string; messages are built only for problems
     if (typeof t.id !== 'string' || t.id === '') problems.push(`Task ${i + 1} has no id`);
     if (index.has(t.id)) problems.push(`${where} is listed twice`);
     index.set(t.id, i);
 
     // Calendar: one id or a list; absent means the workshop calendar.
-    const calIds = t.calendar == null ? [workshopDef.id] : Array.isArray(t.calendar) ? t.calendar : [t.calendar];
-    const key = calIds.join('\u0000');
-    let tb = tableByKey.get(key);
+    const cal = t.calendar;
+    // Two-calendar lists (trade + site) are the common case: look them up without joining.
+    let pair: Map<string, SlotTable | null> | undefined;
+    let key: string;
+    if (cal == null) key = '';
+    else if (typeof cal === 'string') key = cal;
+    else if (cal.length === 2) {
+      pair = pairTables.get(cal[0]);
+      if (!pair) pairTables.set(cal[0], (pair = new Map()));
+      key = cal[1];
+    } else key = '\u0000' + cal.join('\u0000');
+    let tb = (pair ?? tableByKey).get(key);
     if (tb === undefined) {
+      const calIds = cal == null ? [workshopDef.id] : Array.isArray(cal) ? cal : [cal];
       const members: CalendarDef[] = [];
       let ok = calIds.length > 0;
       for (const cid of calIds) {
@@ -156,13 +167,12 @@ export function prepare(input: ProgrammeInput): Prepared {
           ok = false;
         } else members.push(def);
       }
-      if (ok && !members.some(() => true)) ok = false;
       if (ok && ![1, 2, 3, 4, 5, 6, 7].some((w) => members.every((m) => m.weekdays.includes(w)))) {
         problems.push(`${where}: calendars ${calIds.join(' and ')} share no working weekday`);
         ok = false;
       }
       tb = ok ? slotTableFor(members, baseDay) : null;
-      tableByKey.set(key, tb);
+      (pair ?? tableByKey).set(key, tb);
     }
     tables[i] = tb ?? workshop;
 
@@ -172,8 +182,8 @@ export function prepare(input: ProgrammeInput): Prepared {
 
     const table = tables[i];
     if (t.notEarlierThan != null) {
-      const v = isDateOnly(t.notEarlierThan) ? parseDay(t.notEarlierThan)! * MINUTES_PER_DAY : parseDateTime(t.notEarlierThan);
-      if (v === null || Number.isNaN(v)) problems.push(`${where}: notEarlierThan "${t.notEarlierThan}" is not a date or date-time`);
+      const v = parseDateOrDateTime(t.notEarlierThan, 0);
+      if (Number.isNaN(v)) problems.push(`${where}: notEarlierThan "${t.notEarlierThan}" is not a date or date-time`);
       else net[i] = v;
     }
     pin[i] = slotInstant(t.bookedStart, 'bookedStart', 'start', table, where, problems);
@@ -193,21 +203,18 @@ export function prepare(input: ProgrammeInput): Prepared {
   const eLag = new Int32Array(m);
   const inCount = new Int32Array(n + 1);
   const outCount = new Int32Array(n + 1);
-  let linksOk = true;
   for (let e = 0; e < m; e++) {
     const l = links[e];
     const f = index.get(l.from);
     const to = index.get(l.to);
-    const where = `Link ${l.from} → ${l.to}`;
+    const where = 'Link ' + l.from + ' → ' + l.to;
     if (f === undefined) problems.push(`${where}: task "${l.from}" is not in tasks`);
     if (to === undefined) problems.push(`${where}: task "${l.to}" is not in tasks`);
     if (f === undefined || to === undefined) {
-      linksOk = false;
       continue;
     }
     if (f === to) {
       problems.push(`${where}: a task cannot wait for itself`);
-      linksOk = false;
       continue;
     }
     eFrom[e] = f;
@@ -235,12 +242,13 @@ export function prepare(input: ProgrammeInput): Prepared {
   const busy: Prepared['busy'] = [];
   for (const b of input.busy ?? []) {
     const where = `Busy interval of "${b.resource}"${b.ref ? ` (${b.ref})` : ''}`;
-    const s = isDateOnly(b.start) ? parseDay(b.start)! * MINUTES_PER_DAY : parseDateTime(b.start);
-    const f = isDateOnly(b.finish) ? (parseDay(b.finish)! + 1) * MINUTES_PER_DAY : parseDateTime(b.finish);
-    if (s === null || Number.isNaN(s)) problems.push(`${where}: start "${b.start}" is not a date-time`);
-    if (f === null || Number.isNaN(f)) problems.push(`${where}: finish "${b.finish}" is not a date-time`);
-    if (s !== null && f !== null && !(f > s)) problems.push(`${where}: finish is not after start`);
-    if (s !== null && f !== null) busy.push({ resource: b.resource, start: s, finish: f, ref: b.ref ?? null });
+    // A date alone runs from the start of that day to its end.
+    const s = parseDateOrDateTime(b.start, 0);
+    const f = parseDateOrDateTime(b.finish, MINUTES_PER_DAY);
+    if (Number.isNaN(s)) problems.push(`${where}: start "${b.start}" is not a date or date-time`);
+    if (Number.isNaN(f)) problems.push(`${where}: finish "${b.finish}" is not a date or date-time`);
+    if (!Number.isNaN(s) && !Number.isNaN(f) && !(f > s)) problems.push(`${where}: finish is not after start`);
+    if (!Number.isNaN(s) && !Number.isNaN(f)) busy.push({ resource: b.resource, start: s, finish: f, ref: b.ref ?? null });
   }
 
   if (problems.length > 0) throw new ProgrammeInputError(problems);
@@ -260,7 +268,6 @@ export function prepare(input: ProgrammeInput): Prepared {
     inEdges[inFill[eTo[e]]++] = e;
     outEdges[outFill[eFrom[e]]++] = e;
   }
-  void linksOk;
 
   const order = topologicalOrder(n, m, eFrom, eTo, inStart, inEdges, outStart, outEdges, ids);
 
@@ -309,7 +316,7 @@ function slotInstant(
   problems: string[],
 ): number {
   if (value == null) return NaN;
-  if (isDateOnly(value)) {
+  if (value.length === 10) {
     const d = parseDay(value);
     if (d === null) {
       problems.push(`${where}: ${field} "${value}" is not a date`);
@@ -361,8 +368,6 @@ function topologicalOrder(
   if (tail === n) return order;
   // Every remaining task has a predecessor that also remains: walking back from one of them
   // must revisit a task, and the walk between the two visits is a loop.
-  void inEdges;
-  void inStart;
   const problems: string[] = [];
   const reported = new Uint8Array(n);
   for (let s = 0; s < n; s++) {
@@ -383,11 +388,14 @@ function topologicalOrder(
       }
       cur = next;
     }
-    const loop = walk.slice(seenAt.get(cur)!).reverse();
+    let loop = walk.slice(seenAt.get(cur)!).reverse();
     if (loop.some((t) => reported[t])) continue;
+    // Start the loop at its smallest id so that the message does not depend on input order.
+    let first = 0;
+    for (let k = 1; k < loop.length; k++) if (ids[loop[k]] < ids[loop[first]]) first = k;
+    loop = [...loop.slice(first), ...loop.slice(0, first)];
     for (const t of loop) reported[t] = 1;
     problems.push(`Links form a loop: ${[...loop, loop[0]].map((t) => ids[t]).join(' → ')}`);
-    // Mark everything reachable as reported is not needed: each loop found is named once.
   }
   throw new ProgrammeInputError(problems);
 }

@@ -2,8 +2,16 @@
 // path (spec "Scheduling rules" and "Conventions"). Each link rule is written out beside the
 // code that applies it, forward in `linkStartBound`, backward in `linkLatestSource`.
 import type { SlotTable } from './calendar';
-import { prepare, KIND_FF, KIND_SS, UNIT_ELAPSED, type Prepared } from './prepare';
-import { formatLocal, humanDay, MINUTES_PER_DAY, NOON, formatTime } from './time';
+import { prepare, type Prepared } from './prepare';
+import { formatLocal, humanDay, formatTime } from './time';
+
+// Local copies of shared constants (see prepare.ts for KIND_* and UNIT_*), kept here because the
+// passes read them millions of times.
+const MINUTES_PER_DAY = 1440;
+const NOON = 720;
+const KIND_SS = 1;
+const KIND_FF = 2;
+const UNIT_ELAPSED = 1;
 import type { Problem, ProgrammeInput, ProgrammeResult, TaskResult, WaitingOn } from './types';
 import { addElapsedMinutes } from './zone';
 
@@ -460,6 +468,12 @@ function clashes(c: Computed): Map<number, { at: number; message: string }[]> {
   return out;
 }
 
+function nonWorking(list: Problem[], tb: SlotTable, field: string, t: number): void {
+  const day = Math.floor(t / MINUTES_PER_DAY);
+  if (!tb.isWorkingDay(day))
+    list.push({ code: 'non-working-day', message: `${field} ${humanDay(day)} is not a working day on this task's calendar` });
+}
+
 /** Problems of each task, in a fixed order of codes. */
 function problemsOf(c: Computed): Problem[][] {
   const { p } = c;
@@ -492,15 +506,10 @@ function problemsOf(c: Computed): Problem[][] {
             : `Booked for ${describeStart(pin, tb)}, but it can start only from ${when}`,
       });
     }
-    for (const [field, t] of [
-      ['Booked start', pin],
-      ['Actual start', p.actS[i]],
-      ['Actual finish', p.actF[i]],
-    ] as const) {
-      if (Number.isNaN(t)) continue;
-      const day = Math.floor(t / MINUTES_PER_DAY);
-      if (!tb.isWorkingDay(day)) list.push({ code: 'non-working-day', message: `${field} ${humanDay(day)} is not a working day on this task's calendar` });
-    }
+    // A booked or actual date on a day the task's calendar does not work.
+    if (!Number.isNaN(pin)) nonWorking(list, tb, 'Booked start', pin);
+    if (!Number.isNaN(p.actS[i])) nonWorking(list, tb, 'Actual start', p.actS[i]);
+    if (!Number.isNaN(p.actF[i])) nonWorking(list, tb, 'Actual finish', p.actF[i]);
     const cl = clash.get(i);
     if (cl) {
       cl.sort((a, b) => a.at - b.at || (a.message < b.message ? -1 : a.message > b.message ? 1 : 0));
@@ -524,16 +533,24 @@ function waitingOn(c: Computed, j: number): WaitingOn[] {
   const { p } = c;
   if (c.state[j] !== STATE_WAITING) return [];
   // One entry per predecessor, at the latest its links allow; sorted by allowsFrom, then id.
-  const per = new Map<number, number>();
+  const preds: number[] = [];
+  const at: number[] = [];
   for (let k = p.inStart[j]; k < p.inStart[j + 1]; k++) {
     const e = p.inEdges[k];
-    if (!(c.allows[e] > c.ddStart[j])) continue;
+    const a = c.allows[e];
+    if (!(a > c.ddStart[j])) continue;
     const i = p.eFrom[e];
-    const prev = per.get(i);
-    if (prev === undefined || c.allows[e] > prev) per.set(i, c.allows[e]);
+    const seen = preds.indexOf(i);
+    if (seen < 0) {
+      preds.push(i);
+      at.push(a);
+    } else if (a > at[seen]) at[seen] = a;
   }
-  const list = [...per].sort((a, b) => a[1] - b[1] || (p.ids[a[0]] < p.ids[b[0]] ? -1 : 1));
-  return list.map(([i, t]) => ({ task: p.ids[i], allowsFrom: formatLocal(t) }));
+  const list: WaitingOn[] = new Array(preds.length);
+  const order = preds.map((_, k) => k);
+  if (order.length > 1) order.sort((x, y) => at[x] - at[y] || (p.ids[preds[x]] < p.ids[preds[y]] ? -1 : 1));
+  for (let k = 0; k < order.length; k++) list[k] = { task: p.ids[preds[order[k]]], allowsFrom: formatLocal(at[order[k]]) };
+  return list;
 }
 
 const STATE_NAMES = ['waiting', 'clear', 'started', 'done'] as const;

@@ -6,25 +6,48 @@
 export const MINUTES_PER_DAY = 1440;
 export const NOON = 720;
 
-const DATE_RE = /^(\d{4})-(\d{2})-(\d{2})$/;
-const DATE_TIME_RE = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})$/;
 const TIME_RE = /^(\d{2}):(\d{2})$/;
+
+// Hand-written digit parsing: dates are parsed for every task of a 10,000-task portfolio.
+function digits(s: string, from: number, count: number): number {
+  let v = 0;
+  for (let i = from; i < from + count; i++) {
+    const c = s.charCodeAt(i) - 48;
+    if (c < 0 || c > 9) return -1;
+    v = v * 10 + c;
+  }
+  return v;
+}
+
+function datePart(s: string): number | null {
+  if (s.charCodeAt(4) !== 45 || s.charCodeAt(7) !== 45) return null; // '-'
+  const y = digits(s, 0, 4);
+  const mo = digits(s, 5, 2);
+  const d = digits(s, 8, 2);
+  if (y < 0 || mo < 0 || d < 0) return null;
+  return dayFromParts(y, mo, d);
+}
 
 /** Day number (days since 1970-01-01) of a valid "YYYY-MM-DD", or null. */
 export function parseDay(s: string): number | null {
-  const m = DATE_RE.exec(s);
-  if (!m) return null;
-  return dayFromParts(+m[1], +m[2], +m[3]);
+  if (typeof s !== 'string' || s.length !== 10) return null;
+  return datePart(s);
 }
 
+const MONTH_DAYS = [31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31];
+
 function dayFromParts(y: number, mo: number, d: number): number | null {
-  if (mo < 1 || mo > 12 || d < 1 || d > 31) return null;
-  const ms = Date.UTC(y, mo - 1, d);
-  const check = new Date(ms);
-  // Reject 2026-02-30 and the like, which Date.UTC silently rolls over.
-  if (check.getUTCFullYear() !== y || check.getUTCMonth() !== mo - 1 || check.getUTCDate() !== d)
-    return null;
-  return Math.round(ms / 86400000);
+  if (mo < 1 || mo > 12 || d < 1) return null;
+  const leap = (y % 4 === 0 && y % 100 !== 0) || y % 400 === 0;
+  // Reject 2026-02-30 and the like, which Date.UTC would silently roll over.
+  if (d > (mo === 2 && leap ? 29 : MONTH_DAYS[mo - 1])) return null;
+  // Days from civil (H. Hinnant's algorithm): no Date objects on the hot path.
+  const yy = mo <= 2 ? y - 1 : y;
+  const era = Math.floor(yy / 400);
+  const yoe = yy - era * 400;
+  const doy = Math.floor((153 * (mo + (mo > 2 ? -3 : 9)) + 2) / 5) + d - 1;
+  const doe = yoe * 365 + Math.floor(yoe / 4) - Math.floor(yoe / 100) + doy;
+  return era * 146097 + doe - 719468;
 }
 
 /** Minutes after midnight of a valid "HH:mm" (00:00–24:00), or null. */
@@ -39,18 +62,31 @@ export function parseTime(s: string): number | null {
 
 /** Local minutes of a valid "YYYY-MM-DDTHH:mm", or null. */
 export function parseDateTime(s: string): number | null {
-  const m = DATE_TIME_RE.exec(s);
-  if (!m) return null;
-  const day = dayFromParts(+m[1], +m[2], +m[3]);
-  const h = +m[4];
-  const min = +m[5];
-  if (day === null || h > 23 || min > 59) return null;
+  if (typeof s !== 'string' || s.length !== 16 || s.charCodeAt(10) !== 84 || s.charCodeAt(13) !== 58) return null; // 'T', ':'
+  const day = datePart(s);
+  const h = digits(s, 11, 2);
+  const min = digits(s, 14, 2);
+  if (day === null || h < 0 || min < 0 || h > 23 || min > 59) return null;
   return day * MINUTES_PER_DAY + h * 60 + min;
 }
 
 /** True when the string is a date only ("YYYY-MM-DD"). */
 export function isDateOnly(s: string): boolean {
-  return DATE_RE.test(s);
+  return parseDay(s) !== null;
+}
+
+/**
+ * Local minutes of a date or date-time: a date alone means `dateMinute` minutes into that day
+ * (e.g. 0 for its start, 1440 for its end). NaN when neither form parses.
+ */
+export function parseDateOrDateTime(s: string, dateMinute: number): number {
+  if (typeof s !== 'string') return NaN;
+  if (s.length === 10) {
+    const d = datePart(s);
+    return d === null ? NaN : d * MINUTES_PER_DAY + dateMinute;
+  }
+  const t = parseDateTime(s);
+  return t === null ? NaN : t;
 }
 
 /** ISO weekday (1 = Monday … 7 = Sunday) of a day number; 1970-01-01 was a Thursday. */

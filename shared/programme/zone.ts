@@ -7,8 +7,16 @@ import { MINUTES_PER_DAY } from './time';
 
 /** True when `zone` is a known IANA time-zone name. */
 export function isValidZone(zone: string): boolean {
-  return IANAZone.isValidZone(zone);
+  // Luxon builds an Intl formatter to answer; remember the answer.
+  let ok = validity.get(zone);
+  if (ok === undefined) {
+    ok = IANAZone.isValidZone(zone);
+    validity.set(zone, ok);
+  }
+  return ok;
 }
+
+const validity = new Map<string, boolean>();
 
 interface ZoneTable {
   fromUtcMin: number; // covered range, UTC minutes
