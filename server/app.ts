@@ -2,7 +2,7 @@ import express, { type Express } from "express";
 import session from "express-session";
 import MySQLStoreFactory from "express-mysql-session";
 import helmet from "helmet";
-import passport from "passport";
+import { Passport } from "passport";
 import { Strategy as LocalStrategy } from "passport-local";
 import type { DataSource } from "typeorm";
 import type { DbSettings } from "./db/data-source";
@@ -88,6 +88,8 @@ export function createApp(deps: AppDeps): SitecueApp {
     expiration: 14 * 24 * 3600 * 1000,
   });
 
+  // One Passport per app (not the module singleton), so two apps in one process never share strategies.
+  const passport = new Passport();
   passport.use(
     new LocalStrategy({ usernameField: "email", passwordField: "password" }, (email, password, done) => {
       checkCredentials(deps.ds, email, password)
@@ -105,7 +107,7 @@ export function createApp(deps: AppDeps): SitecueApp {
   const api = new ApiRoutes();
   const authDeps = { ds: deps.ds, mailer: deps.mailer, appUrl: deps.appUrl };
   registerHealthRoutes(api, deps.ds, version);
-  registerAuthRoutes(api, authDeps, {
+  registerAuthRoutes(api, authDeps, passport, {
     signInLimit: deps.signInLimit ?? 10,
     windowMs: deps.signInWindowMs ?? 15 * 60 * 1000,
   });

@@ -1,4 +1,4 @@
-import passport from "passport";
+import type { Authenticator } from "passport";
 import type { Request, Response } from "express";
 import rateLimit from "express-rate-limit";
 import { z } from "zod";
@@ -36,7 +36,7 @@ function limiter(opts: AuthRouteOptions) {
 const login = (req: Request, user: Express.User) =>
   new Promise<void>((resolve, reject) => req.login(user, (err) => (err ? reject(err) : resolve())));
 
-const authenticateLocal = (req: Request, res: Response) =>
+const authenticateLocal = (passport: Pick<Authenticator, "authenticate">, req: Request, res: Response) =>
   new Promise<Express.User | false>((resolve, reject) =>
     passport.authenticate("local", { session: false }, (err: unknown, user: Express.User | false) =>
       err ? reject(err) : resolve(user),
@@ -44,7 +44,7 @@ const authenticateLocal = (req: Request, res: Response) =>
   );
 
 /** Sign-in, sign-out, the session, password reset and set-password-by-link. */
-export function registerAuthRoutes(api: ApiRoutes, deps: AuthDeps, opts: AuthRouteOptions): void {
+export function registerAuthRoutes(api: ApiRoutes, deps: AuthDeps, passport: Pick<Authenticator, "authenticate">, opts: AuthRouteOptions): void {
   const attempts = limiter(opts);
   const session = (req: Request) => ({ user: req.user?.user ?? null, csrfToken: csrfTokenFor(req) });
 
@@ -66,7 +66,7 @@ export function registerAuthRoutes(api: ApiRoutes, deps: AuthDeps, opts: AuthRou
     body: signInBodySchema,
     response: sessionResponseSchema,
     handler: async ({ req, res }) => {
-      const user = await authenticateLocal(req, res);
+      const user = await authenticateLocal(passport, req, res);
       if (!user) throw new HttpError(401, "invalid-credentials", "That e-mail and password do not match an account.");
       await login(req, user);
       return session(req);
