@@ -136,10 +136,12 @@ export function compute(p: Prepared): Computed {
     if (!Number.isNaN(aS) || !Number.isNaN(aF)) {
       // Started or done: the actual dates stand; links no longer apply to this task.
       let start = aS;
-      if (Number.isNaN(start)) start = d === 0 ? aF : tb.start(tb.endsAtOrBefore(aF) - d);
+      // A milestone is one instant: its actual finish if given, else its actual start.
+      if (d === 0) start = Number.isNaN(aF) ? aS : aF;
+      else if (Number.isNaN(start)) start = tb.start(tb.endsAtOrBefore(aF) - d);
       let finish: number;
       if (!Number.isNaN(aF) || d === 0) {
-        finish = Number.isNaN(aF) ? start : aF;
+        finish = d === 0 || Number.isNaN(aF) ? start : aF;
         state[j] = STATE_DONE;
       } else {
         // Started, not finished: no earlier than actual start + duration, and no earlier than
