@@ -58,7 +58,7 @@ export const LinkSchema = z
     lagUnit: LagUnitSchema.nullish(),
   })
   .refine((l) => (l.lagUnit ?? 'workingDays') !== 'workingDays' || halfStep(l.lag ?? 0), {
-    error: 'a lag in working days must be a multiple of 0.5',
+    error: 'must be a multiple of 0.5 working days',
     path: ['lag'],
   });
 
