@@ -5,17 +5,17 @@
 // day workDays[k >> 1], morning when k is even. Positions are counted in slots; "add N working
 // days" is `position + 2N`, and turning an instant into a position is a lookup in `cum`
 // (slots before each day), so no operation loops over dates.
-import { bankHolidayDays } from './holidays';
-import type { CalendarInput, HolidayRegion } from './types';
-import { parseDay, parseTime } from './time';
+import { bankHolidayDays } from "./holidays";
+import type { CalendarInput, HolidayRegion } from "./types";
+import { parseDay, parseTime } from "./time";
 
 // Local copies: module-level imports of constants cost a binding lookup in the hot path.
 const MINUTES_PER_DAY = 1440;
 const NOON = 720;
 
 export const DEFAULT_WEEKDAYS = [1, 2, 3, 4, 5];
-export const DEFAULT_DAY_START = '08:00';
-export const DEFAULT_DAY_END = '16:30';
+export const DEFAULT_DAY_START = "08:00";
+export const DEFAULT_DAY_END = "16:30";
 
 /** One input calendar with its defaults applied. */
 export interface CalendarDef {
@@ -35,9 +35,11 @@ export function resolveCalendar(c: CalendarInput): CalendarDef {
     dayStart: parseTime(c.dayStart ?? DEFAULT_DAY_START) ?? 480,
     dayEnd: parseTime(c.dayEnd ?? DEFAULT_DAY_END) ?? 990,
     region: c.holidayRegion ?? null,
-    daysOff: [...new Set((c.daysOff ?? []).map((d) => parseDay(d)).filter((d) => d !== null))].sort(
-      (a, b) => a - b,
-    ),
+    daysOff: [
+      ...new Set(
+        (c.daysOff ?? []).map((d) => parseDay(d)).filter((d) => d !== null),
+      ),
+    ].sort((a, b) => a - b),
   };
 }
 
@@ -69,7 +71,8 @@ export class SlotTable {
     this.dayStart = Math.max(...members.map((m) => m.dayStart));
     this.dayEnd = Math.min(...members.map((m) => m.dayEnd));
     this.weekdayOk = [false];
-    for (let wd = 1; wd <= 7; wd++) this.weekdayOk.push(members.every((m) => m.weekdays.includes(wd)));
+    for (let wd = 1; wd <= 7; wd++)
+      this.weekdayOk.push(members.every((m) => m.weekdays.includes(wd)));
     for (const m of members) for (const d of m.daysOff) this.offDays.add(d);
     this.baseDay = baseDay;
     this.endDay = baseDay;
@@ -80,7 +83,8 @@ export class SlotTable {
     if (this.offYears.has(year)) return;
     this.offYears.add(year);
     for (const m of this.members) {
-      if (m.region) for (const d of bankHolidayDays(m.region, year)) this.offDays.add(d);
+      if (m.region)
+        for (const d of bankHolidayDays(m.region, year)) this.offDays.add(d);
     }
   }
 
@@ -90,7 +94,8 @@ export class SlotTable {
     let count = this.cum[this.cum.length - 1];
     for (let d = this.endDay; d < target; d++) {
       const date = new Date(d * 86400000);
-      if (date.getUTCMonth() === 0 && date.getUTCDate() === 1) this.addHolidayYear(date.getUTCFullYear());
+      if (date.getUTCMonth() === 0 && date.getUTCDate() === 1)
+        this.addHolidayYear(date.getUTCFullYear());
       if (d === this.endDay) this.addHolidayYear(date.getUTCFullYear());
       if (this.isWorkingDayRaw(d)) {
         this.workDays.push(d);
@@ -122,21 +127,26 @@ export class SlotTable {
   }
 
   private ensureSlot(k: number): void {
-    while (k >= this.workDays.length * 2) this.extendTo(this.endDay + CHUNK_DAYS);
+    while (k >= this.workDays.length * 2)
+      this.extendTo(this.endDay + CHUNK_DAYS);
   }
 
   /** Start instant (local minutes) of slot k. */
   start(k: number): number {
     if (k < 0) k = 0;
     this.ensureSlot(k);
-    return this.workDays[k >> 1] * MINUTES_PER_DAY + (k & 1 ? NOON : this.dayStart);
+    return (
+      this.workDays[k >> 1] * MINUTES_PER_DAY + (k & 1 ? NOON : this.dayStart)
+    );
   }
 
   /** End instant of slot k. */
   end(k: number): number {
     if (k < 0) k = 0;
     this.ensureSlot(k);
-    return this.workDays[k >> 1] * MINUTES_PER_DAY + (k & 1 ? this.dayEnd : NOON);
+    return (
+      this.workDays[k >> 1] * MINUTES_PER_DAY + (k & 1 ? this.dayEnd : NOON)
+    );
   }
 
   /** Number of slots starting before t: the position t snaps forward to (first start ≥ t). */
@@ -207,12 +217,16 @@ export class SlotTable {
 
   /** True when t is a slot start or end of this calendar. */
   isBoundary(t: number): boolean {
-    return this.startsAtOrBefore(t) !== this.startsBefore(t) || this.endsAtOrBefore(t) !== this.endsBefore(t);
+    return (
+      this.startsAtOrBefore(t) !== this.startsBefore(t) ||
+      this.endsAtOrBefore(t) !== this.endsBefore(t)
+    );
   }
 
   /** Whole slots inside [a, b]; negative (slots inside [b, a]) when b < a. */
   slotsBetween(a: number, b: number): number {
-    if (a <= b) return Math.max(0, this.endsAtOrBefore(b) - this.startsBefore(a));
+    if (a <= b)
+      return Math.max(0, this.endsAtOrBefore(b) - this.startsBefore(a));
     return -Math.max(0, this.endsAtOrBefore(a) - this.startsBefore(b));
   }
 }
@@ -220,9 +234,14 @@ export class SlotTable {
 const tableCache = new Map<string, SlotTable>();
 
 /** The (cached) slot table for a set of calendars from `baseDay`; tables are built once. */
-export function slotTableFor(members: CalendarDef[], baseDay: number): SlotTable {
-  const sorted = [...members].sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
-  const key = baseDay + '|' + JSON.stringify(sorted);
+export function slotTableFor(
+  members: CalendarDef[],
+  baseDay: number,
+): SlotTable {
+  const sorted = [...members].sort((a, b) =>
+    a.id < b.id ? -1 : a.id > b.id ? 1 : 0,
+  );
+  const key = baseDay + "|" + JSON.stringify(sorted);
   let tb = tableCache.get(key);
   if (!tb) {
     if (tableCache.size > 256) tableCache.clear();
@@ -233,21 +252,37 @@ export function slotTableFor(members: CalendarDef[], baseDay: number): SlotTable
 }
 
 /** Whether `date` ("YYYY-MM-DD") is a working day of the intersection of `calendars`. */
-export function isWorkingDay(calendars: CalendarInput | CalendarInput[], date: string): boolean {
+export function isWorkingDay(
+  calendars: CalendarInput | CalendarInput[],
+  date: string,
+): boolean {
   const day = parseDay(date);
   if (day === null) throw new Error(`"${date}" is not a date (YYYY-MM-DD)`);
   const list = Array.isArray(calendars) ? calendars : [calendars];
-  return slotTableFor(list.map(resolveCalendar), Math.floor((day - 800) / 512) * 512).isWorkingDay(day);
+  return slotTableFor(
+    list.map(resolveCalendar),
+    Math.floor((day - 800) / 512) * 512,
+  ).isWorkingDay(day);
 }
 
 /** The working days ("YYYY-MM-DD") from `from` to `to` inclusive, on the intersection of `calendars`. */
-export function workingDaysBetween(calendars: CalendarInput | CalendarInput[], from: string, to: string): string[] {
+export function workingDaysBetween(
+  calendars: CalendarInput | CalendarInput[],
+  from: string,
+  to: string,
+): string[] {
   const a = parseDay(from);
   const b = parseDay(to);
-  if (a === null || b === null) throw new Error('from and to must be dates (YYYY-MM-DD)');
+  if (a === null || b === null)
+    throw new Error("from and to must be dates (YYYY-MM-DD)");
   const list = Array.isArray(calendars) ? calendars : [calendars];
-  const tb = slotTableFor(list.map(resolveCalendar), Math.floor((a - 800) / 512) * 512);
+  const tb = slotTableFor(
+    list.map(resolveCalendar),
+    Math.floor((a - 800) / 512) * 512,
+  );
   const out: string[] = [];
-  for (let d = a; d <= b; d++) if (tb.isWorkingDay(d)) out.push(new Date(d * 86400000).toISOString().slice(0, 10));
+  for (let d = a; d <= b; d++)
+    if (tb.isWorkingDay(d))
+      out.push(new Date(d * 86400000).toISOString().slice(0, 10));
   return out;
 }

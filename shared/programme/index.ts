@@ -1,7 +1,13 @@
 // Public API of the programme engine (issue 3). Pure: plain data in, plain data out.
-export { scheduleProgramme } from './schedule';
-export { startWindow, firstFreeStart, impactOf } from './questions';
-export type { StartWindow, FreeStart, Impact, TaskMove, Reconfirm } from './questions';
+export { scheduleProgramme } from "./schedule";
+export { startWindow, firstFreeStart, impactOf } from "./questions";
+export type {
+  StartWindow,
+  FreeStart,
+  Impact,
+  TaskMove,
+  Reconfirm,
+} from "./questions";
 export {
   parseProgrammeInput,
   ProgrammeInputSchema,
@@ -15,8 +21,8 @@ export {
   DateSchema,
   DateOrDateTimeSchema,
   TimeOfDaySchema,
-} from './schema';
-export type { ParseResult } from './schema';
-export { bankHolidayDays, PUBLISHED_ADDITIONS } from './holidays';
-export { isWorkingDay, workingDaysBetween } from './calendar';
-export * from './types';
+} from "./schema";
+export type { ParseResult } from "./schema";
+export { bankHolidayDays, PUBLISHED_ADDITIONS } from "./holidays";
+export { isWorkingDay, workingDaysBetween } from "./calendar";
+export * from "./types";

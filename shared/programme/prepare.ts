@@ -2,11 +2,24 @@
 // quickly (CSR adjacency, per-task slot tables, instants as local minutes). Every problem is
 // collected as one plain-English line (spec: "invalid input … one plain-English line per
 // problem"), so the CLI and the API can show them all at once.
-import { resolveCalendar, slotTableFor, SlotTable, type CalendarDef } from './calendar';
-import type { HolidayRegion, ProgrammeInput } from './types';
-import { ProgrammeInputError } from './types';
-import { MINUTES_PER_DAY, NOON, parseDateOrDateTime, parseDateTime, parseDay, parseTime, formatTime } from './time';
-import { isValidZone } from './zone';
+import {
+  resolveCalendar,
+  slotTableFor,
+  SlotTable,
+  type CalendarDef,
+} from "./calendar";
+import type { HolidayRegion, ProgrammeInput } from "./types";
+import { ProgrammeInputError } from "./types";
+import {
+  MINUTES_PER_DAY,
+  NOON,
+  parseDateOrDateTime,
+  parseDateTime,
+  parseDay,
+  parseTime,
+  formatTime,
+} from "./time";
+import { isValidZone } from "./zone";
 
 export const KIND_FS = 0;
 export const KIND_SS = 1;
@@ -14,8 +27,8 @@ export const KIND_FF = 2;
 export const UNIT_WORKING = 0;
 export const UNIT_ELAPSED = 1;
 
-const REGIONS: HolidayRegion[] = ['GB-ENG', 'GB-WLS', 'GB-SCT', 'GB-NIR'];
-export const DEFAULT_ZONE = 'Europe/London';
+const REGIONS: HolidayRegion[] = ["GB-ENG", "GB-WLS", "GB-SCT", "GB-NIR"];
+export const DEFAULT_ZONE = "Europe/London";
 
 /** The input flattened for the passes. Instants are local minutes; NaN means "none". */
 export interface Prepared {
@@ -51,11 +64,16 @@ export interface Prepared {
   outEdges: Int32Array;
   /** Tasks in topological order. */
   order: Int32Array;
-  busy: { resource: string; start: number; finish: number; ref: string | null }[];
+  busy: {
+    resource: string;
+    start: number;
+    finish: number;
+    ref: string | null;
+  }[];
 }
 
 function label(id: string): string {
-  return `Task "${id}"`;
+  return 'Task "' + id + '"';
 }
 
 function isHalfStep(x: number): boolean {
@@ -66,45 +84,66 @@ function isHalfStep(x: number): boolean {
 export function prepare(input: ProgrammeInput): Prepared {
   const problems: string[] = [];
   const zone = input.timeZone ?? DEFAULT_ZONE;
-  if (!isValidZone(zone)) problems.push(`timeZone "${zone}" is not a known IANA time zone`);
-  const dataDay = typeof input.dataDate === 'string' ? parseDay(input.dataDate) : null;
-  if (dataDay === null) problems.push(`dataDate "${input.dataDate}" is not a date (YYYY-MM-DD)`);
+  if (!isValidZone(zone))
+    problems.push(`timeZone "${zone}" is not a known IANA time zone`);
+  const dataDay =
+    typeof input.dataDate === "string" ? parseDay(input.dataDate) : null;
+  if (dataDay === null)
+    problems.push(`dataDate "${input.dataDate}" is not a date (YYYY-MM-DD)`);
   let handoverDay: number | null = null;
   if (input.handover != null) {
     handoverDay = parseDay(input.handover);
-    if (handoverDay === null) problems.push(`handover "${input.handover}" is not a date (YYYY-MM-DD)`);
+    if (handoverDay === null)
+      problems.push(`handover "${input.handover}" is not a date (YYYY-MM-DD)`);
   }
 
   // Calendars. Without any, the contract's defaults make one called "workshop".
-  const calInputs = input.calendars && input.calendars.length > 0 ? input.calendars : [{ id: 'workshop' }];
+  const calInputs =
+    input.calendars && input.calendars.length > 0
+      ? input.calendars
+      : [{ id: "workshop" }];
   const defs = new Map<string, CalendarDef>();
   for (const c of calInputs) {
     const where = `Calendar "${c.id}"`;
     if (defs.has(c.id)) problems.push(`${where} is listed twice`);
-    const ds = parseTime(c.dayStart ?? '08:00');
-    const de = parseTime(c.dayEnd ?? '16:30');
-    if (ds === null) problems.push(`${where}: dayStart "${c.dayStart}" is not a time (HH:mm)`);
-    else if (ds >= NOON) problems.push(`${where}: dayStart ${c.dayStart} must be before 12:00 (the morning slot ends at 12:00)`);
-    if (de === null) problems.push(`${where}: dayEnd "${c.dayEnd}" is not a time (HH:mm)`);
-    else if (de <= NOON) problems.push(`${where}: dayEnd ${c.dayEnd} must be after 12:00 (the afternoon slot starts at 12:00)`);
+    const ds = parseTime(c.dayStart ?? "08:00");
+    const de = parseTime(c.dayEnd ?? "16:30");
+    if (ds === null)
+      problems.push(`${where}: dayStart "${c.dayStart}" is not a time (HH:mm)`);
+    else if (ds >= NOON)
+      problems.push(
+        `${where}: dayStart ${c.dayStart} must be before 12:00 (the morning slot ends at 12:00)`,
+      );
+    if (de === null)
+      problems.push(`${where}: dayEnd "${c.dayEnd}" is not a time (HH:mm)`);
+    else if (de <= NOON)
+      problems.push(
+        `${where}: dayEnd ${c.dayEnd} must be after 12:00 (the afternoon slot starts at 12:00)`,
+      );
     const wds = c.workingWeekdays ?? [1, 2, 3, 4, 5];
     if (wds.length === 0) problems.push(`${where} has no working weekdays`);
     for (const w of wds)
       if (!Number.isInteger(w) || w < 1 || w > 7)
-        problems.push(`${where}: weekday ${w} is not an ISO weekday number (1 = Monday … 7 = Sunday)`);
+        problems.push(
+          `${where}: weekday ${w} is not an ISO weekday number (1 = Monday … 7 = Sunday)`,
+        );
     if (c.holidayRegion != null && !REGIONS.includes(c.holidayRegion))
-      problems.push(`${where}: holidayRegion "${c.holidayRegion}" is not one of ${REGIONS.join(', ')}`);
-    for (const d of c.daysOff ?? []) if (parseDay(d) === null) problems.push(`${where}: day off "${d}" is not a date (YYYY-MM-DD)`);
+      problems.push(
+        `${where}: holidayRegion "${c.holidayRegion}" is not one of ${REGIONS.join(", ")}`,
+      );
+    for (const d of c.daysOff ?? [])
+      if (parseDay(d) === null)
+        problems.push(`${where}: day off "${d}" is not a date (YYYY-MM-DD)`);
     defs.set(c.id, resolveCalendar(c));
   }
-  const workshopDef = defs.get('workshop') ?? defs.get(calInputs[0].id)!;
+  const workshopDef = defs.get("workshop") ?? defs.get(calInputs[0].id)!;
 
   // The slot tables start well before every date in the input so that negative lags and
   // negative float have room; rounding keeps the table cache warm between runs.
   // ISO dates compare as strings, so the earliest is found without parsing each one.
-  let minDate = typeof input.dataDate === 'string' ? input.dataDate : '9999';
+  let minDate = typeof input.dataDate === "string" ? input.dataDate : "9999";
   const consider = (s: string | null | undefined) => {
-    if (typeof s === 'string' && s < minDate) minDate = s;
+    if (typeof s === "string" && s < minDate) minDate = s;
   };
   consider(input.handover);
   for (const t of input.tasks) {
@@ -138,37 +177,50 @@ export function prepare(input: ProgrammeInput): Prepared {
     ids[i] = t.id;
     names[i] = t.name ?? t.id;
     resource[i] = t.resource ?? null;
-    const where = label(t.id); // a cheap string; messages are built only for problems
-    if (typeof t.id !== 'string' || t.id === '') problems.push(`Task ${i + 1} has no id`);
-    if (index.has(t.id)) problems.push(`${where} is listed twice`);
+    const where = label(t.id);
+    if (typeof t.id !== "string" || t.id === "")
+      problems.push(`Task ${i + 1} has no id`);
+    // One map operation per task: a duplicate id leaves the size unchanged.
+    const size = index.size;
     index.set(t.id, i);
+    if (index.size === size) problems.push(`${where} is listed twice`);
 
     // Calendar: one id or a list; absent means the workshop calendar.
     const cal = t.calendar;
     // Two-calendar lists (trade + site) are the common case: look them up without joining.
     let pair: Map<string, SlotTable | null> | undefined;
     let key: string;
-    if (cal == null) key = '';
-    else if (typeof cal === 'string') key = cal;
+    if (cal == null) key = "";
+    else if (typeof cal === "string") key = cal;
     else if (cal.length === 2) {
       pair = pairTables.get(cal[0]);
       if (!pair) pairTables.set(cal[0], (pair = new Map()));
       key = cal[1];
-    } else key = '\u0000' + cal.join('\u0000');
+    } else key = "\u0000" + cal.join("\u0000");
     let tb = (pair ?? tableByKey).get(key);
     if (tb === undefined) {
-      const calIds = cal == null ? [workshopDef.id] : Array.isArray(cal) ? cal : [cal];
+      const calIds =
+        cal == null ? [workshopDef.id] : Array.isArray(cal) ? cal : [cal];
       const members: CalendarDef[] = [];
       let ok = calIds.length > 0;
       for (const cid of calIds) {
         const def = defs.get(cid);
         if (!def) {
-          problems.push(`${where} uses calendar "${cid}", which is not in calendars`);
+          problems.push(
+            `${where} uses calendar "${cid}", which is not in calendars`,
+          );
           ok = false;
         } else members.push(def);
       }
-      if (ok && ![1, 2, 3, 4, 5, 6, 7].some((w) => members.every((m) => m.weekdays.includes(w)))) {
-        problems.push(`${where}: calendars ${calIds.join(' and ')} share no working weekday`);
+      if (
+        ok &&
+        ![1, 2, 3, 4, 5, 6, 7].some((w) =>
+          members.every((m) => m.weekdays.includes(w)),
+        )
+      ) {
+        problems.push(
+          `${where}: calendars ${calIds.join(" and ")} share no working weekday`,
+        );
         ok = false;
       }
       tb = ok ? slotTableFor(members, baseDay) : null;
@@ -177,18 +229,44 @@ export function prepare(input: ProgrammeInput): Prepared {
     tables[i] = tb ?? workshop;
 
     if (!isHalfStep(t.durationDays) || t.durationDays < 0)
-      problems.push(`${where}: durationDays ${t.durationDays} must be zero or more, in steps of 0.5`);
+      problems.push(
+        `${where}: durationDays ${t.durationDays} must be zero or more, in steps of 0.5`,
+      );
     else dur[i] = Math.round(t.durationDays * 2);
 
     const table = tables[i];
     if (t.notEarlierThan != null) {
       const v = parseDateOrDateTime(t.notEarlierThan, 0);
-      if (Number.isNaN(v)) problems.push(`${where}: notEarlierThan "${t.notEarlierThan}" is not a date or date-time`);
+      if (Number.isNaN(v))
+        problems.push(
+          `${where}: notEarlierThan "${t.notEarlierThan}" is not a date or date-time`,
+        );
       else net[i] = v;
     }
-    pin[i] = slotInstant(t.bookedStart, 'bookedStart', 'start', table, where, problems);
-    actS[i] = slotInstant(t.actualStart, 'actualStart', 'start', table, where, problems);
-    actF[i] = slotInstant(t.actualFinish, 'actualFinish', 'finish', table, where, problems);
+    pin[i] = slotInstant(
+      t.bookedStart,
+      "bookedStart",
+      "start",
+      table,
+      where,
+      problems,
+    );
+    actS[i] = slotInstant(
+      t.actualStart,
+      "actualStart",
+      "start",
+      table,
+      where,
+      problems,
+    );
+    actF[i] = slotInstant(
+      t.actualFinish,
+      "actualFinish",
+      "finish",
+      table,
+      where,
+      problems,
+    );
     if (!Number.isNaN(actS[i]) && !Number.isNaN(actF[i]) && actF[i] < actS[i])
       problems.push(`${where}: actualFinish is before actualStart`);
   }
@@ -207,9 +285,11 @@ export function prepare(input: ProgrammeInput): Prepared {
     const l = links[e];
     const f = index.get(l.from);
     const to = index.get(l.to);
-    const where = 'Link ' + l.from + ' → ' + l.to;
-    if (f === undefined) problems.push(`${where}: task "${l.from}" is not in tasks`);
-    if (to === undefined) problems.push(`${where}: task "${l.to}" is not in tasks`);
+    const where = "Link " + l.from + " → " + l.to;
+    if (f === undefined)
+      problems.push(`${where}: task "${l.from}" is not in tasks`);
+    if (to === undefined)
+      problems.push(`${where}: task "${l.to}" is not in tasks`);
     if (f === undefined || to === undefined) {
       continue;
     }
@@ -219,36 +299,54 @@ export function prepare(input: ProgrammeInput): Prepared {
     }
     eFrom[e] = f;
     eTo[e] = to;
-    const kind = l.kind ?? 'FS';
-    if (kind === 'FS') eKind[e] = KIND_FS;
-    else if (kind === 'SS') eKind[e] = KIND_SS;
-    else if (kind === 'FF') eKind[e] = KIND_FF;
+    const kind = l.kind ?? "FS";
+    if (kind === "FS") eKind[e] = KIND_FS;
+    else if (kind === "SS") eKind[e] = KIND_SS;
+    else if (kind === "FF") eKind[e] = KIND_FF;
     else problems.push(`${where}: kind "${kind}" is not FS, SS or FF`);
     const lag = l.lag ?? 0;
-    const unit = l.lagUnit ?? 'workingDays';
-    if (unit === 'workingDays') {
-      if (!isHalfStep(lag)) problems.push(`${where}: a lag in working days must be in steps of 0.5 (got ${lag})`);
+    const unit = l.lagUnit ?? "workingDays";
+    if (unit === "workingDays") {
+      if (!isHalfStep(lag))
+        problems.push(
+          `${where}: a lag in working days must be in steps of 0.5 (got ${lag})`,
+        );
       else eLag[e] = Math.round(lag * 2);
       eUnit[e] = UNIT_WORKING;
-    } else if (unit === 'elapsedHours') {
-      if (!Number.isFinite(lag)) problems.push(`${where}: lag ${lag} is not a number of hours`);
+    } else if (unit === "elapsedHours") {
+      if (!Number.isFinite(lag))
+        problems.push(`${where}: lag ${lag} is not a number of hours`);
       else eLag[e] = Math.round(lag * 60);
       eUnit[e] = UNIT_ELAPSED;
-    } else problems.push(`${where}: lagUnit "${unit}" is not workingDays or elapsedHours`);
+    } else
+      problems.push(
+        `${where}: lagUnit "${unit}" is not workingDays or elapsedHours`,
+      );
     inCount[to + 1]++;
     outCount[f + 1]++;
   }
 
-  const busy: Prepared['busy'] = [];
+  const busy: Prepared["busy"] = [];
   for (const b of input.busy ?? []) {
-    const where = `Busy interval of "${b.resource}"${b.ref ? ` (${b.ref})` : ''}`;
+    const where = `Busy interval of "${b.resource}"${b.ref ? ` (${b.ref})` : ""}`;
     // A date alone runs from the start of that day to its end.
     const s = parseDateOrDateTime(b.start, 0);
     const f = parseDateOrDateTime(b.finish, MINUTES_PER_DAY);
-    if (Number.isNaN(s)) problems.push(`${where}: start "${b.start}" is not a date or date-time`);
-    if (Number.isNaN(f)) problems.push(`${where}: finish "${b.finish}" is not a date or date-time`);
-    if (!Number.isNaN(s) && !Number.isNaN(f) && !(f > s)) problems.push(`${where}: finish is not after start`);
-    if (!Number.isNaN(s) && !Number.isNaN(f)) busy.push({ resource: b.resource, start: s, finish: f, ref: b.ref ?? null });
+    if (Number.isNaN(s))
+      problems.push(`${where}: start "${b.start}" is not a date or date-time`);
+    if (Number.isNaN(f))
+      problems.push(
+        `${where}: finish "${b.finish}" is not a date or date-time`,
+      );
+    if (!Number.isNaN(s) && !Number.isNaN(f) && !(f > s))
+      problems.push(`${where}: finish is not after start`);
+    if (!Number.isNaN(s) && !Number.isNaN(f))
+      busy.push({
+        resource: b.resource,
+        start: s,
+        finish: f,
+        ref: b.ref ?? null,
+      });
   }
 
   if (problems.length > 0) throw new ProgrammeInputError(problems);
@@ -269,7 +367,17 @@ export function prepare(input: ProgrammeInput): Prepared {
     outEdges[outFill[eFrom[e]]++] = e;
   }
 
-  const order = topologicalOrder(n, m, eFrom, eTo, inStart, inEdges, outStart, outEdges, ids);
+  const order = topologicalOrder(
+    n,
+    m,
+    eFrom,
+    eTo,
+    inStart,
+    inEdges,
+    outStart,
+    outEdges,
+    ids,
+  );
 
   return {
     input,
@@ -310,7 +418,7 @@ export function prepare(input: ProgrammeInput): Prepared {
 function slotInstant(
   value: string | null | undefined,
   field: string,
-  role: 'start' | 'finish',
+  role: "start" | "finish",
   tb: SlotTable,
   where: string,
   problems: string[],
@@ -322,18 +430,20 @@ function slotInstant(
       problems.push(`${where}: ${field} "${value}" is not a date`);
       return NaN;
     }
-    return d * MINUTES_PER_DAY + (role === 'start' ? tb.dayStart : tb.dayEnd);
+    return d * MINUTES_PER_DAY + (role === "start" ? tb.dayStart : tb.dayEnd);
   }
   const t = parseDateTime(value);
   if (t === null) {
-    problems.push(`${where}: ${field} "${value}" is not a date (YYYY-MM-DD) or date-time (YYYY-MM-DDTHH:mm)`);
+    problems.push(
+      `${where}: ${field} "${value}" is not a date (YYYY-MM-DD) or date-time (YYYY-MM-DDTHH:mm)`,
+    );
     return NaN;
   }
   const minute = t - Math.floor(t / MINUTES_PER_DAY) * MINUTES_PER_DAY;
-  const allowed = role === 'start' ? [tb.dayStart, NOON] : [NOON, tb.dayEnd];
+  const allowed = role === "start" ? [tb.dayStart, NOON] : [NOON, tb.dayEnd];
   if (!allowed.includes(minute)) {
     problems.push(
-      `${where}: ${field} ${value} is not at the ${role} of a slot (${allowed.map(formatTime).join(' or ')})`,
+      `${where}: ${field} ${value} is not at the ${role} of a slot (${allowed.map(formatTime).join(" or ")})`,
     );
     return NaN;
   }
@@ -392,10 +502,13 @@ function topologicalOrder(
     if (loop.some((t) => reported[t])) continue;
     // Start the loop at its smallest id so that the message does not depend on input order.
     let first = 0;
-    for (let k = 1; k < loop.length; k++) if (ids[loop[k]] < ids[loop[first]]) first = k;
+    for (let k = 1; k < loop.length; k++)
+      if (ids[loop[k]] < ids[loop[first]]) first = k;
     loop = [...loop.slice(first), ...loop.slice(0, first)];
     for (const t of loop) reported[t] = 1;
-    problems.push(`Links form a loop: ${[...loop, loop[0]].map((t) => ids[t]).join(' → ')}`);
+    problems.push(
+      `Links form a loop: ${[...loop, loop[0]].map((t) => ids[t]).join(" → ")}`,
+    );
   }
   throw new ProgrammeInputError(problems);
 }

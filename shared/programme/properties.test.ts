@@ -2,25 +2,32 @@
 // an oracle written here from the spec's words: it lists each calendar's slots day by day and
 // scans them, and does real-time arithmetic with luxon directly, so it shares none of the
 // engine's slot-position arithmetic (calendar.ts) or zone tables (zone.ts).
-import fc from 'fast-check';
-import { DateTime } from 'luxon';
-import { describe, expect, it } from 'vitest';
-import { workingDaysBetween } from './calendar';
-import { scheduleProgramme } from './schedule';
-import { dayN } from './test-helpers';
-import type { CalendarInput, LinkInput, ProgrammeInput, ProgrammeResult, TaskInput, TaskResult } from './types';
+import fc from "fast-check";
+import { DateTime } from "luxon";
+import { describe, expect, it } from "vitest";
+import { workingDaysBetween } from "./calendar";
+import { scheduleProgramme } from "./schedule";
+import { dayN } from "./test-helpers";
+import type {
+  CalendarInput,
+  LinkInput,
+  ProgrammeInput,
+  ProgrammeResult,
+  TaskInput,
+  TaskResult,
+} from "./types";
 
-const ZONE = 'Europe/London';
-const BASE = '2026-01-05';
+const ZONE = "Europe/London";
+const BASE = "2026-01-05";
 
 // ---------- random networks ----------
 
 const calArb = fc.record({
   // Every calendar works Wednesdays, so any intersection has working days.
   weekdays: fc.subarray([1, 2, 4, 5, 6, 7]).map((w) => [...w, 3].sort()),
-  dayStart: fc.constantFrom('07:00', '07:30', '08:00', '09:00'),
-  dayEnd: fc.constantFrom('15:00', '16:30', '17:00'),
-  region: fc.constantFrom(null, 'GB-ENG', 'GB-SCT', 'GB-NIR'),
+  dayStart: fc.constantFrom("07:00", "07:30", "08:00", "09:00"),
+  dayEnd: fc.constantFrom("15:00", "16:30", "17:00"),
+  region: fc.constantFrom(null, "GB-ENG", "GB-SCT", "GB-NIR"),
   daysOff: fc.array(fc.integer({ min: 0, max: 120 }), { maxLength: 3 }),
 });
 
@@ -28,7 +35,7 @@ const taskArb = fc.record({
   dur: fc.integer({ min: 0, max: 8 }),
   cals: fc.uniqueArray(fc.nat(2), { minLength: 1, maxLength: 2 }),
   net: fc.option(fc.integer({ min: 0, max: 30 }), { nil: null }),
-  resource: fc.option(fc.constantFrom('p1', 'p2'), { nil: null }),
+  resource: fc.option(fc.constantFrom("p1", "p2"), { nil: null }),
   pin: fc.option(fc.integer({ min: 0, max: 30 }), { nil: null }),
   started: fc.option(fc.integer({ min: 1, max: 10 }), { nil: null }),
   finished: fc.boolean(),
@@ -37,7 +44,9 @@ const taskArb = fc.record({
 const linkArb = fc.record({
   a: fc.nat(),
   b: fc.nat(),
-  kind: fc.constantFrom('FS', 'FS', 'SS', 'FF') as fc.Arbitrary<'FS' | 'SS' | 'FF'>,
+  kind: fc.constantFrom("FS", "FS", "SS", "FF") as fc.Arbitrary<
+    "FS" | "SS" | "FF"
+  >,
   elapsed: fc.boolean(),
   steps: fc.integer({ min: -4, max: 6 }),
   hours: fc.integer({ min: -24, max: 72 }),
@@ -58,11 +67,11 @@ function build(net: Net, opts: { progress?: boolean } = {}): ProgrammeInput {
   const progress = opts.progress ?? net.progress;
   const dataDate = dayN(net.data, BASE);
   const calendars: CalendarInput[] = net.cals.map((c, k) => ({
-    id: k === 0 ? 'workshop' : `c${k}`,
+    id: k === 0 ? "workshop" : `c${k}`,
     workingWeekdays: c.weekdays,
     dayStart: c.dayStart,
     dayEnd: c.dayEnd,
-    holidayRegion: c.region as CalendarInput['holidayRegion'],
+    holidayRegion: c.region as CalendarInput["holidayRegion"],
     daysOff: c.daysOff.map((d) => dayN(net.data + d - 30, BASE)),
   }));
   const n = net.tasks.length;
@@ -74,7 +83,8 @@ function build(net: Net, opts: { progress?: boolean } = {}): ProgrammeInput {
       resource: t.resource,
       notEarlierThan: t.net === null ? null : dayN(net.data + t.net, BASE),
     };
-    if (progress && t.pin !== null) task.bookedStart = dayN(net.data + t.pin, BASE);
+    if (progress && t.pin !== null)
+      task.bookedStart = dayN(net.data + t.pin, BASE);
     if (progress && t.started !== null && i < n / 2) {
       task.bookedStart = null;
       task.actualStart = dayN(net.data - t.started, BASE);
@@ -92,17 +102,25 @@ function build(net: Net, opts: { progress?: boolean } = {}): ProgrammeInput {
       to: tasks[Math.max(x, y)].id,
       kind: l.kind,
       lag: l.elapsed ? l.hours : l.steps / 2,
-      lagUnit: l.elapsed ? 'elapsedHours' : 'workingDays',
+      lagUnit: l.elapsed ? "elapsedHours" : "workingDays",
     });
   }
   return {
     timeZone: ZONE,
     dataDate,
-    handover: net.handover === null ? null : dayN(net.data + net.handover, BASE),
+    handover:
+      net.handover === null ? null : dayN(net.data + net.handover, BASE),
     calendars,
     tasks,
     links,
-    busy: [{ resource: 'p1', start: `${dayN(net.data + 2, BASE)}T08:00`, finish: `${dayN(net.data + 2, BASE)}T12:00`, ref: 'job 1' }],
+    busy: [
+      {
+        resource: "p1",
+        start: `${dayN(net.data + 2, BASE)}T08:00`,
+        finish: `${dayN(net.data + 2, BASE)}T12:00`,
+        ref: "job 1",
+      },
+    ],
   };
 }
 
@@ -113,16 +131,31 @@ const slotCache = new Map<string, Slot[]>();
 
 /** Every slot of a task's calendars (intersected) in a wide range, listed day by day. */
 function slotsOf(input: ProgrammeInput, t: TaskInput): Slot[] {
-  const ids = t.calendar == null ? ['workshop'] : Array.isArray(t.calendar) ? t.calendar : [t.calendar];
+  const ids =
+    t.calendar == null
+      ? ["workshop"]
+      : Array.isArray(t.calendar)
+        ? t.calendar
+        : [t.calendar];
   const cals = ids.map((id) => input.calendars!.find((c) => c.id === id)!);
   const key = JSON.stringify([cals, input.dataDate]);
   let slots = slotCache.get(key);
   if (slots) return slots;
-  const ds = cals.map((c) => c.dayStart ?? '08:00').sort().at(-1)!;
-  const de = cals.map((c) => c.dayEnd ?? '16:30').sort()[0];
+  const ds = cals
+    .map((c) => c.dayStart ?? "08:00")
+    .sort()
+    .at(-1)!;
+  const de = cals.map((c) => c.dayEnd ?? "16:30").sort()[0];
   slots = [];
-  for (const d of workingDaysBetween(cals, dayN(-120, input.dataDate), dayN(300, input.dataDate))) {
-    slots.push({ start: `${d}T${ds}`, end: `${d}T12:00` }, { start: `${d}T12:00`, end: `${d}T${de}` });
+  for (const d of workingDaysBetween(
+    cals,
+    dayN(-120, input.dataDate),
+    dayN(300, input.dataDate),
+  )) {
+    slots.push(
+      { start: `${d}T${ds}`, end: `${d}T12:00` },
+      { start: `${d}T12:00`, end: `${d}T${de}` },
+    );
   }
   if (slotCache.size > 500) slotCache.clear();
   slotCache.set(key, slots);
@@ -130,16 +163,24 @@ function slotsOf(input: ProgrammeInput, t: TaskInput): Slot[] {
 }
 
 const plusHours = (local: string, h: number) =>
-  DateTime.fromISO(local, { zone: ZONE }).plus({ hours: h }).toFormat("yyyy-MM-dd'T'HH:mm");
-const firstIndex = (slots: Slot[], pred: (s: Slot) => boolean) => slots.findIndex(pred);
+  DateTime.fromISO(local, { zone: ZONE })
+    .plus({ hours: h })
+    .toFormat("yyyy-MM-dd'T'HH:mm");
+const firstIndex = (slots: Slot[], pred: (s: Slot) => boolean) =>
+  slots.findIndex(pred);
 
 /** The earliest start a link allows its successor, from the spec's rules (oracle). */
-function allowedStart(input: ProgrammeInput, link: LinkInput, pred: { start: string; finish: string }, succ: TaskInput): string {
+function allowedStart(
+  input: ProgrammeInput,
+  link: LinkInput,
+  pred: { start: string; finish: string },
+  succ: TaskInput,
+): string {
   const slots = slotsOf(input, succ);
   const n = Math.round(succ.durationDays * 2);
-  const src = link.kind === 'SS' ? pred.start : pred.finish;
+  const src = link.kind === "SS" ? pred.start : pred.finish;
   const lag = link.lag ?? 0;
-  if (link.lagUnit === 'elapsedHours') {
+  if (link.lagUnit === "elapsedHours") {
     const t = plusHours(src, lag);
     if (n === 0) {
       // A milestone: the first slot boundary at or after the instant.
@@ -147,7 +188,8 @@ function allowedStart(input: ProgrammeInput, link: LinkInput, pred: { start: str
       const e = slots[firstIndex(slots, (x) => x.end >= t)].end;
       return s < e ? s : e;
     }
-    if (link.kind === 'FF') return slots[firstIndex(slots, (x) => x.end >= t) - n + 1].start;
+    if (link.kind === "FF")
+      return slots[firstIndex(slots, (x) => x.end >= t) - n + 1].start;
     return slots[firstIndex(slots, (x) => x.start >= t)].start;
   }
   const steps = Math.round(lag * 2);
@@ -159,18 +201,21 @@ function allowedStart(input: ProgrammeInput, link: LinkInput, pred: { start: str
     }
     return slots[k + steps - 1].end;
   }
-  return link.kind === 'FF' ? slots[k + steps - n].start : slots[k + steps].start;
+  return link.kind === "FF"
+    ? slots[k + steps - n].start
+    : slots[k + steps].start;
 }
 
 function byId(r: ProgrammeResult): Map<string, TaskResult> {
   return new Map(r.tasks.map((t) => [t.id, t]));
 }
 
-const isFixed = (t: TaskInput) => t.actualStart != null || t.actualFinish != null;
+const isFixed = (t: TaskInput) =>
+  t.actualStart != null || t.actualFinish != null;
 const RUNS = { numRuns: 120 };
 
-describe('properties over random networks (fast-check)', () => {
-  it('early start is exactly the latest of data date, not-earlier-than and every link rule', () => {
+describe("properties over random networks (fast-check)", () => {
+  it("early start is exactly the latest of data date, not-earlier-than and every link rule", () => {
     fc.assert(
       fc.property(netArb, (net) => {
         const input = build(net);
@@ -179,7 +224,10 @@ describe('properties over random networks (fast-check)', () => {
           if (isFixed(t)) continue;
           const slots = slotsOf(input, t);
           const n = Math.round(t.durationDays * 2);
-          let bound = slots[firstIndex(slots, (x) => x.start >= `${input.dataDate}T00:00`)].start;
+          let bound =
+            slots[
+              firstIndex(slots, (x) => x.start >= `${input.dataDate}T00:00`)
+            ].start;
           if (t.notEarlierThan) {
             const net0 = `${t.notEarlierThan}T00:00`;
             const s = slots[firstIndex(slots, (x) => x.start >= net0)].start;
@@ -188,7 +236,12 @@ describe('properties over random networks (fast-check)', () => {
           for (const l of input.links!) {
             if (l.to !== t.id) continue;
             const p = r.get(l.from)!;
-            const a = allowedStart(input, l, { start: p.plannedStart, finish: p.plannedFinish }, t);
+            const a = allowedStart(
+              input,
+              l,
+              { start: p.plannedStart, finish: p.plannedFinish },
+              t,
+            );
             // The rule holds …
             expect(r.get(t.id)!.earlyStart >= a).toBe(true);
             if (a > bound) bound = a;
@@ -202,7 +255,7 @@ describe('properties over random networks (fast-check)', () => {
     );
   }, 60000);
 
-  it('late dates obey every link rule too, and no late finish passes handover or the finish', () => {
+  it("late dates obey every link rule too, and no late finish passes handover or the finish", () => {
     fc.assert(
       fc.property(netArb, (net) => {
         const input = build(net, { progress: false });
@@ -214,7 +267,12 @@ describe('properties over random networks (fast-check)', () => {
           for (const l of input.links!) {
             if (l.to !== t.id) continue;
             const p = r.get(l.from)!;
-            const a = allowedStart(input, l, { start: p.lateStart, finish: p.lateFinish }, t);
+            const a = allowedStart(
+              input,
+              l,
+              { start: p.lateStart, finish: p.lateFinish },
+              t,
+            );
             expect([l, r.get(t.id)!.lateStart >= a]).toEqual([l, true]);
           }
         }
@@ -223,7 +281,7 @@ describe('properties over random networks (fast-check)', () => {
     );
   }, 60000);
 
-  it('no task occupies a non-working slot: its dates span exactly its duration in working slots', () => {
+  it("no task occupies a non-working slot: its dates span exactly its duration in working slots", () => {
     fc.assert(
       fc.property(netArb, (net) => {
         const input = build(net);
@@ -236,7 +294,8 @@ describe('properties over random networks (fast-check)', () => {
           // Early and planned dates of started or finished work are the input's actual dates,
           // and a pin's planned dates its booking, which may fall on any day (non-working-day).
           if (!isFixed(t)) pairs.push([res.earlyStart, res.earlyFinish]);
-          if (!t.bookedStart && !isFixed(t)) pairs.push([res.plannedStart, res.plannedFinish]);
+          if (!t.bookedStart && !isFixed(t))
+            pairs.push([res.plannedStart, res.plannedFinish]);
           for (const [s, f] of pairs) {
             if (n === 0) {
               expect(s).toBe(f);
@@ -252,12 +311,15 @@ describe('properties over random networks (fast-check)', () => {
     );
   }, 60000);
 
-  it('early start ≤ late start and float ≥ 0 when handover is not before the computed finish', () => {
+  it("early start ≤ late start and float ≥ 0 when handover is not before the computed finish", () => {
     fc.assert(
       fc.property(netArb, fc.integer({ min: 0, max: 10 }), (net, extra) => {
         const input = build(net, { progress: false });
         const free = scheduleProgramme({ ...input, handover: null });
-        const late = scheduleProgramme({ ...input, handover: dayN(extra, free.finish!.slice(0, 10)) });
+        const late = scheduleProgramme({
+          ...input,
+          handover: dayN(extra, free.finish!.slice(0, 10)),
+        });
         for (const r of [free, late]) {
           for (const t of r.tasks) {
             expect(t.earlyStart <= t.lateStart).toBe(true);
@@ -267,13 +329,15 @@ describe('properties over random networks (fast-check)', () => {
           expect(r.handoverSlipDays ?? 0).toBe(0);
         }
         // Without a handover something is critical: the driving path's last task.
-        expect(byId(free).get(free.criticalPath.at(-1)!)!.totalFloatDays).toBe(0);
+        expect(byId(free).get(free.criticalPath.at(-1)!)!.totalFloatDays).toBe(
+          0,
+        );
       }),
       RUNS,
     );
   }, 60000);
 
-  it('the driving path runs unbroken along links to the programme finish', () => {
+  it("the driving path runs unbroken along links to the programme finish", () => {
     fc.assert(
       fc.property(netArb, (net) => {
         const input = build(net);
@@ -283,16 +347,21 @@ describe('properties over random networks (fast-check)', () => {
         expect(path.length > 0).toBe(true);
         expect(r.get(path.at(-1)!)!.plannedFinish).toBe(res.finish);
         for (let k = 1; k < path.length; k++) {
-          expect(input.links!.some((l) => l.from === path[k - 1] && l.to === path[k])).toBe(true);
+          expect(
+            input.links!.some(
+              (l) => l.from === path[k - 1] && l.to === path[k],
+            ),
+          ).toBe(true);
         }
         // Free float never exceeds total float, anywhere.
-        for (const t of res.tasks) expect(t.freeFloatDays <= t.totalFloatDays).toBe(true);
+        for (const t of res.tasks)
+          expect(t.freeFloatDays <= t.totalFloatDays).toBe(true);
       }),
       RUNS,
     );
   }, 60000);
 
-  it('shuffling the order of tasks and links changes nothing', () => {
+  it("shuffling the order of tasks and links changes nothing", () => {
     fc.assert(
       fc.property(netArb, fc.integer(), (net, seed) => {
         const input = build(net);
@@ -306,32 +375,60 @@ describe('properties over random networks (fast-check)', () => {
           }
           return a;
         };
-        const shuffled = { ...input, tasks: shuffle(input.tasks, seed), links: shuffle(input.links!, seed ^ 0x5bd1e995) };
+        const shuffled = {
+          ...input,
+          tasks: shuffle(input.tasks, seed),
+          links: shuffle(input.links!, seed ^ 0x5bd1e995),
+        };
         const a = scheduleProgramme(input);
         const b = scheduleProgramme(shuffled);
-        const sorted = (r: ProgrammeResult) => ({ ...r, tasks: [...r.tasks].sort((x, y) => (x.id < y.id ? -1 : 1)) });
+        const sorted = (r: ProgrammeResult) => ({
+          ...r,
+          tasks: [...r.tasks].sort((x, y) => (x.id < y.id ? -1 : 1)),
+        });
         expect(sorted(b)).toEqual(sorted(a));
       }),
       RUNS,
     );
   }, 60000);
 
-  it('moving a task later never moves another task earlier', () => {
+  it("moving a task later never moves another task earlier", () => {
     fc.assert(
-      fc.property(netArb, fc.nat(), fc.integer({ min: 1, max: 15 }), (net, pick, days) => {
-        const input = build(net);
-        const k = pick % input.tasks.length;
-        const t = input.tasks[k];
-        if (isFixed(t) || t.bookedStart) return; // actual and booked dates do not move
-        const before = byId(scheduleProgramme(input));
-        const moved = { ...t, notEarlierThan: dayN(days, before.get(t.id)!.earlyStart.slice(0, 10)) };
-        const after = scheduleProgramme({ ...input, tasks: input.tasks.map((x, i) => (i === k ? moved : x)) });
-        expect(after.tasks.find((x) => x.id === t.id)!.earlyStart > before.get(t.id)!.earlyStart).toBe(true);
-        for (const x of after.tasks) {
-          const b = before.get(x.id)!;
-          expect([x.id, x.earlyStart >= b.earlyStart, x.plannedStart >= b.plannedStart]).toEqual([x.id, true, true]);
-        }
-      }),
+      fc.property(
+        netArb,
+        fc.nat(),
+        fc.integer({ min: 1, max: 15 }),
+        (net, pick, days) => {
+          const input = build(net);
+          const k = pick % input.tasks.length;
+          const t = input.tasks[k];
+          if (isFixed(t) || t.bookedStart) return; // actual and booked dates do not move
+          const before = byId(scheduleProgramme(input));
+          const moved = {
+            ...t,
+            notEarlierThan: dayN(
+              days,
+              before.get(t.id)!.earlyStart.slice(0, 10),
+            ),
+          };
+          const after = scheduleProgramme({
+            ...input,
+            tasks: input.tasks.map((x, i) => (i === k ? moved : x)),
+          });
+          expect(
+            after.tasks.find((x) => x.id === t.id)!.earlyStart >
+              before.get(t.id)!.earlyStart,
+          ).toBe(true);
+          for (const x of after.tasks) {
+            const b = before.get(x.id)!;
+            expect([
+              x.id,
+              x.earlyStart >= b.earlyStart,
+              x.plannedStart >= b.plannedStart,
+            ]).toEqual([x.id, true, true]);
+          }
+        },
+      ),
       RUNS,
     );
   }, 60000);

@@ -2,81 +2,117 @@
 // "The JSON contract"): workshop Mon–Fri 08:00–16:30, Fri 6 Mar 2026 a day off, handover end
 // of Tue 10 Mar; fix Tue 3–Wed 4, template (plasterer-1, half a day) from Thu 5 morning; the
 // plasterer is busy Thu 5 morning on job 12.
-import { readFileSync } from 'node:fs';
-import { join } from 'node:path';
-import { describe, expect, it } from 'vitest';
-import { firstFreeStart, impactOf, startWindow } from './questions';
-import type { ProgrammeInput } from './types';
+import { readFileSync } from "node:fs";
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import { firstFreeStart, impactOf, startWindow } from "./questions";
+import type { ProgrammeInput } from "./types";
 
-const example = (): ProgrammeInput => JSON.parse(readFileSync(join(import.meta.dirname, 'fixtures', 'spec-example.json'), 'utf8'));
+const example = (): ProgrammeInput =>
+  JSON.parse(
+    readFileSync(
+      join(import.meta.dirname, "fixtures", "spec-example.json"),
+      "utf8",
+    ),
+  );
 
-describe('startWindow', () => {
-  it('lists every slot start from early to late start, skipping the day off', () => {
-    expect(startWindow(example(), 'template')).toEqual({
-      task: 'template',
-      earliestStart: '2026-03-05T08:00',
-      latestStart: '2026-03-10T12:00',
-      starts: ['2026-03-05T08:00', '2026-03-05T12:00', '2026-03-09T08:00', '2026-03-09T12:00', '2026-03-10T08:00', '2026-03-10T12:00'],
+describe("startWindow", () => {
+  it("lists every slot start from early to late start, skipping the day off", () => {
+    expect(startWindow(example(), "template")).toEqual({
+      task: "template",
+      earliestStart: "2026-03-05T08:00",
+      latestStart: "2026-03-10T12:00",
+      starts: [
+        "2026-03-05T08:00",
+        "2026-03-05T12:00",
+        "2026-03-09T08:00",
+        "2026-03-09T12:00",
+        "2026-03-10T08:00",
+        "2026-03-10T12:00",
+      ],
       keepsHandover: true,
     });
   });
 
-  it('is empty when even the early start misses handover', () => {
-    const input = { ...example(), handover: '2026-03-04' };
-    const w = startWindow(input, 'template');
+  it("is empty when even the early start misses handover", () => {
+    const input = { ...example(), handover: "2026-03-04" };
+    const w = startWindow(input, "template");
     expect([w.starts, w.keepsHandover]).toEqual([[], false]);
   });
 });
 
-describe('firstFreeStart', () => {
-  it('skips the busy morning: free from Thu afternoon, within the window', () => {
-    expect(firstFreeStart(example(), 'template')).toEqual({
-      task: 'template',
-      resource: 'plasterer-1',
-      start: '2026-03-05T12:00',
-      finish: '2026-03-05T16:30',
-      lateStart: '2026-03-10T12:00',
+describe("firstFreeStart", () => {
+  it("skips the busy morning: free from Thu afternoon, within the window", () => {
+    expect(firstFreeStart(example(), "template")).toEqual({
+      task: "template",
+      resource: "plasterer-1",
+      start: "2026-03-05T12:00",
+      finish: "2026-03-05T16:30",
+      lateStart: "2026-03-10T12:00",
       pastLateStart: false,
-      message: 'Plasterer-1 is free from Thu 5 Mar afternoon',
+      message: "Plasterer-1 is free from Thu 5 Mar afternoon",
     });
   });
 
-  it('needs `duration` consecutive free slots (a 1-day task waits for Mon 9)', () => {
+  it("needs `duration` consecutive free slots (a 1-day task waits for Mon 9)", () => {
     const input = example();
     input.tasks[1].durationDays = 1;
-    input.busy = [{ resource: 'plasterer-1', start: '2026-03-05T12:00', finish: '2026-03-05T16:30', ref: 'job 12' }];
+    input.busy = [
+      {
+        resource: "plasterer-1",
+        start: "2026-03-05T12:00",
+        finish: "2026-03-05T16:30",
+        ref: "job 12",
+      },
+    ];
     // Thu morning alone is one slot; Thu afternoon is busy, Fri a day off: Mon 9 08:00–16:30.
-    const f = firstFreeStart(input, 'template')!;
-    expect([f.start, f.finish, f.pastLateStart]).toEqual(['2026-03-09T08:00', '2026-03-09T16:30', false]);
+    const f = firstFreeStart(input, "template")!;
+    expect([f.start, f.finish, f.pastLateStart]).toEqual([
+      "2026-03-09T08:00",
+      "2026-03-09T16:30",
+      false,
+    ]);
   });
 
-  it('may lie past the late start, and says so', () => {
+  it("may lie past the late start, and says so", () => {
     const input = example();
-    input.busy = [{ resource: 'plasterer-1', start: '2026-03-05', finish: '2026-03-10', ref: 'job 12' }];
-    const f = firstFreeStart(input, 'template')!;
-    expect(f.start).toBe('2026-03-11T08:00');
+    input.busy = [
+      {
+        resource: "plasterer-1",
+        start: "2026-03-05",
+        finish: "2026-03-10",
+        ref: "job 12",
+      },
+    ];
+    const f = firstFreeStart(input, "template")!;
+    expect(f.start).toBe("2026-03-11T08:00");
     expect(f.pastLateStart).toBe(true);
     expect(f.message).toBe(
-      'Plasterer-1 is first free Wed 11 Mar morning, after the latest start that keeps handover (Tue 10 Mar afternoon)',
+      "Plasterer-1 is first free Wed 11 Mar morning, after the latest start that keeps handover (Tue 10 Mar afternoon)",
     );
   });
 
   it("counts the resource's other tasks in the same input as busy, and honours `after`", () => {
     const input = example();
     input.busy = [];
-    input.tasks.push({ id: 'other', durationDays: 1, resource: 'plasterer-1', bookedStart: '2026-03-09' });
-    const f = firstFreeStart(input, 'template', { after: '2026-03-09' })!;
-    expect(f.start).toBe('2026-03-10T08:00');
+    input.tasks.push({
+      id: "other",
+      durationDays: 1,
+      resource: "plasterer-1",
+      bookedStart: "2026-03-09",
+    });
+    const f = firstFreeStart(input, "template", { after: "2026-03-09" })!;
+    expect(f.start).toBe("2026-03-10T08:00");
   });
 });
 
-describe('impactOf', () => {
-  it('a slip of the fix: it moves 1 day, the booked template must be re-confirmed', () => {
+describe("impactOf", () => {
+  it("a slip of the fix: it moves 1 day, the booked template must be re-confirmed", () => {
     const before = example();
-    before.tasks[1].bookedStart = '2026-03-05';
+    before.tasks[1].bookedStart = "2026-03-05";
     const after = example();
-    after.tasks[1].bookedStart = '2026-03-05';
-    after.tasks[0].notEarlierThan = '2026-03-04'; // the delivery comes a day late
+    after.tasks[1].bookedStart = "2026-03-05";
+    after.tasks[0].notEarlierThan = "2026-03-04"; // the delivery comes a day late
     const impact = impactOf(before, after);
     // fix Tue 3–Wed 4 → Wed 4–Thu 5; template's booking stays, but the fix now allows only Mon 9
     // 08:00 (Fri 6 is a day off), when the plasterer is free. The finish moves from the end of
@@ -84,25 +120,26 @@ describe('impactOf', () => {
     expect(impact).toEqual({
       moves: [
         {
-          task: 'fix',
-          fromStart: '2026-03-03T08:00',
-          toStart: '2026-03-04T08:00',
-          fromFinish: '2026-03-04T16:30',
-          toFinish: '2026-03-05T16:30',
+          task: "fix",
+          fromStart: "2026-03-03T08:00",
+          toStart: "2026-03-04T08:00",
+          fromFinish: "2026-03-04T16:30",
+          toFinish: "2026-03-05T16:30",
           byDays: 1,
         },
       ],
       reconfirm: [
         {
-          task: 'template',
-          bookedStart: '2026-03-05T08:00',
-          proposedStart: '2026-03-09T08:00',
-          reason: 'The work it waits for now allows a start only from Mon 9 Mar morning',
+          task: "template",
+          bookedStart: "2026-03-05T08:00",
+          proposedStart: "2026-03-09T08:00",
+          reason:
+            "The work it waits for now allows a start only from Mon 9 Mar morning",
         },
       ],
       handover: {
-        finishBefore: '2026-03-05T12:00',
-        finishAfter: '2026-03-05T16:30',
+        finishBefore: "2026-03-05T12:00",
+        finishAfter: "2026-03-05T16:30",
         slipDaysBefore: 0,
         slipDaysAfter: 0,
         changeDays: 0.5,
@@ -112,22 +149,29 @@ describe('impactOf', () => {
 
   it("proposes the trade's first free start after the early start when that is busy", () => {
     const before = example();
-    before.tasks[1].bookedStart = '2026-03-05';
+    before.tasks[1].bookedStart = "2026-03-05";
     const after = structuredClone(before);
-    after.tasks[0].notEarlierThan = '2026-03-04';
-    after.busy!.push({ resource: 'plasterer-1', start: '2026-03-09T08:00', finish: '2026-03-09T12:00', ref: 'job 14' });
-    expect(impactOf(before, after).reconfirm[0].proposedStart).toBe('2026-03-09T12:00');
+    after.tasks[0].notEarlierThan = "2026-03-04";
+    after.busy!.push({
+      resource: "plasterer-1",
+      start: "2026-03-09T08:00",
+      finish: "2026-03-09T12:00",
+      ref: "job 14",
+    });
+    expect(impactOf(before, after).reconfirm[0].proposedStart).toBe(
+      "2026-03-09T12:00",
+    );
   });
 
-  it('an unbooked successor moves with its predecessor, counted in its working days', () => {
+  it("an unbooked successor moves with its predecessor, counted in its working days", () => {
     const before = example();
     const after = example();
-    after.tasks[0].notEarlierThan = '2026-03-04';
+    after.tasks[0].notEarlierThan = "2026-03-04";
     const impact = impactOf(before, after);
     // template Thu 5 08:00 → Mon 9 08:00: Thu morning and afternoon = 1 working day (Fri off).
     expect(impact.moves.map((m) => [m.task, m.byDays])).toEqual([
-      ['fix', 1],
-      ['template', 1],
+      ["fix", 1],
+      ["template", 1],
     ]);
     expect(impact.reconfirm).toEqual([]);
     // Finish Thu 12:00 → Mon 12:00: Thu afternoon and Mon morning = 1 working day.

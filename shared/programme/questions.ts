@@ -1,9 +1,14 @@
 // The questions the screens ask (spec "Questions the screens ask"): start window, first free
 // start of a trade, and the impact of a proposed change.
-import { prepare } from './prepare';
-import { compute, describeStart, STATE_STARTED, type Computed } from './schedule';
-import { formatLocal, MINUTES_PER_DAY, parseDateTime, parseDay } from './time';
-import type { ProgrammeInput } from './types';
+import { prepare } from "./prepare";
+import {
+  compute,
+  describeStart,
+  STATE_STARTED,
+  type Computed,
+} from "./schedule";
+import { formatLocal, MINUTES_PER_DAY, parseDateTime, parseDay } from "./time";
+import type { ProgrammeInput } from "./types";
 
 export interface StartWindow {
   task: string;
@@ -17,12 +22,16 @@ export interface StartWindow {
 
 function taskIndex(c: Computed, taskId: string): number {
   const i = c.p.index.get(taskId);
-  if (i === undefined) throw new Error(`Task "${taskId}" is not in this programme`);
+  if (i === undefined)
+    throw new Error(`Task "${taskId}" is not in this programme`);
   return i;
 }
 
 /** The starts from early to late start that keep handover (or the programme's finish). */
-export function startWindow(input: ProgrammeInput, taskId: string): StartWindow {
+export function startWindow(
+  input: ProgrammeInput,
+  taskId: string,
+): StartWindow {
   const c = compute(prepare(input));
   const i = taskIndex(c, taskId);
   const tb = c.p.tables[i];
@@ -31,12 +40,15 @@ export function startWindow(input: ProgrammeInput, taskId: string): StartWindow 
     // A milestone may sit on any boundary in the window; list its slot starts plus both ends.
     if (c.ls[i] >= c.es[i]) {
       starts.push(formatLocal(c.es[i]));
-      for (let k = tb.startsAtOrBefore(c.es[i]); tb.start(k) <= c.ls[i]; k++) starts.push(formatLocal(tb.start(k)));
-      if (starts[starts.length - 1] !== formatLocal(c.ls[i])) starts.push(formatLocal(c.ls[i]));
+      for (let k = tb.startsAtOrBefore(c.es[i]); tb.start(k) <= c.ls[i]; k++)
+        starts.push(formatLocal(tb.start(k)));
+      if (starts[starts.length - 1] !== formatLocal(c.ls[i]))
+        starts.push(formatLocal(c.ls[i]));
     }
   } else {
     const last = tb.startsBefore(c.ls[i]);
-    for (let k = tb.startsBefore(c.es[i]); k <= last; k++) starts.push(formatLocal(tb.start(k)));
+    for (let k = tb.startsBefore(c.es[i]); k <= last; k++)
+      starts.push(formatLocal(tb.start(k)));
   }
   return {
     task: taskId,
@@ -62,7 +74,12 @@ export interface FreeStart {
 const SEARCH_SLOTS = 2 * 2 * 366;
 
 /** Internal: first free start of task i for `resource`, at or after `from`, on a computed schedule. */
-export function firstFreeIn(c: Computed, i: number, resource: string, from: number): FreeStart | null {
+export function firstFreeIn(
+  c: Computed,
+  i: number,
+  resource: string,
+  from: number,
+): FreeStart | null {
   const { p } = c;
   const tb = p.tables[i];
   const d = p.dur[i];
@@ -97,7 +114,9 @@ export function firstFreeIn(c: Computed, i: number, resource: string, from: numb
   const start = d === 0 ? Math.max(from, c.es[i]) : tb.start(found);
   const finish = d === 0 ? start : tb.end(found + d - 1);
   const past = start > c.ls[i];
-  const who = resource.length ? resource[0].toUpperCase() + resource.slice(1) : resource;
+  const who = resource.length
+    ? resource[0].toUpperCase() + resource.slice(1)
+    : resource;
   return {
     task: p.ids[i],
     resource,
@@ -126,7 +145,9 @@ export function firstFreeStart(
   if (!resource) throw new Error(`Task "${taskId}" has no resource; pass one`);
   let from = c.es[i];
   if (options.after) {
-    const t = parseDateTime(options.after) ?? (parseDay(options.after) ?? NaN) * MINUTES_PER_DAY;
+    const t =
+      parseDateTime(options.after) ??
+      (parseDay(options.after) ?? NaN) * MINUTES_PER_DAY;
     if (!Number.isNaN(t) && t > from) from = t;
   }
   return firstFreeIn(c, i, resource, from);
@@ -164,7 +185,10 @@ export interface Impact {
 }
 
 /** Schedule before and after a proposed edit: what moves, which bookings to re-confirm, handover. */
-export function impactOf(before: ProgrammeInput, after: ProgrammeInput): Impact {
+export function impactOf(
+  before: ProgrammeInput,
+  after: ProgrammeInput,
+): Impact {
   const b = compute(prepare(before));
   const a = compute(prepare(after));
   const moves: TaskMove[] = [];
@@ -175,7 +199,10 @@ export function impactOf(before: ProgrammeInput, after: ProgrammeInput): Impact 
     const j = b.p.index.get(id);
     if (j !== undefined && (b.ps[j] !== a.ps[i] || b.pf[j] !== a.pf[i])) {
       // Count the shift of the start, or of the finish when only the duration changed.
-      const slots = b.ps[j] !== a.ps[i] ? tb.slotsBetween(b.ps[j], a.ps[i]) : tb.slotsBetween(b.pf[j], a.pf[i]);
+      const slots =
+        b.ps[j] !== a.ps[i]
+          ? tb.slotsBetween(b.ps[j], a.ps[i])
+          : tb.slotsBetween(b.pf[j], a.pf[i]);
       moves.push({
         task: id,
         fromStart: formatLocal(b.ps[j]),
@@ -201,7 +228,9 @@ export function impactOf(before: ProgrammeInput, after: ProgrammeInput): Impact 
     } else if (j !== undefined && b.p.pin[j] !== pin) {
       reconfirm.push({
         task: id,
-        bookedStart: Number.isNaN(b.p.pin[j]) ? formatLocal(pin) : formatLocal(b.p.pin[j]),
+        bookedStart: Number.isNaN(b.p.pin[j])
+          ? formatLocal(pin)
+          : formatLocal(b.p.pin[j]),
         proposedStart: formatLocal(pin),
         reason: `The booking moves to ${describeStart(pin, tb)}`,
       });
@@ -209,15 +238,20 @@ export function impactOf(before: ProgrammeInput, after: ProgrammeInput): Impact 
   }
   const fb = b.p.n ? b.finish : NaN;
   const fa = a.p.n ? a.finish : NaN;
-  const change = Number.isNaN(fb) || Number.isNaN(fa) ? 0 : a.p.workshop.slotsBetween(fb, fa);
+  const change =
+    Number.isNaN(fb) || Number.isNaN(fa)
+      ? 0
+      : a.p.workshop.slotsBetween(fb, fa);
   return {
     moves,
     reconfirm,
     handover: {
       finishBefore: Number.isNaN(fb) ? null : formatLocal(fb),
       finishAfter: Number.isNaN(fa) ? null : formatLocal(fa),
-      slipDaysBefore: b.handoverSlipSlots === null ? null : b.handoverSlipSlots / 2,
-      slipDaysAfter: a.handoverSlipSlots === null ? null : a.handoverSlipSlots / 2,
+      slipDaysBefore:
+        b.handoverSlipSlots === null ? null : b.handoverSlipSlots / 2,
+      slipDaysAfter:
+        a.handoverSlipSlots === null ? null : a.handoverSlipSlots / 2,
       changeDays: change / 2 + 0,
     },
   };

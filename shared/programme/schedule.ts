@@ -1,9 +1,9 @@
 // scheduleProgramme: forward pass, backward pass, float, readiness, problems and the driving
 // path (spec "Scheduling rules" and "Conventions"). Each link rule is written out beside the
 // code that applies it, forward in `linkStartBound`, backward in `linkLatestSource`.
-import type { SlotTable } from './calendar';
-import { prepare, type Prepared } from './prepare';
-import { formatLocal, humanDay, formatTime } from './time';
+import type { SlotTable } from "./calendar";
+import { prepare, type Prepared } from "./prepare";
+import { formatLocal, humanDay, formatTime } from "./time";
 
 // Local copies of shared constants (see prepare.ts for KIND_* and UNIT_*), kept here because the
 // passes read them millions of times.
@@ -12,8 +12,14 @@ const NOON = 720;
 const KIND_SS = 1;
 const KIND_FF = 2;
 const UNIT_ELAPSED = 1;
-import type { Problem, ProgrammeInput, ProgrammeResult, TaskResult, WaitingOn } from './types';
-import { addElapsedMinutes } from './zone';
+import type {
+  Problem,
+  ProgrammeInput,
+  ProgrammeResult,
+  TaskResult,
+  WaitingOn,
+} from "./types";
+import { addElapsedMinutes } from "./zone";
 
 export const STATE_WAITING = 0;
 export const STATE_CLEAR = 1;
@@ -60,7 +66,14 @@ export interface Computed {
  *   one of j's slots at or after it.
  * Returns a start position for a non-milestone, an instant for a milestone.
  */
-function linkStartBound(p: Prepared, e: number, tb: SlotTable, n: number, srcStart: number, srcFinish: number): number {
+function linkStartBound(
+  p: Prepared,
+  e: number,
+  tb: SlotTable,
+  n: number,
+  srcStart: number,
+  srcFinish: number,
+): number {
   const kind = p.eKind[e];
   const src = kind === KIND_SS ? srcStart : srcFinish;
   const lag = p.eLag[e];
@@ -88,7 +101,13 @@ function linkStartBound(p: Prepared, e: number, tb: SlotTable, n: number, srcSta
  * `jFinish`. It is the exact inverse of the forward rule, so early ≤ late whenever handover
  * allows, and slack across an elapsed link is found in real time (spec "Conventions").
  */
-function linkLatestSource(p: Prepared, e: number, j: number, jStart: number, jFinish: number): number {
+function linkLatestSource(
+  p: Prepared,
+  e: number,
+  j: number,
+  jStart: number,
+  jFinish: number,
+): number {
   const kind = p.eKind[e];
   const lag = p.eLag[e];
   const tbj = p.tables[p.eTo[e]];
@@ -201,7 +220,8 @@ export function compute(p: Prepared): Computed {
     }
     // Clear when every predecessor's rule is met as of the data date's first slot.
     let clear = true;
-    for (let k = p.inStart[j]; k < p.inStart[j + 1]; k++) if (allows[p.inEdges[k]] > dds) clear = false;
+    for (let k = p.inStart[j]; k < p.inStart[j + 1]; k++)
+      if (allows[p.inEdges[k]] > dds) clear = false;
     state[j] = clear ? STATE_CLEAR : STATE_WAITING;
   }
 
@@ -209,7 +229,8 @@ export function compute(p: Prepared): Computed {
   let finish = -Infinity;
   for (let i = 0; i < n; i++) if (pf[i] > finish) finish = pf[i];
   // Handover: by the end of that day; every late finish is capped there (or at the finish).
-  const handoverEnd = p.handoverDay === null ? NaN : (p.handoverDay + 1) * MINUTES_PER_DAY;
+  const handoverEnd =
+    p.handoverDay === null ? NaN : (p.handoverDay + 1) * MINUTES_PER_DAY;
   const cap = p.handoverDay === null ? finish : handoverEnd;
 
   // Backward pass, in reverse topological order.
@@ -251,8 +272,10 @@ export function compute(p: Prepared): Computed {
     }
     // Total float, in slots of the task's own calendar.
     if (isMs) tf[i] = tb.slotsBetween(ps[i], ls[i]);
-    else if (state[i] >= STATE_STARTED) tf[i] = lsPos + d - tb.endsAtOrBefore(pf[i]);
-    else if (!Number.isNaN(p.pin[i])) tf[i] = lsPos - tb.startsBefore(ps[i]); // late start − booked start
+    else if (state[i] >= STATE_STARTED)
+      tf[i] = lsPos + d - tb.endsAtOrBefore(pf[i]);
+    else if (!Number.isNaN(p.pin[i]))
+      tf[i] = lsPos - tb.startsBefore(ps[i]); // late start − booked start
     else tf[i] = lsPos - esPos[i];
   }
 
@@ -264,7 +287,9 @@ export function compute(p: Prepared): Computed {
     const isMs = d === 0;
     const finishQ = isMs ? 0 : tb.endsAtOrBefore(pf[i]);
     const startP = isMs ? 0 : tb.startsBefore(ps[i]);
-    let best = isMs ? tb.slotsBetween(pf[i], cap) : tb.endsAtOrBefore(cap) - finishQ;
+    let best = isMs
+      ? tb.slotsBetween(pf[i], cap)
+      : tb.endsAtOrBefore(cap) - finishQ;
     for (let k = p.outStart[i]; k < p.outStart[i + 1]; k++) {
       const e = p.outEdges[k];
       const j = p.eTo[e];
@@ -272,7 +297,8 @@ export function compute(p: Prepared): Computed {
       const bound = linkLatestSource(p, e, j, ps[j], pf[j]);
       let slack: number;
       if (isMs) slack = tb.slotsBetween(ps[i], bound);
-      else if (p.eKind[e] === KIND_SS) slack = tb.startsAtOrBefore(bound) - 1 - startP;
+      else if (p.eKind[e] === KIND_SS)
+        slack = tb.startsAtOrBefore(bound) - 1 - startP;
       else slack = tb.endsAtOrBefore(bound) - finishQ;
       if (slack < best) best = slack;
     }
@@ -284,7 +310,10 @@ export function compute(p: Prepared): Computed {
     // Slip is counted on the workshop calendar, from the end of its handover day.
     const ws = p.workshop;
     const hEnd = ws.boundaryAtOrBefore(handoverEnd);
-    handoverSlipSlots = n === 0 || finish <= hEnd ? 0 : Math.max(0, ws.slotsBetween(hEnd, finish));
+    handoverSlipSlots =
+      n === 0 || finish <= hEnd
+        ? 0
+        : Math.max(0, ws.slotsBetween(hEnd, finish));
   }
 
   const c: Computed = {
@@ -393,7 +422,11 @@ export function describeInterval(s: number, f: number, tb: SlotTable): string {
     if (sm === NOON && toDayEnd) return `${humanDay(sDay)} afternoon`;
     return `${humanDay(sDay)} ${formatTime(sm)}–${formatTime(fm)}`;
   }
-  const from = fromDayStart ? humanDay(sDay) : sm === NOON ? `${humanDay(sDay)} afternoon` : `${humanDay(sDay)} ${formatTime(sm)}`;
+  const from = fromDayStart
+    ? humanDay(sDay)
+    : sm === NOON
+      ? `${humanDay(sDay)} afternoon`
+      : `${humanDay(sDay)} ${formatTime(sm)}`;
   return `${from} to ${describeFinish(fDay * MINUTES_PER_DAY + fm, tb)}`;
 }
 
@@ -403,7 +436,7 @@ function days(slots: number): number {
 
 function daysWord(slots: number): string {
   const d = Math.abs(slots) / 2;
-  return `${d} working day${d === 1 ? '' : 's'}`;
+  return `${d} working day${d === 1 ? "" : "s"}`;
 }
 
 /** Does [a, b) contain (part of) a working slot of tb? */
@@ -416,7 +449,13 @@ function coversWorkingTime(tb: SlotTable, a: number, b: number): boolean {
 function clashes(c: Computed): Map<number, { at: number; message: string }[]> {
   const { p } = c;
   const out = new Map<number, { at: number; message: string }[]>();
-  type Ev = { s: number; f: number; task: number; ref: string | null; resource: string };
+  type Ev = {
+    s: number;
+    f: number;
+    task: number;
+    ref: string | null;
+    resource: string;
+  };
   const byRes = new Map<string, Ev[]>();
   const add = (ev: Ev) => {
     let l = byRes.get(ev.resource);
@@ -430,7 +469,15 @@ function clashes(c: Computed): Map<number, { at: number; message: string }[]> {
     add({ s: c.ps[i], f: c.pf[i], task: i, ref: null, resource: r });
   }
   if (byRes.size === 0) return out;
-  for (const b of p.busy) if (byRes.has(b.resource)) add({ s: b.start, f: b.finish, task: -1, ref: b.ref, resource: b.resource });
+  for (const b of p.busy)
+    if (byRes.has(b.resource))
+      add({
+        s: b.start,
+        f: b.finish,
+        task: -1,
+        ref: b.ref,
+        resource: b.resource,
+      });
   const push = (task: number, at: number, message: string) => {
     let l = out.get(task);
     if (!l) out.set(task, (l = []));
@@ -450,18 +497,27 @@ function clashes(c: Computed): Map<number, { at: number; message: string }[]> {
         const f = ev.f < a.f ? ev.f : a.f;
         if (!(s < f)) continue;
         // Only working time counts: a Friday-to-Monday task does not clash with a Saturday job.
-        if (ev.task >= 0 && !coversWorkingTime(p.tables[ev.task], s, f)) continue;
+        if (ev.task >= 0 && !coversWorkingTime(p.tables[ev.task], s, f))
+          continue;
         if (a.task >= 0 && !coversWorkingTime(p.tables[a.task], s, f)) continue;
         const who = capitalise(res);
         if (ev.task >= 0) {
           const tb = p.tables[ev.task];
           const what = a.task >= 0 ? p.names[a.task] : a.ref;
-          push(ev.task, a.s, `${who} is already booked ${describeInterval(a.s, a.f, tb)}${what ? ` (${what})` : ''}`);
+          push(
+            ev.task,
+            a.s,
+            `${who} is already booked ${describeInterval(a.s, a.f, tb)}${what ? ` (${what})` : ""}`,
+          );
         }
         if (a.task >= 0) {
           const tb = p.tables[a.task];
           const what = ev.task >= 0 ? p.names[ev.task] : ev.ref;
-          push(a.task, ev.s, `${who} is already booked ${describeInterval(ev.s, ev.f, tb)}${what ? ` (${what})` : ''}`);
+          push(
+            a.task,
+            ev.s,
+            `${who} is already booked ${describeInterval(ev.s, ev.f, tb)}${what ? ` (${what})` : ""}`,
+          );
         }
       }
       active.push(ev);
@@ -470,10 +526,18 @@ function clashes(c: Computed): Map<number, { at: number; message: string }[]> {
   return out;
 }
 
-function nonWorking(list: Problem[], tb: SlotTable, field: string, t: number): void {
+function nonWorking(
+  list: Problem[],
+  tb: SlotTable,
+  field: string,
+  t: number,
+): void {
   const day = Math.floor(t / MINUTES_PER_DAY);
   if (!tb.isWorkingDay(day))
-    list.push({ code: 'non-working-day', message: `${field} ${humanDay(day)} is not a working day on this task's calendar` });
+    list.push({
+      code: "non-working-day",
+      message: `${field} ${humanDay(day)} is not a working day on this task's calendar`,
+    });
 }
 
 /** Problems of each task, in a fixed order of codes. */
@@ -501,7 +565,7 @@ function problemsOf(c: Computed): Problem[][] {
       }
       const when = describeStart(c.es[i], tb);
       list.push({
-        code: 'booking-too-early',
+        code: "booking-too-early",
         message:
           who >= 0
             ? `Booked for ${describeStart(pin, tb)}, but ${p.names[who]} allows a start only from ${describeStart(at, tb)}`
@@ -509,22 +573,38 @@ function problemsOf(c: Computed): Problem[][] {
       });
     }
     // A booked or actual date on a day the task's calendar does not work.
-    if (!Number.isNaN(pin)) nonWorking(list, tb, 'Booked start', pin);
-    if (!Number.isNaN(p.actS[i])) nonWorking(list, tb, 'Actual start', p.actS[i]);
-    if (!Number.isNaN(p.actF[i])) nonWorking(list, tb, 'Actual finish', p.actF[i]);
+    if (!Number.isNaN(pin)) nonWorking(list, tb, "Booked start", pin);
+    if (!Number.isNaN(p.actS[i]))
+      nonWorking(list, tb, "Actual start", p.actS[i]);
+    if (!Number.isNaN(p.actF[i]))
+      nonWorking(list, tb, "Actual finish", p.actF[i]);
     const cl = clash.get(i);
     if (cl) {
-      cl.sort((a, b) => a.at - b.at || (a.message < b.message ? -1 : a.message > b.message ? 1 : 0));
-      for (const x of cl) list.push({ code: 'clash', message: x.message });
+      cl.sort(
+        (a, b) =>
+          a.at - b.at ||
+          (a.message < b.message ? -1 : a.message > b.message ? 1 : 0),
+      );
+      for (const x of cl) list.push({ code: "clash", message: x.message });
     }
     if (c.state[i] === STATE_STARTED) {
       // Overdue when actual start + duration is at or before the data date's first slot.
       const due = tb.end(tb.startsBefore(c.ps[i]) + p.dur[i] - 1);
-      if (due <= c.ddStart[i]) list.push({ code: 'overdue', message: `${name} was due to finish by ${describeFinish(due, tb)} and is not marked done` });
+      if (due <= c.ddStart[i])
+        list.push({
+          code: "overdue",
+          message: `${name} was due to finish by ${describeFinish(due, tb)} and is not marked done`,
+        });
     }
     if (c.tf[i] < 0) {
-      const against = p.handoverDay === null ? "the programme's finish" : `handover on ${humanDay(p.handoverDay)}`;
-      list.push({ code: 'handover-at-risk', message: `${name} is ${daysWord(c.tf[i])} behind what ${against} allows` });
+      const against =
+        p.handoverDay === null
+          ? "the programme's finish"
+          : `handover on ${humanDay(p.handoverDay)}`;
+      list.push({
+        code: "handover-at-risk",
+        message: `${name} is ${daysWord(c.tf[i])} behind what ${against} allows`,
+      });
     }
     result[i] = list;
   }
@@ -548,14 +628,23 @@ function waitingOn(c: Computed, j: number): WaitingOn[] {
       at.push(a);
     } else if (a > at[seen]) at[seen] = a;
   }
+  if (preds.length === 1)
+    return [{ task: p.ids[preds[0]], allowsFrom: formatLocal(at[0]) }];
   const list: WaitingOn[] = new Array(preds.length);
   const order = preds.map((_, k) => k);
-  if (order.length > 1) order.sort((x, y) => at[x] - at[y] || (p.ids[preds[x]] < p.ids[preds[y]] ? -1 : 1));
-  for (let k = 0; k < order.length; k++) list[k] = { task: p.ids[preds[order[k]]], allowsFrom: formatLocal(at[order[k]]) };
+  if (order.length > 1)
+    order.sort(
+      (x, y) => at[x] - at[y] || (p.ids[preds[x]] < p.ids[preds[y]] ? -1 : 1),
+    );
+  for (let k = 0; k < order.length; k++)
+    list[k] = {
+      task: p.ids[preds[order[k]]],
+      allowsFrom: formatLocal(at[order[k]]),
+    };
   return list;
 }
 
-const STATE_NAMES = ['waiting', 'clear', 'started', 'done'] as const;
+const STATE_NAMES = ["waiting", "clear", "started", "done"] as const;
 
 /** Internal: format computed arrays as the JSON contract's result. */
 export function present(c: Computed): ProgrammeResult {
@@ -580,7 +669,8 @@ export function present(c: Computed): ProgrammeResult {
   }
   return {
     finish: p.n === 0 ? null : formatLocal(c.finish),
-    handoverSlipDays: c.handoverSlipSlots === null ? null : days(c.handoverSlipSlots),
+    handoverSlipDays:
+      c.handoverSlipSlots === null ? null : days(c.handoverSlipSlots),
     criticalPath: c.criticalPath.map((i) => p.ids[i]),
     tasks,
   };

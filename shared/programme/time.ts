@@ -30,7 +30,7 @@ function datePart(s: string): number | null {
 
 /** Day number (days since 1970-01-01) of a valid "YYYY-MM-DD", or null. */
 export function parseDay(s: string): number | null {
-  if (typeof s !== 'string' || s.length !== 10) return null;
+  if (typeof s !== "string" || s.length !== 10) return null;
   return datePart(s);
 }
 
@@ -62,7 +62,13 @@ export function parseTime(s: string): number | null {
 
 /** Local minutes of a valid "YYYY-MM-DDTHH:mm", or null. */
 export function parseDateTime(s: string): number | null {
-  if (typeof s !== 'string' || s.length !== 16 || s.charCodeAt(10) !== 84 || s.charCodeAt(13) !== 58) return null; // 'T', ':'
+  if (
+    typeof s !== "string" ||
+    s.length !== 16 ||
+    s.charCodeAt(10) !== 84 ||
+    s.charCodeAt(13) !== 58
+  )
+    return null; // 'T', ':'
   const day = datePart(s);
   const h = digits(s, 11, 2);
   const min = digits(s, 14, 2);
@@ -80,7 +86,7 @@ export function isDateOnly(s: string): boolean {
  * (e.g. 0 for its start, 1440 for its end). NaN when neither form parses.
  */
 export function parseDateOrDateTime(s: string, dateMinute: number): number {
-  if (typeof s !== 'string') return NaN;
+  if (typeof s !== "string") return NaN;
   if (s.length === 10) {
     const d = datePart(s);
     return d === null ? NaN : d * MINUTES_PER_DAY + dateMinute;
@@ -103,30 +109,54 @@ export function formatDay(day: number): string {
 export function formatTime(minuteOfDay: number): string {
   const h = Math.floor(minuteOfDay / 60);
   const m = minuteOfDay % 60;
-  return (h < 10 ? '0' : '') + h + ':' + (m < 10 ? '0' : '') + m;
+  return (h < 10 ? "0" : "") + h + ":" + (m < 10 ? "0" : "") + m;
 }
 
-const dayStringCache = new Map<number, string>();
+// "YYYY-MM-DDT" per day, cached in an array (1990–2089) so that a 10,000-task result does not
+// format 60,000 dates from scratch.
+const CACHE_FROM = 7305; // 1990-01-01
+const CACHE_DAYS = 36525;
+const dayStrings: (string | undefined)[] = new Array(CACHE_DAYS);
 const timeStrings: string[] = [];
 for (let i = 0; i < MINUTES_PER_DAY; i++) timeStrings.push(formatTime(i));
 
 /** "YYYY-MM-DDTHH:mm" of local minutes (the contract's offset-free local date-time). */
 export function formatLocal(t: number): string {
   const day = Math.floor(t / MINUTES_PER_DAY);
-  let ds = dayStringCache.get(day);
+  const k = day - CACHE_FROM;
+  let ds = k >= 0 && k < CACHE_DAYS ? dayStrings[k] : undefined;
   if (ds === undefined) {
-    ds = formatDay(day) + 'T';
-    if (dayStringCache.size > 20000) dayStringCache.clear();
-    dayStringCache.set(day, ds);
+    ds = formatDay(day) + "T";
+    if (k >= 0 && k < CACHE_DAYS) dayStrings[k] = ds;
   }
   return ds + timeStrings[t - day * MINUTES_PER_DAY];
 }
 
-const WEEKDAYS = ['Mon', 'Tue', 'Wed', 'Thu', 'Fri', 'Sat', 'Sun'];
-const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
+const WEEKDAYS = ["Mon", "Tue", "Wed", "Thu", "Fri", "Sat", "Sun"];
+const MONTHS = [
+  "Jan",
+  "Feb",
+  "Mar",
+  "Apr",
+  "May",
+  "Jun",
+  "Jul",
+  "Aug",
+  "Sep",
+  "Oct",
+  "Nov",
+  "Dec",
+];
 
 /** A day written the Sitecue way, with its weekday: "Thu 5 Mar" (product brief, Look and feel). */
 export function humanDay(day: number): string {
+  const k = day - CACHE_FROM;
+  const cached = k >= 0 && k < CACHE_DAYS ? humanDays[k] : undefined;
+  if (cached !== undefined) return cached;
   const d = new Date(day * 86400000);
-  return `${WEEKDAYS[isoWeekday(day) - 1]} ${d.getUTCDate()} ${MONTHS[d.getUTCMonth()]}`;
+  const s = `${WEEKDAYS[isoWeekday(day) - 1]} ${d.getUTCDate()} ${MONTHS[d.getUTCMonth()]}`;
+  if (k >= 0 && k < CACHE_DAYS) humanDays[k] = s;
+  return s;
 }
+
+const humanDays: (string | undefined)[] = new Array(CACHE_DAYS);

@@ -2,10 +2,10 @@
 // docs brief "programme-engine.md" (issue 3); these types mirror it field for field.
 
 /** ISO 3166-2 codes of the UK nations whose bank holidays a calendar may follow. */
-export type HolidayRegion = 'GB-ENG' | 'GB-WLS' | 'GB-SCT' | 'GB-NIR';
+export type HolidayRegion = "GB-ENG" | "GB-WLS" | "GB-SCT" | "GB-NIR";
 
-export type LinkKind = 'FS' | 'SS' | 'FF';
-export type LagUnit = 'workingDays' | 'elapsedHours';
+export type LinkKind = "FS" | "SS" | "FF";
+export type LagUnit = "workingDays" | "elapsedHours";
 
 export interface CalendarInput {
   id: string;
@@ -70,11 +70,11 @@ export interface ProgrammeInput {
 }
 
 export type ProblemCode =
-  | 'booking-too-early'
-  | 'non-working-day'
-  | 'clash'
-  | 'overdue'
-  | 'handover-at-risk';
+  | "booking-too-early"
+  | "non-working-day"
+  | "clash"
+  | "overdue"
+  | "handover-at-risk";
 
 export interface Problem {
   code: ProblemCode;
@@ -87,7 +87,7 @@ export interface WaitingOn {
   allowsFrom: string;
 }
 
-export type ReadinessState = 'done' | 'started' | 'clear' | 'waiting';
+export type ReadinessState = "done" | "started" | "clear" | "waiting";
 
 export interface Readiness {
   state: ReadinessState;
@@ -123,8 +123,8 @@ export interface ProgrammeResult {
 export class ProgrammeInputError extends Error {
   readonly problems: string[];
   constructor(problems: string[]) {
-    super(problems.join('\n'));
-    this.name = 'ProgrammeInputError';
+    super(problems.join("\n"));
+    this.name = "ProgrammeInputError";
     this.problems = problems;
   }
 }

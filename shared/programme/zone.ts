@@ -2,8 +2,8 @@
 // real hours"; references §4). Luxon knows the IANA rules; calling it per link would dominate the
 // run time, so each zone's offset transitions are found once (sampled daily, then bisected to the
 // minute) and looked up by binary search afterwards.
-import { DateTime, IANAZone } from 'luxon';
-import { MINUTES_PER_DAY } from './time';
+import { DateTime, IANAZone } from "luxon";
+import { MINUTES_PER_DAY } from "./time";
 
 /** True when `zone` is a known IANA time-zone name. */
 export function isValidZone(zone: string): boolean {
@@ -37,7 +37,11 @@ function build(zone: string, fromUtc: number, toUtc: number): ZoneTable {
   const offsets: number[] = [offsetAt(zone, fromUtc)];
   let prevT = fromUtc;
   let prevOff = offsets[0];
-  for (let t = fromUtc + MINUTES_PER_DAY; t <= toUtc + MINUTES_PER_DAY; t += MINUTES_PER_DAY) {
+  for (
+    let t = fromUtc + MINUTES_PER_DAY;
+    t <= toUtc + MINUTES_PER_DAY;
+    t += MINUTES_PER_DAY
+  ) {
     const off = offsetAt(zone, t);
     if (off !== prevOff) {
       // Bisect to the first minute with the new offset.
@@ -54,7 +58,12 @@ function build(zone: string, fromUtc: number, toUtc: number): ZoneTable {
     }
     prevT = t;
   }
-  return { fromUtcMin: fromUtc, toUtcMin: toUtc + MINUTES_PER_DAY, at, offsets };
+  return {
+    fromUtcMin: fromUtc,
+    toUtcMin: toUtc + MINUTES_PER_DAY,
+    at,
+    offsets,
+  };
 }
 
 function table(zone: string, utcMin: number): ZoneTable {
@@ -98,6 +107,10 @@ export function utcToLocal(zone: string, utcMin: number): number {
 }
 
 /** A local instant plus real elapsed hours (may be negative), as a local instant. */
-export function addElapsedMinutes(zone: string, local: number, minutes: number): number {
+export function addElapsedMinutes(
+  zone: string,
+  local: number,
+  minutes: number,
+): number {
   return utcToLocal(zone, localToUtc(zone, local) + minutes);
 }
