@@ -7,7 +7,8 @@ export default defineConfig({
       {
         test: {
           name: 'shared',
-          include: ['shared/**/*.test.ts'],
+          include: ['shared/**/*.test.ts', 'tests/lint/*.test.ts'],
+          testTimeout: 60000,
           environment: 'node',
         },
       },
