@@ -67,7 +67,9 @@ export function formatDateTime(value: string): string {
 
 /** A date range: "Thu 14 Jan – Fri 15 Jan 2026", or one date when start and finish agree. */
 export function formatDateRange(start: string, finish: string): string {
-  if (!finish || start === finish) return formatDate(start);
+  // Bookings carry wall-clock times ("2026-11-27T08:00"); the range is about days.
+  if (!finish || start.slice(0, 10) === finish.slice(0, 10))
+    return formatDate(start);
   const a = parseDate(start);
   const b = parseDate(finish);
   if (!a || !b) return `${start} – ${finish}`;
@@ -75,8 +77,9 @@ export function formatDateRange(start: string, finish: string): string {
   return `${formatDate(start, !sameYear)} – ${formatDate(finish)}`;
 }
 
-/** "1 day", "2.5 days". */
+/** "1 day", "2.5 days"; a zero-length task is a milestone (e.g. handover). */
 export function formatDays(days: number): string {
+  if (days === 0) return "milestone";
   const n = Number.isInteger(days)
     ? String(days)
     : days.toFixed(1).replace(/\.0$/, "");

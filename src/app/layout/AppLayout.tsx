@@ -27,8 +27,9 @@ function WorkshopPicker() {
   const { active, memberships, choose } = useActiveWorkshop();
   if (!active) return null;
   if (memberships.length === 1) {
+    // On a phone the page header already names the workshop.
     return (
-      <span className="truncate text-sm text-ink-soft">
+      <span className="truncate text-sm text-ink-soft max-sm:hidden">
         {active.workshopName}
       </span>
     );

@@ -28,10 +28,7 @@ export function PublicLayout({
       </main>
       <footer className="border-t border-rule">
         <div className="mx-auto flex max-w-page flex-wrap items-center justify-between gap-2 px-4 py-4 text-sm text-ink-soft">
-          <p>
-            Sitecue plans the work on site; trades certify their own work under
-            local regulations.
-          </p>
+          <p>Sitecue plans work on site; it does not certify it.</p>
           {/* The dev mailbox only exists where the local mail catcher runs. */}
           {import.meta.env.DEV ? (
             <Link

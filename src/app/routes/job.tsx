@@ -97,8 +97,19 @@ export function JobRoute() {
       ) : null}
       <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
         <div className="flex min-w-0 flex-col gap-6">
-          <JobTasksSection job={j} />
-          <JobBookingsSection job={j} />
+          {/* The customer comes for who arrives when (their visits); everyone else
+              for the programme first. */}
+          {j.viewerRole === "customer" ? (
+            <>
+              <JobBookingsSection job={j} />
+              <JobTasksSection job={j} />
+            </>
+          ) : (
+            <>
+              <JobTasksSection job={j} />
+              <JobBookingsSection job={j} />
+            </>
+          )}
         </div>
         <div className="flex min-w-0 flex-col gap-6">
           <JobDetailsSection job={j} />

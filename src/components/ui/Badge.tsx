@@ -111,7 +111,25 @@ const bookingTone: Record<BookingState, Tone> = {
   cancelled: "muted",
 };
 
-export function BookingStateBadge({ state }: { state: BookingState }) {
+/**
+ * For the customer a booking is a visit: either it is confirmed or it is not yet, so the
+ * workshop's intermediate states (sent, date proposed…) read as "To be confirmed".
+ */
+export function BookingStateBadge({
+  state,
+  asVisit = false,
+}: {
+  state: BookingState;
+  asVisit?: boolean;
+}) {
+  if (
+    asVisit &&
+    state !== "confirmed" &&
+    state !== "cancelled" &&
+    state !== "declined"
+  ) {
+    return <StatusBadge tone="wait">To be confirmed</StatusBadge>;
+  }
   return (
     <StatusBadge tone={bookingTone[state]}>
       {bookingStateLabels[state]}

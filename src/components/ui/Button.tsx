@@ -2,7 +2,7 @@ import type { ButtonHTMLAttributes, Ref } from "react";
 import { Link, type LinkProps } from "react-router-dom";
 import { cx } from "./cx";
 
-type Variant = "primary" | "secondary" | "danger" | "quiet";
+type Variant = "primary" | "secondary" | "danger" | "quiet" | "quiet-danger";
 type Size = "md" | "sm";
 
 const base =
@@ -14,18 +14,29 @@ const variants: Record<Variant, string> = {
   danger: "border-risk bg-risk text-card hover:brightness-95",
   quiet:
     "border-transparent bg-transparent text-accent hover:underline underline-offset-2",
+  "quiet-danger":
+    "border-transparent bg-transparent text-risk hover:underline underline-offset-2",
 };
+// Quiet buttons read as links, so they sit flush with the text around them.
+const isQuiet = (v: Variant) => v === "quiet" || v === "quiet-danger";
 const sizes: Record<Size, string> = {
-  md: "min-h-10 px-4 py-2 text-sm",
-  sm: "min-h-8 px-3 py-1 text-sm",
+  md: "min-h-10 py-2 text-sm",
+  sm: "min-h-8 py-1 text-sm",
 };
+const padding: Record<Size, string> = { md: "px-4", sm: "px-3" };
 
 export function buttonClasses(
   variant: Variant = "primary",
   size: Size = "md",
   className?: string,
 ): string {
-  return cx(base, variants[variant], sizes[size], className);
+  return cx(
+    base,
+    variants[variant],
+    sizes[size],
+    !isQuiet(variant) && padding[size],
+    className,
+  );
 }
 
 interface ButtonProps extends ButtonHTMLAttributes<HTMLButtonElement> {

@@ -90,12 +90,21 @@ export function ErrorState({ error, title, onRetry }: ErrorStateProps) {
 }
 
 /** A form-level error (not tied to one field), announced when it appears. */
-export function FormError({ message }: { message?: string | null }) {
+export function FormError({
+  message,
+  className,
+}: {
+  message?: string | null;
+  className?: string;
+}) {
   if (!message) return null;
   return (
     <p
       role="alert"
-      className="rounded border border-risk/40 bg-risk-wash px-3 py-2 text-sm font-medium"
+      className={cx(
+        "rounded border border-risk/40 bg-risk-wash px-3 py-2 text-sm font-medium",
+        className,
+      )}
     >
       {message}
     </p>

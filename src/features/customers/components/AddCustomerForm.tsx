@@ -45,9 +45,7 @@ export function AddCustomerForm({
       className="grid gap-3 sm:grid-cols-3"
     >
       <p className="text-sm font-semibold sm:col-span-3">New customer</p>
-      <div className="sm:col-span-3">
-        <FormError message={formError} />
-      </div>
+      <FormError className="sm:col-span-3" message={formError} />
       <TextField
         label="Name"
         autoComplete="off"

@@ -16,6 +16,7 @@ import {
 } from "../../../components/ui";
 import { isApiError } from "../../../lib/api-client";
 import { applyServerErrors } from "../../../lib/form-errors";
+import { formatDate } from "../../../lib/format";
 import { jobStatusLabels } from "../../../lib/labels";
 import { useUpdateJob } from "../api/update-job";
 
@@ -43,6 +44,7 @@ export function EditJobForm({ job, onSaved, onCancel }: EditJobFormProps) {
     },
   });
   const { errors } = form.formState;
+  const handover = form.watch("handoverDate");
 
   // After a conflict the page reloads the job; take its new version so that saving
   // again is a deliberate choice to put these edits over the other person's.
@@ -75,9 +77,7 @@ export function EditJobForm({ job, onSaved, onCancel }: EditJobFormProps) {
       aria-label="Edit job"
       className="grid gap-4 md:grid-cols-2"
     >
-      <div className="md:col-span-2">
-        <FormError message={formError} />
-      </div>
+      <FormError className="md:col-span-2" message={formError} />
       <TextField
         label="Title"
         error={errors.title?.message}
@@ -105,6 +105,7 @@ export function EditJobForm({ job, onSaved, onCancel }: EditJobFormProps) {
         type="date"
         optional
         inputClassName="font-mono"
+        hint={handover ? formatDate(handover) : undefined}
         error={errors.handoverDate?.message}
         {...form.register("handoverDate", {
           setValueAs: (v: unknown) => (v === "" || v == null ? null : v),

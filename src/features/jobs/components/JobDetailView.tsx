@@ -28,7 +28,7 @@ function DetailRow({
   children: React.ReactNode;
 }) {
   return (
-    <div className="grid gap-0.5 sm:grid-cols-[10rem_1fr] sm:gap-4">
+    <div className="grid gap-0.5 sm:grid-cols-[7.5rem_1fr] sm:gap-4">
       <dt className="text-sm text-ink-soft">{label}</dt>
       <dd className="min-w-0">{children}</dd>
     </div>
@@ -290,7 +290,7 @@ export function JobBookingsSection({ job }: { job: JobDetail }) {
                 <div className="flex flex-wrap items-center gap-2">
                   <span className="font-medium">{b.tradeBusinessName}</span>
                   <PartyChip party={b.tradeKind} />
-                  <BookingStateBadge state={b.state} />
+                  <BookingStateBadge state={b.state} asVisit={isCustomer} />
                 </div>
                 {taskName(b.taskId) ? (
                   <p className="text-sm text-ink-soft">

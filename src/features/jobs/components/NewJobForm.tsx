@@ -1,9 +1,10 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useId, useState, type ReactNode } from "react";
 import { Controller, useForm } from "react-hook-form";
-import type { z } from "zod";
+import { z } from "zod";
 import {
   createJobBodySchema,
+  idSchema,
   holidayRegionSchema,
   jobStatuses,
   type CustomerResponse,
@@ -18,11 +19,21 @@ import {
   WeekdayPicker,
 } from "../../../components/ui";
 import { applyServerErrors } from "../../../lib/form-errors";
+import { formatDate } from "../../../lib/format";
 import { holidayRegionLabels, jobStatusLabels } from "../../../lib/labels";
 import { useCreateJob } from "../api/create-job";
 
-type Input = z.input<typeof createJobBodySchema>;
-type Output = z.output<typeof createJobBodySchema>;
+// The shared body schema, with a plain message for the unchosen customer (an empty
+// select) instead of the generic "Must be a valid id".
+const newJobFormSchema = createJobBodySchema.extend({
+  customerId: z
+    .string()
+    .min(1, "Choose a customer, or add a new one")
+    .pipe(idSchema),
+});
+
+type Input = z.input<typeof newJobFormSchema>;
+type Output = z.output<typeof newJobFormSchema>;
 
 const FIELDS = [
   "title",
@@ -64,7 +75,7 @@ export function NewJobForm({
   const [addingCustomer, setAddingCustomer] = useState(false);
   const formId = useId();
   const form = useForm<Input, unknown, Output>({
-    resolver: zodResolver(createJobBodySchema),
+    resolver: zodResolver(newJobFormSchema),
     defaultValues: {
       title: "",
       customerId: "",
@@ -80,6 +91,7 @@ export function NewJobForm({
     },
   });
   const { errors } = form.formState;
+  const handover = form.watch("handoverDate");
   const formError = createJob.isError
     ? applyServerErrors(createJob.error, form.setError, FIELDS)
     : null;
@@ -127,7 +139,7 @@ export function NewJobForm({
           <Button
             variant="quiet"
             size="sm"
-            className="self-start px-0"
+            className="self-start"
             onClick={() => setAddingCustomer(true)}
           >
             Add a new customer
@@ -199,6 +211,7 @@ export function NewJobForm({
           label="Handover"
           type="date"
           optional
+          hint={handover ? formatDate(handover) : undefined}
           error={errors.handoverDate?.message}
           inputClassName="font-mono"
           {...form.register("handoverDate", {

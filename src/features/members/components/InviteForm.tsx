@@ -94,9 +94,7 @@ export function InviteForm({
       aria-label="Invite someone"
       className="grid gap-4 md:grid-cols-2"
     >
-      <div className="md:col-span-2">
-        <FormError message={formError} />
-      </div>
+      <FormError className="md:col-span-2" message={formError} />
       <Select
         label="They join as"
         error={errors.role?.message}

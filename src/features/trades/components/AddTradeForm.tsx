@@ -72,9 +72,7 @@ export function AddTradeForm({
       aria-label="Add a trade"
       className="grid gap-4 md:grid-cols-2"
     >
-      <div className="md:col-span-2">
-        <FormError message={formError} />
-      </div>
+      <FormError className="md:col-span-2" message={formError} />
       <TextField
         label="Business name"
         autoFocus
@@ -110,17 +108,23 @@ export function AddTradeForm({
         error={errors.phone?.message}
         {...form.register("phone")}
       />
+      {/* Plain text boxes, not type="time": the browser would show a 12-hour clock in
+          some locales, and Sitecue writes times on the 24-hour clock. */}
       <div className="grid grid-cols-2 gap-3">
         <TextField
           label="Day starts"
-          type="time"
+          inputMode="numeric"
+          placeholder="08:00"
+          maxLength={5}
           inputClassName="font-mono"
           error={errors.dayStart?.message}
           {...form.register("dayStart")}
         />
         <TextField
           label="Day ends"
-          type="time"
+          inputMode="numeric"
+          placeholder="16:30"
+          maxLength={5}
           inputClassName="font-mono"
           error={errors.dayEnd?.message}
           {...form.register("dayEnd")}

@@ -11,9 +11,8 @@ function DeleteTrade({ trade }: { trade: TradeResponse }) {
   if (!confirming) {
     return (
       <Button
-        variant="quiet"
+        variant="quiet-danger"
         size="sm"
-        className="px-0 text-risk"
         onClick={() => setConfirming(true)}
       >
         Delete<span className="sr-only"> {trade.businessName}</span>
