@@ -177,4 +177,50 @@ describe("impactOf", () => {
     // Finish Thu 12:00 → Mon 12:00: Thu afternoon and Mon morning = 1 working day.
     expect(impact.handover.changeDays).toBe(1);
   });
+  it("a moved booking is listed for re-confirming at its new date; nothing else moves", () => {
+    const before = example();
+    before.tasks[1].bookedStart = "2026-03-05";
+    const after = example();
+    after.tasks[1].bookedStart = "2026-03-09T12:00";
+    const impact = impactOf(before, after);
+    expect(impact.reconfirm).toEqual([
+      {
+        task: "template",
+        bookedStart: "2026-03-05T08:00",
+        proposedStart: "2026-03-09T12:00",
+        reason: "The booking moves to Mon 9 Mar afternoon",
+      },
+    ]);
+    // The template itself moves Thu 08:00 → Mon 12:00: Thu am, Thu pm, Mon am = 1.5 days.
+    expect(impact.moves.map((m) => [m.task, m.byDays])).toEqual([
+      ["template", 1.5],
+    ]);
+  });
+});
+
+describe("startWindow for a milestone", () => {
+  it("lists the boundaries from its early to its late instant", () => {
+    // A 1-day task on Mon 2; milestone M after it; handover end of Tue 3: M may sit from Mon
+    // 16:30 to Tue 16:30 (the end of the handover day).
+    const input: ProgrammeInput = {
+      dataDate: "2026-03-02",
+      handover: "2026-03-03",
+      tasks: [
+        { id: "A", durationDays: 1 },
+        { id: "M", durationDays: 0 },
+      ],
+      links: [{ from: "A", to: "M" }],
+    };
+    const w = startWindow(input, "M");
+    expect([w.earliestStart, w.latestStart, w.starts]).toEqual([
+      "2026-03-02T16:30",
+      "2026-03-03T16:30",
+      [
+        "2026-03-02T16:30",
+        "2026-03-03T08:00",
+        "2026-03-03T12:00",
+        "2026-03-03T16:30",
+      ],
+    ]);
+  });
 });

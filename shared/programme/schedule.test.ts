@@ -534,6 +534,44 @@ describe("calendar intersection", () => {
   });
 });
 
+describe("more link and calendar cases", () => {
+  it("SS with an elapsed-hour lag: 5 h after a Mon 08:00 start is 13:00 → Tue 08:00", () => {
+    // Mon 08:00 + 5 h = 13:00, inside the afternoon slot; the first slot starting at or after
+    // it is Tue 08:00. With 4 h it is exactly 12:00, so Mon 12:00.
+    const r = run(
+      [
+        { id: "A", durationDays: 3 },
+        { id: "B5", durationDays: 0.5 },
+        { id: "B4", durationDays: 0.5 },
+      ],
+      [
+        { from: "A", to: "B5", kind: "SS", lag: 5, lagUnit: "elapsedHours" },
+        { from: "A", to: "B4", kind: "SS", lag: 4, lagUnit: "elapsedHours" },
+      ],
+    );
+    expect(task(r, "B5").earlyStart).toBe("2026-03-03T08:00");
+    expect(task(r, "B4").earlyStart).toBe("2026-03-02T12:00");
+  });
+
+  it("the site's nation sets the bank holidays of a trade without one (Scotland, Mon 15 Jun 2026)", () => {
+    // Trade calendar with no region ∩ a Scottish site: 2 days from Fri 12 Jun skip the weekend
+    // and the one-off holiday Mon 15 Jun (GOV.UK, references §3) → Fri 12, Tue 16.
+    const r = run(
+      [{ id: "A", calendar: ["trade", "site"], durationDays: 2 }],
+      [],
+      {
+        dataDate: "2026-06-12",
+        calendars: [
+          WORKSHOP,
+          { id: "trade", holidayRegion: null },
+          { id: "site", holidayRegion: "GB-SCT" },
+        ],
+      },
+    );
+    expect(dates(r, "A")).toEqual(["2026-06-12T08:00", "2026-06-16T16:30"]);
+  });
+});
+
 describe("float, handover and readiness", () => {
   it("handover slip, negative float and free float never above total float", () => {
     // A 3 days Mon–Wed, B 2 days Thu–Fri; handover end of Wed 4 → 2 days slip.

@@ -14,17 +14,12 @@ const halfStep = (x: number) =>
 export const DateSchema = z
   .string()
   .refine(isDate, { error: "must be a date written YYYY-MM-DD" });
-export const DateOrDateTimeSchema = z
-  .string()
-  .refine(isDateOrDateTime, {
-    error:
-      "must be a date (YYYY-MM-DD) or a local date-time (YYYY-MM-DDTHH:mm)",
-  });
-export const TimeOfDaySchema = z
-  .string()
-  .refine((s) => parseTime(s) !== null, {
-    error: "must be a time written HH:mm",
-  });
+export const DateOrDateTimeSchema = z.string().refine(isDateOrDateTime, {
+  error: "must be a date (YYYY-MM-DD) or a local date-time (YYYY-MM-DDTHH:mm)",
+});
+export const TimeOfDaySchema = z.string().refine((s) => parseTime(s) !== null, {
+  error: "must be a time written HH:mm",
+});
 
 export const HolidayRegionSchema = z.enum(
   ["GB-ENG", "GB-WLS", "GB-SCT", "GB-NIR"],
@@ -37,13 +32,9 @@ export const CalendarSchema = z.object({
   id: z.string().min(1, { error: "must not be empty" }),
   workingWeekdays: z
     .array(
-      z
-        .number()
-        .int()
-        .min(1)
-        .max(7, {
-          error: "must be an ISO weekday number, 1 = Monday … 7 = Sunday",
-        }),
+      z.number().int().min(1).max(7, {
+        error: "must be an ISO weekday number, 1 = Monday … 7 = Sunday",
+      }),
     )
     .min(1, { error: "must list at least one working weekday" })
     .nullish(),

@@ -93,7 +93,10 @@ export function zoneOffset(zone: string, utcMin: number): number {
   return tb.offsets[lo];
 }
 
-/** UTC minutes of a local wall-clock instant (a time in a spring-forward gap moves forward). */
+/**
+ * UTC minutes of a local wall-clock instant. A wall-clock time inside a spring-forward gap (never
+ * a working time in the UK) resolves an hour early; every other time converts exactly.
+ */
 export function localToUtc(zone: string, local: number): number {
   const o1 = zoneOffset(zone, local - zoneOffset(zone, local));
   const utc = local - o1;
