@@ -223,7 +223,6 @@ describe("properties over random networks (fast-check)", () => {
         for (const t of input.tasks) {
           if (isFixed(t)) continue;
           const slots = slotsOf(input, t);
-          const n = Math.round(t.durationDays * 2);
           let bound =
             slots[
               firstIndex(slots, (x) => x.start >= `${input.dataDate}T00:00`)
@@ -248,7 +247,6 @@ describe("properties over random networks (fast-check)", () => {
           }
           // … and the early start is no later than the rules need.
           expect([t.id, r.get(t.id)!.earlyStart]).toEqual([t.id, bound]);
-          void n;
         }
       }),
       RUNS,
