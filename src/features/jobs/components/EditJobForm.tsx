@@ -1,6 +1,6 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useEffect } from "react";
-import { useForm } from "react-hook-form";
+import { useForm, useWatch } from "react-hook-form";
 import type { z } from "zod";
 import {
   jobStatuses,
@@ -44,7 +44,7 @@ export function EditJobForm({ job, onSaved, onCancel }: EditJobFormProps) {
     },
   });
   const { errors } = form.formState;
-  const handover = form.watch("handoverDate");
+  const handover = useWatch({ control: form.control, name: "handoverDate" });
 
   // After a conflict the page reloads the job; take its new version so that saving
   // again is a deliberate choice to put these edits over the other person's.

@@ -1,6 +1,6 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useId, useState, type ReactNode } from "react";
-import { Controller, useForm } from "react-hook-form";
+import { Controller, useForm, useWatch } from "react-hook-form";
 import { z } from "zod";
 import {
   createJobBodySchema,
@@ -91,7 +91,7 @@ export function NewJobForm({
     },
   });
   const { errors } = form.formState;
-  const handover = form.watch("handoverDate");
+  const handover = useWatch({ control: form.control, name: "handoverDate" });
   const formError = createJob.isError
     ? applyServerErrors(createJob.error, form.setError, FIELDS)
     : null;

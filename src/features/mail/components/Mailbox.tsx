@@ -42,9 +42,13 @@ export function Mailbox({ messages, selectedId }: MailboxProps) {
   const selected = messages.find((m) => m.id === selectedId);
   return (
     <div className="grid gap-4 lg:grid-cols-[22rem_minmax(0,1fr)]">
+      {/* On a phone an open message replaces the list; a link leads back to it. */}
       <nav
         aria-label="Caught messages"
-        className="rounded border border-rule bg-card"
+        className={cx(
+          "rounded border border-rule bg-card",
+          selected && "max-lg:hidden",
+        )}
       >
         <ul className="flex flex-col divide-y divide-rule">
           {messages.map((m) => (
@@ -77,6 +81,12 @@ export function Mailbox({ messages, selectedId }: MailboxProps) {
           className="min-w-0 rounded border border-rule bg-card"
         >
           <header className="border-b border-rule px-4 py-3">
+            <Link
+              to="/dev/mail"
+              className="mb-2 inline-block text-sm text-accent underline underline-offset-2 lg:hidden"
+            >
+              ← All messages
+            </Link>
             <h2 id="mail-subject" className="text-lg font-semibold">
               {selected.subject || "(no subject)"}
             </h2>
@@ -109,7 +119,7 @@ export function Mailbox({ messages, selectedId }: MailboxProps) {
             </section>
           ) : null}
           {/* Plain text only: the HTML part is not rendered, so mail content cannot run script here. */}
-          <pre className="overflow-x-auto px-4 py-3 font-sans text-sm whitespace-pre-wrap">
+          <pre className="overflow-x-auto px-4 py-3 font-sans text-sm break-words whitespace-pre-wrap">
             {selected.text}
           </pre>
         </article>

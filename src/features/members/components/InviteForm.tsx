@@ -1,5 +1,5 @@
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useForm } from "react-hook-form";
+import { useForm, useWatch } from "react-hook-form";
 import type { z } from "zod";
 import {
   createInvitationBodySchema,
@@ -43,7 +43,7 @@ export function InviteForm({
     },
   });
   const { errors } = form.formState;
-  const role = form.watch("role");
+  const role = useWatch({ control: form.control, name: "role" });
   const formError = invite.isError
     ? applyServerErrors(invite.error, form.setError, [
         "role",

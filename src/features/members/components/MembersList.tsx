@@ -1,3 +1,4 @@
+import { useState } from "react";
 import type {
   InvitationResponse,
   MemberResponse,
@@ -48,6 +49,8 @@ export function InvitationsList({
 }: {
   invitations: InvitationResponse[];
 }) {
+  // Read once per mount: whether a link has expired need not tick while the page is open.
+  const [now] = useState(() => Date.now());
   if (invitations.length === 0) {
     return (
       <EmptyState title="No invitations sent">
@@ -55,7 +58,6 @@ export function InvitationsList({
       </EmptyState>
     );
   }
-  const now = Date.now();
   // Waiting invitations first: they are the ones that may need a nudge.
   const sorted = [...invitations].sort(
     (a, b) =>
