@@ -17,6 +17,8 @@ import { checkCredentials } from "./modules/auth/auth.service";
 import { registerCustomerRoutes } from "./modules/customers/customers.router";
 import { registerHealthRoutes } from "./modules/health/health.router";
 import { registerJobRoutes } from "./modules/jobs/jobs.router";
+import { registerProgrammeRoutes } from "./modules/programme/programme.router";
+import { registerStarterRoutes } from "./modules/starters/starters.router";
 import { registerDevMailRoutes } from "./modules/mail/mail.router";
 import { registerTradeRoutes } from "./modules/trades/trades.router";
 import { loadSessionUser } from "./modules/users/users.service";
@@ -112,6 +114,8 @@ export function createApp(deps: AppDeps): SitecueApp {
     windowMs: deps.signInWindowMs ?? 15 * 60 * 1000,
   });
   registerJobRoutes(api, deps.ds);
+  registerProgrammeRoutes(api, deps.ds);
+  registerStarterRoutes(api, deps.ds);
   registerWorkshopRoutes(api, authDeps);
   registerTradeRoutes(api, deps.ds);
   registerCustomerRoutes(api, deps.ds);

@@ -7,6 +7,7 @@ import { Task, TaskLink } from "../modules/programme/programme.entity";
 import { Booking } from "../modules/bookings/bookings.entity";
 import { AuditEntry } from "../modules/audit/audit.entity";
 import { AuthToken } from "../modules/auth/auth-tokens.entity";
+import { ProgrammeStarter } from "../modules/starters/starters.entity";
 
 /** Every entity, listed once (the data source and tests use this list). */
 export const entities = [
@@ -22,4 +23,5 @@ export const entities = [
   Booking,
   AuditEntry,
   AuthToken,
+  ProgrammeStarter,
 ];

@@ -51,6 +51,8 @@ export type Action =
   | "trades.create"
   | "trades.update"
   | "trades.delete"
+  | "starters.read"
+  | "starters.update"
   | "customers.read"
   | "customers.create"
   | "jobs.list"
@@ -106,6 +108,8 @@ export function can(actor: Actor, action: Action, resource: Resource): boolean {
     case "trades.read":
     case "trades.create":
     case "trades.update":
+    case "starters.read":
+    case "starters.update":
     case "customers.read":
     case "customers.create":
     case "jobs.list":

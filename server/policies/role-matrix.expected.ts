@@ -22,6 +22,9 @@ const signedIn = (s: number): Row => ({ ...all(s), anon: 401 });
 const ownerOnly = (ok: number): Row => ({ owner: ok, fitter: 403, tradeOn: 403, tradeOff: 403, customer: 403, other: 403, anon: 401 });
 const staff = (ok: number): Row => ({ owner: ok, fitter: ok, tradeOn: 403, tradeOff: 403, customer: 403, other: 403, anon: 401 });
 
+/** On a job: the trade on it and its customer see the job (403); the others do not (404). */
+const jobStaff = (ok: number): Row => ({ owner: ok, fitter: ok, tradeOn: 403, tradeOff: 404, customer: 403, other: 404, anon: 401 });
+
 export const expected: Record<string, Row> = {
   "GET /health": all(200),
   "GET /openapi.json": all(200),
@@ -39,6 +42,19 @@ export const expected: Record<string, Row> = {
   "PATCH /jobs/:jobId": { owner: 200, fitter: 200, tradeOn: 403, tradeOff: 404, customer: 403, other: 404, anon: 401 },
   "DELETE /jobs/:jobId": { owner: 204, fitter: 403, tradeOn: 403, tradeOff: 404, customer: 403, other: 404, anon: 401 },
 
+  // The programme: the workshop plans it; trades and the customer see their parts through the job.
+  "GET /jobs/:jobId/programme": jobStaff(200),
+  "POST /jobs/:jobId/tasks": jobStaff(201),
+  "PATCH /jobs/:jobId/tasks/:taskId": jobStaff(200),
+  "DELETE /jobs/:jobId/tasks/:taskId": jobStaff(200),
+  "PUT /jobs/:jobId/tasks/order": jobStaff(200),
+  "POST /jobs/:jobId/tasks/:taskId/progress": jobStaff(200),
+  "POST /jobs/:jobId/links": jobStaff(201),
+  "PATCH /jobs/:jobId/links/:linkId": jobStaff(200),
+  "DELETE /jobs/:jobId/links/:linkId": jobStaff(200),
+  "POST /jobs/:jobId/programme/preview": jobStaff(200),
+  "POST /jobs/:jobId/programme/apply": jobStaff(200),
+
   "GET /workshops/:workshopId": staff(200),
   "PATCH /workshops/:workshopId": ownerOnly(200),
   "GET /workshops/:workshopId/members": ownerOnly(200),
@@ -50,6 +66,9 @@ export const expected: Record<string, Row> = {
   // Another trade's record: trades and customers cannot see it at all.
   "PATCH /trades/:tradeId": { owner: 200, fitter: 200, tradeOn: 404, tradeOff: 404, customer: 404, other: 404, anon: 401 },
   "DELETE /trades/:tradeId": { owner: 204, fitter: 403, tradeOn: 404, tradeOff: 404, customer: 404, other: 404, anon: 401 },
+
+  "GET /workshops/:workshopId/starters": staff(200),
+  "PUT /workshops/:workshopId/starters/:starterId": staff(200),
 
   "GET /workshops/:workshopId/customers": staff(200),
   "POST /workshops/:workshopId/customers": staff(201),

@@ -1,12 +1,13 @@
 import { randomBytes } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { anonymous, signIn, startTestApp, type Session, type TestApp } from "../../tests/setup/test-app";
-import { buildBooking, buildJob, buildTask, buildTrade, buildUser, linkTradeUser } from "../../tests/factories/builders";
+import { buildBooking, buildJob, buildLink, buildTask, buildTrade, buildUser, linkTradeUser } from "../../tests/factories/builders";
 import { demoAccounts, demoJobTitles } from "../../tests/factories/demo-scenario";
 import { Customer } from "../modules/customers/customers.entity";
 import { Job } from "../modules/jobs/jobs.entity";
 import { Trade } from "../modules/trades/trades.entity";
 import { Workshop } from "../modules/workshops/workshops.entity";
+import { ProgrammeStarter } from "../modules/starters/starters.entity";
 import { expected, roles, type MatrixRole } from "./role-matrix.expected";
 
 let t: TestApp;
@@ -44,14 +45,21 @@ afterAll(async () => {
 
 /** A job like the demo's: Rosa's, with the demo plasterer's booking sent — so each role relates to it the same way. */
 async function freshJob(): Promise<string> {
+  return (await freshProgramme()).jobId;
+}
+
+async function freshProgramme(): Promise<{ jobId: string; taskId: string; otherTaskId: string; thirdTaskId: string; linkId: string }> {
   const m = t.db.ds.manager;
   const workshop = await m.findOneByOrFail(Workshop, { id: ids.workshopId });
   const rosa = await m.findOneByOrFail(Customer, { id: ids.rosaId });
   const plasterer = await m.findOneByOrFail(Trade, { id: ids.plastererId });
   const job = await buildJob(m, workshop, rosa, { title: "Matrix job" });
+  const fix = await buildTask(m, job, { name: "Fix carcasses & scribes", party: "workshop", durationDays: 2 });
   const task = await buildTask(m, job, { name: "Template coving", party: "plasterer", durationDays: 0.5 });
+  const link = await buildLink(m, fix, task);
+  const doors = await buildTask(m, job, { name: "Hang doors", party: "workshop", durationDays: 1 });
   await buildBooking(m, task, plasterer, { state: "sent", start: "2027-02-01T08:00", finish: "2027-02-01T12:00" });
-  return job.id;
+  return { jobId: job.id, taskId: task.id, otherTaskId: fix.id, thirdTaskId: doors.id, linkId: link.id };
 }
 
 const unique = () => randomBytes(4).toString("hex");
@@ -75,6 +83,44 @@ const requests: Record<string, () => Promise<{ path: string; body?: object }>> =
   }),
   "PATCH /jobs/:jobId": async () => ({ path: `/api/jobs/${await freshJob()}`, body: { version: 1, title: "Renamed" } }),
   "DELETE /jobs/:jobId": async () => ({ path: `/api/jobs/${await freshJob()}` }),
+  "GET /jobs/:jobId/programme": async () => ({ path: `/api/jobs/${await freshJob()}/programme` }),
+  "POST /jobs/:jobId/tasks": async () => ({ path: `/api/jobs/${await freshJob()}/tasks`, body: { version: 1, name: "Fit plinths", party: "workshop", durationDays: 0.5 } }),
+  "PATCH /jobs/:jobId/tasks/:taskId": async () => {
+    const p = await freshProgramme();
+    return { path: `/api/jobs/${p.jobId}/tasks/${p.taskId}`, body: { version: 1, durationDays: 1 } };
+  },
+  "DELETE /jobs/:jobId/tasks/:taskId": async () => {
+    const p = await freshProgramme();
+    return { path: `/api/jobs/${p.jobId}/tasks/${p.otherTaskId}?version=1` };
+  },
+  "PUT /jobs/:jobId/tasks/order": async () => {
+    const p = await freshProgramme();
+    return { path: `/api/jobs/${p.jobId}/tasks/order`, body: { version: 1, taskIds: [p.thirdTaskId, p.taskId, p.otherTaskId] } };
+  },
+  "POST /jobs/:jobId/tasks/:taskId/progress": async () => {
+    const p = await freshProgramme();
+    return { path: `/api/jobs/${p.jobId}/tasks/${p.otherTaskId}/progress`, body: { version: 1, actualStart: "2027-01-25", actualFinish: null } };
+  },
+  "POST /jobs/:jobId/links": async () => {
+    const p = await freshProgramme();
+    return { path: `/api/jobs/${p.jobId}/links`, body: { version: 1, fromTaskId: p.otherTaskId, toTaskId: p.thirdTaskId, kind: "FS", lag: 0 } };
+  },
+  "PATCH /jobs/:jobId/links/:linkId": async () => {
+    const p = await freshProgramme();
+    return { path: `/api/jobs/${p.jobId}/links/${p.linkId}`, body: { version: 1, lag: 1 } };
+  },
+  "DELETE /jobs/:jobId/links/:linkId": async () => {
+    const p = await freshProgramme();
+    return { path: `/api/jobs/${p.jobId}/links/${p.linkId}?version=1` };
+  },
+  "POST /jobs/:jobId/programme/preview": async () => {
+    const p = await freshProgramme();
+    return { path: `/api/jobs/${p.jobId}/programme/preview`, body: { version: 1, changes: [{ taskId: p.otherTaskId, notEarlierThan: "2027-02-03" }] } };
+  },
+  "POST /jobs/:jobId/programme/apply": async () => {
+    const p = await freshProgramme();
+    return { path: `/api/jobs/${p.jobId}/programme/apply`, body: { version: 1, changes: [{ taskId: p.otherTaskId, notEarlierThan: "2027-02-03" }] } };
+  },
   "GET /workshops/:workshopId": async () => ({ path: `/api/workshops/${ids.workshopId}` }),
   "PATCH /workshops/:workshopId": async () => ({ path: `/api/workshops/${ids.workshopId}`, body: { town: "Wetherfold" } }),
   "GET /workshops/:workshopId/members": async () => ({ path: `/api/workshops/${ids.workshopId}/members` }),
@@ -93,6 +139,14 @@ const requests: Record<string, () => Promise<{ path: string; body?: object }>> =
     const workshop = await t.db.ds.manager.findOneByOrFail(Workshop, { id: ids.workshopId });
     const trade = await buildTrade(t.db.ds.manager, workshop, { kind: "other" });
     return { path: `/api/trades/${trade.id}` };
+  },
+  "GET /workshops/:workshopId/starters": async () => ({ path: `/api/workshops/${ids.workshopId}/starters` }),
+  "PUT /workshops/:workshopId/starters/:starterId": async () => {
+    const starter = await t.db.ds.manager.findOneByOrFail(ProgrammeStarter, { workshopId: ids.workshopId, name: "Bookcase wall" });
+    return {
+      path: `/api/workshops/${ids.workshopId}/starters/${starter.id}`,
+      body: { name: "Bookcase wall", tasks: starter.tasks, links: starter.links },
+    };
   },
   "GET /workshops/:workshopId/customers": async () => ({ path: `/api/workshops/${ids.workshopId}/customers` }),
   "POST /workshops/:workshopId/customers": async () => ({
@@ -119,7 +173,7 @@ describe("role matrix: every /api route for every role", () => {
       for (const role of roles) {
         const s = await sessionFor(role);
         const req = await requests[route]();
-        const call = s.agent[method.toLowerCase() as "get" | "post" | "patch" | "delete"](req.path).set("X-CSRF-Token", s.csrf);
+        const call = s.agent[method.toLowerCase() as "get" | "post" | "patch" | "put" | "delete"](req.path).set("X-CSRF-Token", s.csrf);
         const res = await (req.body ? call.send(req.body) : call);
         seen[role] = res.status;
         if (res.status >= 400) expect(res.body.error?.code, `${role} ${route} error body`).toBeTypeOf("string");

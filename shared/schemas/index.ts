@@ -6,3 +6,5 @@ export * from "./customers";
 export * from "./jobs";
 export * from "./health";
 export * from "./mail";
+export * from "./programme";
+export * from "./starters";

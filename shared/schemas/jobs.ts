@@ -30,6 +30,8 @@ export const createJobBodySchema = z.object({
   handoverDate: isoDateSchema.nullable().default(null),
   siteWeekdays: weekdaysSchema.default([1, 2, 3, 4, 5]),
   accessNotes: z.string().max(2000).default(""),
+  /** Start from one of the workshop's starting programmes. */
+  starterId: idSchema.optional(),
 });
 export type CreateJobBody = z.input<typeof createJobBodySchema>;
 

@@ -14,6 +14,7 @@ import {
   buildWorkshop,
   linkTradeUser,
 } from "./builders";
+import { addDefaultStarters } from "../../server/modules/starters/starters.service";
 
 export const DEMO_PASSWORD = "sitecue-demo";
 
@@ -53,6 +54,7 @@ export async function loadDemoScenario(ds: DataSource, today: string): Promise<v
     const fitter = await buildUser(m, { ...demoAccounts.fitter, password: DEMO_PASSWORD });
     await buildMember(m, workshop, owner, "owner");
     await buildMember(m, workshop, fitter, "fitter");
+    await addDefaultStarters(m, workshop.id);
 
     const plasterer = await buildTrade(m, workshop, {
       kind: "plasterer",

@@ -22,10 +22,12 @@ export interface AuthRouteOptions {
   windowMs: number;
 }
 
-function limiter(opts: AuthRouteOptions) {
+function limiter(opts: AuthRouteOptions, extra: { limit?: number; skipSuccessfulRequests?: boolean } = {}) {
   return rateLimit({
     windowMs: opts.windowMs,
-    limit: opts.signInLimit,
+    limit: extra.limit ?? opts.signInLimit,
+    // Only failed sign-ins count against an address, so an office behind one IP is not locked out.
+    skipSuccessfulRequests: extra.skipSuccessfulRequests ?? false,
     standardHeaders: "draft-8",
     legacyHeaders: false,
     handler: (_req, _res, next) =>
@@ -45,7 +47,9 @@ const authenticateLocal = (passport: Pick<Authenticator, "authenticate">, req: R
 
 /** Sign-in, sign-out, the session, password reset and set-password-by-link. */
 export function registerAuthRoutes(api: ApiRoutes, deps: AuthDeps, passport: Pick<Authenticator, "authenticate">, opts: AuthRouteOptions): void {
-  const attempts = limiter(opts);
+  const attempts = limiter(opts, { skipSuccessfulRequests: true });
+  // Link use and reset requests have their own budget, three times the sign-in one.
+  const links = limiter(opts, { limit: opts.signInLimit * 3 });
   const session = (req: Request) => ({ user: req.user?.user ?? null, csrfToken: csrfTokenFor(req) });
 
   api.add({
@@ -90,7 +94,7 @@ export function registerAuthRoutes(api: ApiRoutes, deps: AuthDeps, passport: Pic
     path: "/auth/password-reset",
     tag: "auth",
     summary: "E-mail a password-reset link (always answers 202, so accounts are not revealed)",
-    before: [attempts],
+    before: [links],
     body: passwordResetBodySchema,
     status: 202,
     response: z.object({ ok: z.literal(true) }),
@@ -105,7 +109,7 @@ export function registerAuthRoutes(api: ApiRoutes, deps: AuthDeps, passport: Pic
     path: "/auth/tokens/:token",
     tag: "auth",
     summary: "What an invitation or reset link is for",
-    before: [attempts],
+    before: [links],
     params: tokenParamsSchema,
     response: tokenInfoResponseSchema,
     handler: async ({ params }) => tokenInfo(deps.ds, params.token),
@@ -116,7 +120,7 @@ export function registerAuthRoutes(api: ApiRoutes, deps: AuthDeps, passport: Pic
     path: "/auth/set-password",
     tag: "auth",
     summary: "Use an invitation or reset link once: set the password and sign in",
-    before: [attempts],
+    before: [links],
     body: setPasswordBodySchema,
     response: sessionResponseSchema,
     handler: async ({ req, body }) => {

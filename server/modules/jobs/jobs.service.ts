@@ -1,5 +1,5 @@
 import { In, type DataSource } from "typeorm";
-import type { Actor, JobResource } from "../../policies";
+import type { Actor } from "../../policies";
 import { authorize, can, requireActor } from "../../policies";
 import { newId } from "../../db/columns";
 import { HttpError, notFound } from "../../http/errors";
@@ -10,25 +10,12 @@ import { Task, TaskLink } from "../programme/programme.entity";
 import { Trade } from "../trades/trades.entity";
 import { Workshop } from "../workshops/workshops.entity";
 import { Job } from "./jobs.entity";
+import { ACTIVE_STATES, jobResource } from "./job-access";
+import { applyStarter } from "../starters/starters.service";
 import { presentJobDetail, presentJobSummary, viewerRoleFor } from "./jobs.presenter";
-import type { BookingState, JobDetail, JobSummary } from "../../../shared/schemas";
+import type { JobDetail, JobSummary } from "../../../shared/schemas";
 import type { z } from "zod";
 import type { createJobBodySchema, updateJobBodySchema } from "../../../shared/schemas";
-
-/** Booking states in which the trade has been asked and the visit stands. */
-export const ACTIVE_STATES: BookingState[] = ["sent", "confirmed", "date-proposed", "needs-reconfirming"];
-
-/** The policy's view of a job: its workshop, customer and the trades booked on it. */
-export async function jobResource(ds: DataSource, job: Job): Promise<JobResource> {
-  const bookings = await ds.getRepository(Booking).find({ where: { jobId: job.id }, select: { tradeId: true, state: true } });
-  return {
-    kind: "job",
-    workshopId: job.workshopId,
-    customerId: job.customerId,
-    activeTradeIds: new Set(bookings.filter((b) => ACTIVE_STATES.includes(b.state)).map((b) => b.tradeId)),
-    confirmedTradeIds: new Set(bookings.filter((b) => b.state === "confirmed").map((b) => b.tradeId)),
-  };
-}
 
 async function loadJob(ds: DataSource, jobId: string): Promise<Job> {
   const job = await ds.getRepository(Job).findOneBy({ id: jobId });
@@ -118,8 +105,10 @@ export async function createJob(
   const customer = await ds.getRepository(Customer).findOneBy({ id: body.customerId, workshopId });
   if (!customer) throw new HttpError(422, "unprocessable", "That customer is not one of this workshop's.", { customerId: ["Choose one of the workshop's customers"] });
   const id = newId();
+  const { starterId, ...fields } = body;
   await ds.transaction(async (m) => {
-    await m.insert(Job, { id, workshopId, ...body, siteClosedDates: [], version: 1 });
+    await m.insert(Job, { id, workshopId, ...fields, siteClosedDates: [], version: 1 });
+    if (starterId) await applyStarter(m, await m.findOneByOrFail(Job, { id }), starterId);
     await audit(m, { workshopId, actorUserId: actor.userId, action: "job.created", entityType: "job", entityId: id, detail: { title: body.title } });
   });
   return getJob(ds, actor, id);

@@ -1,0 +1,183 @@
+import { z } from "zod";
+import { isoDateSchema, partySchema } from "./common";
+
+/** A date (that morning / that day's end) or a date-time on a slot boundary, local to the job. */
+export const slotInstantSchema = z
+  .string()
+  .regex(/^\d{4}-\d{2}-\d{2}(T([01]\d|2[0-3]):[0-5]\d)?$/, "Use a date like 2026-03-14, or 2026-03-14T12:00");
+
+export const hazardSchema = z.enum(["electrical", "height", "tall-unit"]);
+export const linkKindSchema = z.enum(["FS", "SS", "FF"]);
+export const lagUnitSchema = z.enum(["workingDays", "elapsedHours"]);
+
+const durationSchema = z
+  .number({ message: "Enter the duration in working days" })
+  .min(0, "A duration cannot be negative")
+  .max(250, "Keep a task under 250 working days")
+  .refine((d) => Number.isInteger(d * 2), "Use whole or half days (0.5 is one morning or afternoon)");
+
+const lagSchema = z.number({ message: "Enter the lag" }).min(-60).max(2000);
+
+export const versionSchema = z.number({ message: "The programme version is missing" }).int().min(1);
+
+export const taskFieldsSchema = z.object({
+  name: z.string().trim().min(1, "Give the task a name").max(160),
+  party: partySchema,
+  durationDays: durationSchema,
+  notEarlierThan: isoDateSchema.nullable().default(null),
+  customerNote: z.string().max(1000).default(""),
+  internalNote: z.string().max(2000).default(""),
+  hazards: z.array(hazardSchema).max(3).default([]),
+});
+
+export const createTaskBodySchema = taskFieldsSchema.extend({ version: versionSchema });
+export type CreateTaskBody = z.input<typeof createTaskBodySchema>;
+
+export const updateTaskBodySchema = taskFieldsSchema
+  .partial()
+  .extend({ version: versionSchema });
+
+export const versionQuerySchema = z.object({ version: z.coerce.number().int().min(1, "The programme version is missing") });
+
+export const reorderBodySchema = z.object({
+  version: versionSchema,
+  taskIds: z.array(z.uuid()).min(1),
+});
+
+/** A "waits for" link: `toTaskId` waits for `fromTaskId`. */
+export const linkFieldsSchema = z.object({
+  fromTaskId: z.uuid({ message: "Choose the task it waits for" }),
+  toTaskId: z.uuid({ message: "Choose the waiting task" }),
+  kind: linkKindSchema.default("FS"),
+  lag: lagSchema.default(0),
+  lagUnit: lagUnitSchema.default("workingDays"),
+});
+export const createLinkBodySchema = linkFieldsSchema
+  .extend({ version: versionSchema })
+  .refine((l) => l.fromTaskId !== l.toTaskId, { message: "A task cannot wait for itself", path: ["fromTaskId"] })
+  .refine((l) => l.lagUnit !== "workingDays" || Number.isInteger(l.lag * 2), {
+    message: "Working-day lags go in whole or half days",
+    path: ["lag"],
+  });
+export type CreateLinkBody = z.input<typeof createLinkBodySchema>;
+
+export const updateLinkBodySchema = z
+  .object({ version: versionSchema, kind: linkKindSchema.optional(), lag: lagSchema.optional(), lagUnit: lagUnitSchema.optional() })
+  .refine((l) => l.lag === undefined || l.lagUnit !== "workingDays" || Number.isInteger(l.lag * 2), {
+    message: "Working-day lags go in whole or half days",
+    path: ["lag"],
+  });
+
+export const progressBodySchema = z
+  .object({
+    version: versionSchema,
+    actualStart: slotInstantSchema.nullable(),
+    actualFinish: slotInstantSchema.nullable(),
+  })
+  .refine((b) => b.actualStart !== null || b.actualFinish === null, {
+    message: "A task is started before it is done",
+    path: ["actualStart"],
+  })
+  .refine((b) => !b.actualStart || !b.actualFinish || b.actualStart <= b.actualFinish, {
+    message: "It cannot finish before it starts",
+    path: ["actualFinish"],
+  });
+
+/** One proposed edit, previewed or applied: move a task (not earlier than) and/or change its duration. */
+export const programmeChangeSchema = z
+  .object({
+    taskId: z.uuid(),
+    notEarlierThan: isoDateSchema.nullable().optional(),
+    durationDays: durationSchema.optional(),
+  })
+  .refine((c) => c.notEarlierThan !== undefined || c.durationDays !== undefined, { message: "Say what changes" });
+export type ProgrammeChange = z.infer<typeof programmeChangeSchema>;
+
+export const changeBodySchema = z.object({
+  version: versionSchema,
+  changes: z.array(programmeChangeSchema).min(1).max(100),
+});
+export type ChangeBody = z.input<typeof changeBodySchema>;
+
+const taskResultSchema = z.object({
+  id: z.string(),
+  earlyStart: z.string(),
+  earlyFinish: z.string(),
+  lateStart: z.string(),
+  lateFinish: z.string(),
+  totalFloatDays: z.number(),
+  freeFloatDays: z.number(),
+  critical: z.boolean(),
+  plannedStart: z.string(),
+  plannedFinish: z.string(),
+  readiness: z.object({
+    state: z.enum(["done", "started", "clear", "waiting"]),
+    waitingOn: z.array(z.object({ task: z.string(), allowsFrom: z.string() })),
+  }),
+  problems: z.array(z.object({ code: z.enum(["booking-too-early", "non-working-day", "clash", "overdue", "handover-at-risk"]), message: z.string() })),
+});
+
+export const programmeResultSchema = z.object({
+  finish: z.string().nullable(),
+  handoverSlipDays: z.number().nullable(),
+  criticalPath: z.array(z.string()),
+  tasks: z.array(taskResultSchema),
+});
+
+export const programmeTaskSchema = z.object({
+  id: z.string(),
+  name: z.string(),
+  party: partySchema,
+  durationDays: z.number(),
+  sortOrder: z.number(),
+  notEarlierThan: z.string().nullable(),
+  actualStart: z.string().nullable(),
+  actualFinish: z.string().nullable(),
+  customerNote: z.string(),
+  internalNote: z.string(),
+  hazards: z.array(hazardSchema),
+  caution: z.string().nullable(),
+  booking: z
+    .object({ id: z.string(), tradeId: z.string(), tradeName: z.string(), state: z.string(), start: z.string(), finish: z.string() })
+    .nullable(),
+});
+export type ProgrammeTask = z.infer<typeof programmeTaskSchema>;
+
+export const programmeLinkSchema = z.object({
+  id: z.string(),
+  fromTaskId: z.string(),
+  toTaskId: z.string(),
+  kind: linkKindSchema,
+  lag: z.number(),
+  lagUnit: lagUnitSchema,
+});
+
+/** A job's programme: what is stored, the engine's input (for instant previews) and its result. */
+export const programmeResponseSchema = z.object({
+  jobId: z.string(),
+  version: z.number(),
+  dataDate: z.string(),
+  handover: z.string().nullable(),
+  timeZone: z.string(),
+  tasks: z.array(programmeTaskSchema),
+  links: z.array(programmeLinkSchema),
+  /** The exact engine input the server scheduled: the client re-runs the engine on it for what-ifs. */
+  input: z.record(z.string(), z.unknown()),
+  result: programmeResultSchema,
+});
+export type ProgrammeResponse = z.infer<typeof programmeResponseSchema>;
+
+const impactSchema = z.object({
+  moves: z.array(z.object({ task: z.string(), fromStart: z.string(), toStart: z.string(), fromFinish: z.string(), toFinish: z.string(), byDays: z.number() })),
+  reconfirm: z.array(z.object({ task: z.string(), bookedStart: z.string(), proposedStart: z.string(), reason: z.string() })),
+  handover: z.object({
+    finishBefore: z.string().nullable(),
+    finishAfter: z.string().nullable(),
+    slipDaysBefore: z.number().nullable(),
+    slipDaysAfter: z.number().nullable(),
+    changeDays: z.number(),
+  }),
+});
+
+export const previewResponseSchema = z.object({ impact: impactSchema, result: programmeResultSchema });
+export const applyResponseSchema = z.object({ impact: impactSchema, programme: programmeResponseSchema });
