@@ -1,4 +1,4 @@
-import { defineConfig } from 'vitest/config';
+import { defineConfig } from "vitest/config";
 
 // Three projects so each side runs with its own environment and setup.
 export default defineConfig({
@@ -6,18 +6,18 @@ export default defineConfig({
     projects: [
       {
         test: {
-          name: 'shared',
-          include: ['shared/**/*.test.ts', 'tests/lint/*.test.ts'],
+          name: "shared",
+          include: ["shared/**/*.test.ts", "tests/lint/*.test.ts"],
           testTimeout: 60000,
-          environment: 'node',
+          environment: "node",
         },
       },
       {
         test: {
-          name: 'server',
-          include: ['server/**/*.test.ts'],
-          environment: 'node',
-          setupFiles: ['tests/setup/server-setup.ts'],
+          name: "server",
+          include: ["server/**/*.test.ts"],
+          environment: "node",
+          setupFiles: ["tests/setup/server-setup.ts"],
           fileParallelism: true,
           testTimeout: 30000,
           hookTimeout: 60000,
@@ -25,9 +25,9 @@ export default defineConfig({
       },
       {
         test: {
-          name: 'e2e',
-          include: ['tests/e2e/**/*.test.ts'],
-          environment: 'node',
+          name: "e2e",
+          include: ["tests/e2e/**/*.test.ts"],
+          environment: "node",
           fileParallelism: false,
           testTimeout: 90000,
           hookTimeout: 120000,

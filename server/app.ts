@@ -62,8 +62,12 @@ export function createApp(deps: AppDeps): SitecueApp {
           "default-src": ["'self'"],
           // Production serves only bundled files. Vite's dev client injects an inline preamble
           // and talks over a websocket, so development relaxes exactly those two.
-          "script-src": deps.devClient ? ["'self'", "'unsafe-inline'"] : ["'self'"],
-          "style-src": deps.devClient ? ["'self'", "'unsafe-inline'"] : ["'self'"],
+          "script-src": deps.devClient
+            ? ["'self'", "'unsafe-inline'"]
+            : ["'self'"],
+          "style-src": deps.devClient
+            ? ["'self'", "'unsafe-inline'"]
+            : ["'self'"],
           "connect-src": deps.devClient ? ["'self'", "ws:"] : ["'self'"],
           "img-src": ["'self'", "data:", "blob:"],
           "font-src": ["'self'", "data:"],
@@ -93,11 +97,18 @@ export function createApp(deps: AppDeps): SitecueApp {
   // One Passport per app (not the module singleton), so two apps in one process never share strategies.
   const passport = new Passport();
   passport.use(
-    new LocalStrategy({ usernameField: "email", passwordField: "password" }, (email, password, done) => {
-      checkCredentials(deps.ds, email, password)
-        .then(async (userId) => (userId ? done(null, (await loadSessionUser(deps.ds, userId)) ?? false) : done(null, false)))
-        .catch(done);
-    }),
+    new LocalStrategy(
+      { usernameField: "email", passwordField: "password" },
+      (email, password, done) => {
+        checkCredentials(deps.ds, email, password)
+          .then(async (userId) =>
+            userId
+              ? done(null, (await loadSessionUser(deps.ds, userId)) ?? false)
+              : done(null, false),
+          )
+          .catch(done);
+      },
+    ),
   );
   passport.serializeUser((u, done) => done(null, (u as Express.User).user.id));
   passport.deserializeUser((id: string, done) => {
@@ -138,7 +149,12 @@ export function createApp(deps: AppDeps): SitecueApp {
       resave: false,
       saveUninitialized: false,
       rolling: true,
-      cookie: { httpOnly: true, sameSite: "lax", secure: deps.production, maxAge: 14 * 24 * 3600 * 1000 },
+      cookie: {
+        httpOnly: true,
+        sameSite: "lax",
+        secure: deps.production,
+        maxAge: 14 * 24 * 3600 * 1000,
+      },
     }),
     passport.initialize(),
     passport.session(),

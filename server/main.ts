@@ -13,19 +13,48 @@ const log = (msg: string) => console.log(`[sitecue] ${msg}`);
 async function main() {
   const env = loadEnv();
   const production = env.NODE_ENV === "production";
-  const db = { host: env.DB_HOST, port: env.DB_PORT, user: env.DB_USER, password: env.DB_PASSWORD, database: env.DB_NAME };
+  const db = {
+    host: env.DB_HOST,
+    port: env.DB_PORT,
+    user: env.DB_USER,
+    password: env.DB_PASSWORD,
+    database: env.DB_NAME,
+  };
   const ds = createDataSource(db);
   await ds.initialize();
   const ran = await migrate(ds);
-  log(ran.length ? `Migrated: ${ran.join(", ")}` : "Database schema is up to date");
+  log(
+    ran.length
+      ? `Migrated: ${ran.join(", ")}`
+      : "Database schema is up to date",
+  );
 
   let mailbox: SmtpFake | null = null;
-  let smtp = { host: env.SMTP_HOST, port: env.SMTP_PORT, secure: env.SMTP_SECURE === "1", user: env.SMTP_USER, password: env.SMTP_PASSWORD, from: env.MAIL_FROM };
+  let smtp = {
+    host: env.SMTP_HOST,
+    port: env.SMTP_PORT,
+    secure: env.SMTP_SECURE === "1",
+    user: env.SMTP_USER,
+    password: env.SMTP_PASSWORD,
+    from: env.MAIL_FROM,
+  };
   if (env.SMTP_FAKE === "1") {
-    if (production) throw new Error("SMTP_FAKE=1 is for development only; set SMTP_HOST and friends in production.");
+    if (production)
+      throw new Error(
+        "SMTP_FAKE=1 is for development only; set SMTP_HOST and friends in production.",
+      );
     mailbox = await startSmtpFake({ dir: env.SITECUE_MAIL_DIR });
-    smtp = { ...smtp, host: "127.0.0.1", port: mailbox.port, secure: false, user: undefined, password: undefined };
-    log(`Local SMTP fake listening on 127.0.0.1:${mailbox.port} (mailbox at /dev/mail)`);
+    smtp = {
+      ...smtp,
+      host: "127.0.0.1",
+      port: mailbox.port,
+      secure: false,
+      user: undefined,
+      password: undefined,
+    };
+    log(
+      `Local SMTP fake listening on 127.0.0.1:${mailbox.port} (mailbox at /dev/mail)`,
+    );
   }
   const mailer = createMailer(smtp);
 
@@ -47,9 +76,17 @@ async function main() {
     trustProxy: env.TRUST_PROXY === "1",
   });
   const server = http.createServer(sitecue.app);
-  const closeClient = await mountClient(sitecue.app, production ? "static" : "vite", server);
-  await new Promise<void>((resolve) => server.listen(env.PORT, "127.0.0.1", resolve));
-  const took = env.SITECUE_BOOT_STARTED ? ` (${((Date.now() - env.SITECUE_BOOT_STARTED) / 1000).toFixed(1)} s after npm start)` : "";
+  const closeClient = await mountClient(
+    sitecue.app,
+    production ? "static" : "vite",
+    server,
+  );
+  await new Promise<void>((resolve) =>
+    server.listen(env.PORT, "127.0.0.1", resolve),
+  );
+  const took = env.SITECUE_BOOT_STARTED
+    ? ` (${((Date.now() - env.SITECUE_BOOT_STARTED) / 1000).toFixed(1)} s after npm start)`
+    : "";
   log(`Sitecue is ready at ${appUrl}${took}`);
 
   let closing = false;
@@ -71,6 +108,8 @@ async function main() {
 }
 
 main().catch((err) => {
-  console.error(`[sitecue] ${err instanceof Error ? err.message : String(err)}`);
+  console.error(
+    `[sitecue] ${err instanceof Error ? err.message : String(err)}`,
+  );
   process.exit(1);
 });

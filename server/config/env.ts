@@ -3,7 +3,9 @@ import { z } from "zod";
 // The environment is read once, through this schema, and start-up fails with the names that are
 // wrong (style.md: "Environment read once").
 const envSchema = z.object({
-  NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
+  NODE_ENV: z
+    .enum(["development", "production", "test"])
+    .default("development"),
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
   APP_URL: z.url().optional(),
   DB_HOST: z.string().default("127.0.0.1"),
@@ -11,7 +13,9 @@ const envSchema = z.object({
   DB_NAME: z.string().default("sitecue"),
   DB_USER: z.string().default("sitecue"),
   DB_PASSWORD: z.string().default(""),
-  SESSION_SECRET: z.string().min(16, "SESSION_SECRET must be at least 16 characters"),
+  SESSION_SECRET: z
+    .string()
+    .min(16, "SESSION_SECRET must be at least 16 characters"),
   SMTP_FAKE: z.enum(["0", "1"]).default("0"),
   SMTP_HOST: z.string().default("127.0.0.1"),
   SMTP_PORT: z.coerce.number().int().default(2525),
@@ -30,8 +34,12 @@ export type Env = z.infer<typeof envSchema>;
 export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
   const parsed = envSchema.safeParse(source);
   if (!parsed.success) {
-    const lines = parsed.error.issues.map((i) => `  ${i.path.join(".")}: ${i.message}`);
-    throw new Error(`Sitecue cannot start; fix these environment variables:\n${lines.join("\n")}`);
+    const lines = parsed.error.issues.map(
+      (i) => `  ${i.path.join(".")}: ${i.message}`,
+    );
+    throw new Error(
+      `Sitecue cannot start; fix these environment variables:\n${lines.join("\n")}`,
+    );
   }
   return parsed.data;
 }

@@ -1,5 +1,8 @@
 import { User } from "../modules/users/users.entity";
-import { Workshop, WorkshopMember } from "../modules/workshops/workshops.entity";
+import {
+  Workshop,
+  WorkshopMember,
+} from "../modules/workshops/workshops.entity";
 import { Trade, TradeMember } from "../modules/trades/trades.entity";
 import { Customer } from "../modules/customers/customers.entity";
 import { Job } from "../modules/jobs/jobs.entity";

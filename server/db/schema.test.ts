@@ -1,7 +1,11 @@
 import mysql from "mysql2/promise";
 import { afterAll, beforeAll, expect, it } from "vitest";
 import { createDataSource } from "./data-source";
-import { adminSettings, createTestDatabase, type TestDatabase } from "../../tests/setup/test-db";
+import {
+  adminSettings,
+  createTestDatabase,
+  type TestDatabase,
+} from "../../tests/setup/test-db";
 
 let migrated: TestDatabase;
 let synced: TestDatabase;
@@ -10,7 +14,8 @@ beforeAll(async () => {
   migrated = await createTestDatabase();
   // A second database built by TypeORM's synchronize straight from the entities (tests only).
   synced = await createTestDatabase();
-  for (let i = 0; i < synced.ds.migrations.length; i++) await synced.ds.undoLastMigration({ transaction: "each" });
+  for (let i = 0; i < synced.ds.migrations.length; i++)
+    await synced.ds.undoLastMigration({ transaction: "each" });
   await synced.ds.query("DROP TABLE IF EXISTS `migrations`");
   await synced.ds.synchronize();
 }, 60_000);
@@ -21,7 +26,10 @@ afterAll(async () => {
 
 /** Columns, indexes and foreign keys of a database, as information_schema reports them. */
 async function describe(database: string) {
-  const conn = await mysql.createConnection({ ...adminSettings(), database: "information_schema" });
+  const conn = await mysql.createConnection({
+    ...adminSettings(),
+    database: "information_schema",
+  });
   try {
     const [columns] = await conn.query(
       "SELECT TABLE_NAME t, COLUMN_NAME c, COLUMN_TYPE type, IS_NULLABLE n, COLUMN_DEFAULT d, EXTRA e FROM COLUMNS WHERE TABLE_SCHEMA = ? AND TABLE_NAME NOT IN ('migrations','sessions') ORDER BY t, c",
@@ -36,7 +44,14 @@ async function describe(database: string) {
       [database],
     );
     // Index names made up by TypeORM for FKs differ by nothing but name; compare by columns.
-    return { columns, indexes: (indexes as { i: string }[]).map(({ i, ...rest }) => ({ ...rest, named: i.startsWith("FK_") || i.startsWith("IDX_") ? "(generated)" : i })), fks };
+    return {
+      columns,
+      indexes: (indexes as { i: string }[]).map(({ i, ...rest }) => ({
+        ...rest,
+        named: i.startsWith("FK_") || i.startsWith("IDX_") ? "(generated)" : i,
+      })),
+      fks,
+    };
   } finally {
     await conn.end();
   }
@@ -55,9 +70,12 @@ it("undoing and redoing the migrations works", async () => {
   const ds = createDataSource(migrated.settings);
   await ds.initialize();
   try {
-    for (let i = 0; i < ds.migrations.length; i++) await ds.undoLastMigration({ transaction: "each" });
+    for (let i = 0; i < ds.migrations.length; i++)
+      await ds.undoLastMigration({ transaction: "each" });
     const tables = await ds.query("SHOW TABLES");
-    expect(tables.map((r: Record<string, string>) => Object.values(r)[0])).toEqual(["migrations"]);
+    expect(
+      tables.map((r: Record<string, string>) => Object.values(r)[0]),
+    ).toEqual(["migrations"]);
     await ds.runMigrations({ transaction: "each" });
     const after = await ds.query("SHOW TABLES");
     expect(after.length).toBe(15);

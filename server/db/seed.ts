@@ -4,8 +4,14 @@ import { loadDemoScenario } from "../../tests/factories/demo-scenario";
 import { localToday } from "../modules/jobs/jobs.presenter";
 
 /** Loads the invented demo scenario when the database holds no workshop yet. Refuses in production. */
-export async function seedDemoIfEmpty(ds: DataSource, opts: { production: boolean }): Promise<boolean> {
-  if (opts.production) throw new Error("The demo scenario is for development only and will not load in production.");
+export async function seedDemoIfEmpty(
+  ds: DataSource,
+  opts: { production: boolean },
+): Promise<boolean> {
+  if (opts.production)
+    throw new Error(
+      "The demo scenario is for development only and will not load in production.",
+    );
   if ((await ds.getRepository(Workshop).count()) > 0) return false;
   await loadDemoScenario(ds, localToday("Europe/London"));
   return true;

@@ -6,13 +6,20 @@ import express, { type Express } from "express";
 const root = path.resolve(import.meta.dirname, "../..");
 
 /** Serves the React client: Vite middleware in development, the built files in production. */
-export async function mountClient(app: Express, mode: "vite" | "static", httpServer?: Server): Promise<() => Promise<void>> {
+export async function mountClient(
+  app: Express,
+  mode: "vite" | "static",
+  httpServer?: Server,
+): Promise<() => Promise<void>> {
   if (mode === "vite") {
     const { createServer } = await import("vite");
     const vite = await createServer({
       root,
       configFile: path.join(root, "vite.config.ts"),
-      server: { middlewareMode: true, hmr: httpServer ? { server: httpServer } : false },
+      server: {
+        middlewareMode: true,
+        hmr: httpServer ? { server: httpServer } : false,
+      },
       appType: "spa",
     });
     app.use(vite.middlewares);
@@ -20,8 +27,18 @@ export async function mountClient(app: Express, mode: "vite" | "static", httpSer
   }
   const dist = path.join(root, "dist", "client");
   const index = path.join(dist, "index.html");
-  if (!fs.existsSync(index)) throw new Error(`The built client is missing (${index}); run "npx vite build" first.`);
-  app.use("/assets", express.static(path.join(dist, "assets"), { immutable: true, maxAge: "1y", index: false }));
+  if (!fs.existsSync(index))
+    throw new Error(
+      `The built client is missing (${index}); run "npx vite build" first.`,
+    );
+  app.use(
+    "/assets",
+    express.static(path.join(dist, "assets"), {
+      immutable: true,
+      maxAge: "1y",
+      index: false,
+    }),
+  );
   app.use(express.static(dist, { index: false }));
   app.get("/{*splat}", (_req, res) => {
     res.setHeader("Cache-Control", "no-cache");

@@ -29,10 +29,12 @@ export class HttpError extends Error {
   }
 }
 
-export const notFound = (what = "That record") => new HttpError(404, "not-found", `${what} was not found.`);
+export const notFound = (what = "That record") =>
+  new HttpError(404, "not-found", `${what} was not found.`);
 export const forbidden = (message = "You do not have permission to do that.") =>
   new HttpError(403, "forbidden", message);
-export const unauthenticated = () => new HttpError(401, "unauthenticated", "Please sign in first.");
+export const unauthenticated = () =>
+  new HttpError(401, "unauthenticated", "Please sign in first.");
 
 /** Turns zod issues into a field → messages map (path joined with dots; "" for the whole body). */
 export function zodFields(err: ZodError): Record<string, string[]> {
@@ -45,7 +47,13 @@ export function zodFields(err: ZodError): Record<string, string[]> {
 }
 
 export const notFoundRoute: RequestHandler = (req, _res, next) => {
-  next(new HttpError(404, "not-found", `No API route for ${req.method} ${req.path}.`));
+  next(
+    new HttpError(
+      404,
+      "not-found",
+      `No API route for ${req.method} ${req.path}.`,
+    ),
+  );
 };
 
 /** The one error handler: known errors keep their status; anything else is a 500 without a stack. */
@@ -53,28 +61,74 @@ export function errorHandler(log: (err: unknown) => void): ErrorRequestHandler {
   return (err, _req, res, _next) => {
     if (res.headersSent) return;
     if (err instanceof HttpError) {
-      res.status(err.status).json({ error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}) } });
+      res
+        .status(err.status)
+        .json({
+          error: {
+            code: err.code,
+            message: err.message,
+            ...(err.fields ? { fields: err.fields } : {}),
+          },
+        });
       return;
     }
     if (err instanceof ZodError) {
-      res.status(400).json({ error: { code: "validation", message: "Some fields need attention.", fields: zodFields(err) } });
+      res
+        .status(400)
+        .json({
+          error: {
+            code: "validation",
+            message: "Some fields need attention.",
+            fields: zodFields(err),
+          },
+        });
       return;
     }
     // body-parser / multer errors carry a status and a type.
-    const e = err as { status?: number; type?: string; code?: string; message?: string };
+    const e = err as {
+      status?: number;
+      type?: string;
+      code?: string;
+      message?: string;
+    };
     if (e?.type === "entity.too.large" || e?.code === "LIMIT_FILE_SIZE") {
-      res.status(413).json({ error: { code: "too-large", message: "That request is too large." } });
+      res
+        .status(413)
+        .json({
+          error: { code: "too-large", message: "That request is too large." },
+        });
       return;
     }
     if (e?.type === "entity.parse.failed") {
-      res.status(400).json({ error: { code: "validation", message: "The request body is not valid JSON." } });
+      res
+        .status(400)
+        .json({
+          error: {
+            code: "validation",
+            message: "The request body is not valid JSON.",
+          },
+        });
       return;
     }
     if (typeof e?.status === "number" && e.status >= 400 && e.status < 500) {
-      res.status(e.status).json({ error: { code: "validation", message: "The request could not be read." } });
+      res
+        .status(e.status)
+        .json({
+          error: {
+            code: "validation",
+            message: "The request could not be read.",
+          },
+        });
       return;
     }
     log(err);
-    res.status(500).json({ error: { code: "internal", message: "Something went wrong on our side. Please try again." } });
+    res
+      .status(500)
+      .json({
+        error: {
+          code: "internal",
+          message: "Something went wrong on our side. Please try again.",
+        },
+      });
   };
 }

@@ -6,7 +6,10 @@ import type { RouteSpec } from "./routes";
 /** OpenAPI 3.1 built from the same route records and zod schemas the API validates with. */
 export function openApiDocument(specs: RouteSpec[], version: string) {
   const paths: ZodOpenApiPathsObject = {};
-  const error = { description: "Error", content: { "application/json": { schema: apiErrorSchema } } };
+  const error = {
+    description: "Error",
+    content: { "application/json": { schema: apiErrorSchema } },
+  };
   for (const spec of specs) {
     const path = "/api" + spec.path.replace(/:(\w+)/g, "{$1}");
     const status = String(spec.status ?? 200);
@@ -18,12 +21,21 @@ export function openApiDocument(specs: RouteSpec[], version: string) {
         ...(spec.params ? { path: spec.params as z.ZodObject } : {}),
         ...(spec.query ? { query: spec.query as z.ZodObject } : {}),
       },
-      ...(spec.body ? { requestBody: { content: { "application/json": { schema: spec.body } } } } : {}),
+      ...(spec.body
+        ? {
+            requestBody: {
+              content: { "application/json": { schema: spec.body } },
+            },
+          }
+        : {}),
       responses: {
         [status]:
           status === "204" || !spec.response
             ? { description: "Done" }
-            : { description: "OK", content: { "application/json": { schema: spec.response } } },
+            : {
+                description: "OK",
+                content: { "application/json": { schema: spec.response } },
+              },
         "4XX": error,
       },
     };

@@ -1,4 +1,9 @@
-import { Router, type Request, type RequestHandler, type Response } from "express";
+import {
+  Router,
+  type Request,
+  type RequestHandler,
+  type Response,
+} from "express";
 import type { z } from "zod";
 import type { Actor } from "../policies";
 import { parse } from "./validate";
@@ -33,7 +38,9 @@ export interface RouteSpec<
   before?: RequestHandler[];
   /** Success status; 204 sends no body. */
   status?: number;
-  handler: (ctx: RouteContext<z.output<P>, z.output<Q>, z.output<B>>) => Promise<unknown>;
+  handler: (
+    ctx: RouteContext<z.output<P>, z.output<Q>, z.output<B>>,
+  ) => Promise<unknown>;
 }
 
 /**
@@ -45,18 +52,32 @@ export class ApiRoutes {
   readonly specs: RouteSpec[] = [];
   readonly router = Router();
 
-  add<P extends z.ZodType, Q extends z.ZodType, B extends z.ZodType>(spec: RouteSpec<P, Q, B>): void {
+  add<P extends z.ZodType, Q extends z.ZodType, B extends z.ZodType>(
+    spec: RouteSpec<P, Q, B>,
+  ): void {
     this.specs.push(spec as unknown as RouteSpec);
-    this.router[spec.method](spec.path, ...(spec.before ?? []), async (req: Request, res: Response) => {
-      const params = spec.params ? parse(spec.params, req, "params") : {};
-      const query = spec.query ? parse(spec.query, req, "query") : {};
-      const body = spec.body ? parse(spec.body, req, "body") : {};
-      const actor = req.user?.actor ?? null;
-      const result = await spec.handler({ req, res, actor, params, query, body } as never);
-      if (res.headersSent) return;
-      const status = spec.status ?? 200;
-      if (status === 204 || result === undefined) res.status(status === 200 ? 204 : status).end();
-      else res.status(status).json(result);
-    });
+    this.router[spec.method](
+      spec.path,
+      ...(spec.before ?? []),
+      async (req: Request, res: Response) => {
+        const params = spec.params ? parse(spec.params, req, "params") : {};
+        const query = spec.query ? parse(spec.query, req, "query") : {};
+        const body = spec.body ? parse(spec.body, req, "body") : {};
+        const actor = req.user?.actor ?? null;
+        const result = await spec.handler({
+          req,
+          res,
+          actor,
+          params,
+          query,
+          body,
+        } as never);
+        if (res.headersSent) return;
+        const status = spec.status ?? 200;
+        if (status === 204 || result === undefined)
+          res.status(status === 200 ? 204 : status).end();
+        else res.status(status).json(result);
+      },
+    );
   }
 }

@@ -10,7 +10,10 @@ import net from "node:net";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 
-const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../..");
+const root = path.resolve(
+  path.dirname(fileURLToPath(import.meta.url)),
+  "../..",
+);
 const mode = process.argv[2];
 const extraArgs = process.argv.slice(3);
 if (mode !== "start" && mode !== "test") {
@@ -31,12 +34,18 @@ function fail(msg) {
 }
 
 function has(cmd) {
-  return spawnSync("sh", ["-c", `command -v ${cmd}`], { stdio: "ignore" }).status === 0;
+  return (
+    spawnSync("sh", ["-c", `command -v ${cmd}`], { stdio: "ignore" }).status ===
+    0
+  );
 }
 
 function run(cmd, args, opts = {}) {
   const r = spawnSync(cmd, args, { stdio: "inherit", cwd: root, ...opts });
-  if (r.status !== 0) throw new Error(`${cmd} ${args.join(" ")} exited with ${r.status ?? r.signal}`);
+  if (r.status !== 0)
+    throw new Error(
+      `${cmd} ${args.join(" ")} exited with ${r.status ?? r.signal}`,
+    );
 }
 
 /** npm ci when node_modules is missing or was installed from another package-lock.json. */
@@ -44,9 +53,19 @@ function ensureNodeModules() {
   const lock = path.join(root, "package-lock.json");
   const stamp = path.join(root, "node_modules", ".sitecue-lock-hash");
   const hash = createHash("sha256").update(fs.readFileSync(lock)).digest("hex");
-  const current = fs.existsSync(stamp) ? fs.readFileSync(stamp, "utf8").trim() : null;
-  if (current === hash && fs.existsSync(path.join(root, "node_modules", ".bin", "vitest"))) return;
-  say(current ? "package-lock.json changed: running npm ci" : "Installing packages (npm ci)");
+  const current = fs.existsSync(stamp)
+    ? fs.readFileSync(stamp, "utf8").trim()
+    : null;
+  if (
+    current === hash &&
+    fs.existsSync(path.join(root, "node_modules", ".bin", "vitest"))
+  )
+    return;
+  say(
+    current
+      ? "package-lock.json changed: running npm ci"
+      : "Installing packages (npm ci)",
+  );
   run("npm", ["ci", "--no-audit", "--no-fund"]);
   fs.writeFileSync(stamp, hash + "\n");
 }
@@ -56,10 +75,14 @@ function ensureDebian(pkg, program) {
   if (has(program)) return;
   const cmd = `apt-get update && apt-get install -y ${pkg}`;
   if (process.getuid?.() !== 0) {
-    throw new Error(`${program} is missing. Install it with:\n  sudo sh -c '${cmd}'`);
+    throw new Error(
+      `${program} is missing. Install it with:\n  sudo sh -c '${cmd}'`,
+    );
   }
   say(`${program} is missing: installing Debian's ${pkg}`);
-  run("sh", ["-c", `DEBIAN_FRONTEND=noninteractive ${cmd}`], { stdio: ["ignore", "inherit", "inherit"] });
+  run("sh", ["-c", `DEBIAN_FRONTEND=noninteractive ${cmd}`], {
+    stdio: ["ignore", "inherit", "inherit"],
+  });
 }
 
 function portFree(port) {
@@ -71,17 +94,25 @@ function portFree(port) {
 }
 
 async function freePort(preferred) {
-  for (let p = preferred; p < preferred + 50; p++) if (await portFree(p)) return p;
+  for (let p = preferred; p < preferred + 50; p++)
+    if (await portFree(p)) return p;
   throw new Error(`No free port near ${preferred}`);
 }
 
 function sql(dir, statements) {
   const r = spawnSync(
     "mariadb",
-    ["--no-defaults", `--socket=${path.join(dir, "mysqld.sock")}`, "-uroot", "-e", statements],
+    [
+      "--no-defaults",
+      `--socket=${path.join(dir, "mysqld.sock")}`,
+      "-uroot",
+      "-e",
+      statements,
+    ],
     { encoding: "utf8" },
   );
-  if (r.status !== 0) throw new Error(`MariaDB refused set-up SQL: ${r.stderr.trim()}`);
+  if (r.status !== 0)
+    throw new Error(`MariaDB refused set-up SQL: ${r.stderr.trim()}`);
 }
 
 /** Starts a private mariadbd on 127.0.0.1 with its data under `dir`; resolves when it answers. */
@@ -89,51 +120,79 @@ async function startMariaDB(dir, port) {
   const dataDir = path.join(dir, "db");
   fs.mkdirSync(dir, { recursive: true });
   if (!fs.existsSync(path.join(dataDir, "mysql"))) {
-    say(`Initialising a MariaDB data folder in ${path.relative(root, dataDir)}`);
+    say(
+      `Initialising a MariaDB data folder in ${path.relative(root, dataDir)}`,
+    );
     fs.mkdirSync(dataDir, { recursive: true });
-    run("mariadb-install-db", [
-      "--no-defaults",
-      "--user=root",
-      "--auth-root-authentication-method=normal",
-      "--skip-test-db",
-      `--datadir=${dataDir}`,
-    ], { stdio: ["ignore", "ignore", "inherit"] });
+    run(
+      "mariadb-install-db",
+      [
+        "--no-defaults",
+        "--user=root",
+        "--auth-root-authentication-method=normal",
+        "--skip-test-db",
+        `--datadir=${dataDir}`,
+      ],
+      { stdio: ["ignore", "ignore", "inherit"] },
+    );
   }
   const socket = path.join(dir, "mysqld.sock");
   const pidFile = path.join(dir, "mysqld.pid");
   if (fs.existsSync(pidFile)) {
     const pid = Number(fs.readFileSync(pidFile, "utf8"));
     let alive = false;
-    try { process.kill(pid, 0); alive = true; } catch { /* stale pid file */ }
-    if (alive) throw new Error(`A MariaDB for ${path.relative(root, dir)} is already running (pid ${pid}). Is another Sitecue running? Stop it first.`);
+    try {
+      process.kill(pid, 0);
+      alive = true;
+    } catch {
+      /* stale pid file */
+    }
+    if (alive)
+      throw new Error(
+        `A MariaDB for ${path.relative(root, dir)} is already running (pid ${pid}). Is another Sitecue running? Stop it first.`,
+      );
     fs.rmSync(pidFile, { force: true });
   }
   fs.rmSync(socket, { force: true });
   say(`Starting MariaDB on 127.0.0.1:${port}`);
-  const child = spawn("mariadbd", [
-    "--no-defaults",
-    "--user=root",
-    `--datadir=${dataDir}`,
-    `--port=${port}`,
-    "--bind-address=127.0.0.1",
-    `--socket=${socket}`,
-    `--pid-file=${pidFile}`,
-    `--log-error=${path.join(dir, "mariadb.log")}`,
-    "--skip-name-resolve",
-    "--character-set-server=utf8mb4",
-    "--collation-server=utf8mb4_unicode_ci",
-    "--innodb-buffer-pool-size=128M",
-    "--innodb-flush-log-at-trx-commit=2",
-    "--max-connections=500",
-  ], { stdio: "ignore", detached: true });
+  const child = spawn(
+    "mariadbd",
+    [
+      "--no-defaults",
+      "--user=root",
+      `--datadir=${dataDir}`,
+      `--port=${port}`,
+      "--bind-address=127.0.0.1",
+      `--socket=${socket}`,
+      `--pid-file=${pidFile}`,
+      `--log-error=${path.join(dir, "mariadb.log")}`,
+      "--skip-name-resolve",
+      "--character-set-server=utf8mb4",
+      "--collation-server=utf8mb4_unicode_ci",
+      "--innodb-buffer-pool-size=128M",
+      "--innodb-flush-log-at-trx-commit=2",
+      "--max-connections=500",
+    ],
+    { stdio: "ignore", detached: true },
+  );
   children.add(child);
   child.on("exit", () => children.delete(child));
   const deadline = Date.now() + 30000;
   for (;;) {
-    const r = spawnSync("mariadb-admin", ["--no-defaults", `--socket=${socket}`, "-uroot", "ping"], { stdio: "ignore" });
+    const r = spawnSync(
+      "mariadb-admin",
+      ["--no-defaults", `--socket=${socket}`, "-uroot", "ping"],
+      { stdio: "ignore" },
+    );
     if (r.status === 0) break;
-    if (child.exitCode !== null) throw new Error(`MariaDB stopped at start-up; see ${path.join(dir, "mariadb.log")}`);
-    if (Date.now() > deadline) throw new Error(`MariaDB did not answer within 30 s; see ${path.join(dir, "mariadb.log")}`);
+    if (child.exitCode !== null)
+      throw new Error(
+        `MariaDB stopped at start-up; see ${path.join(dir, "mariadb.log")}`,
+      );
+    if (Date.now() > deadline)
+      throw new Error(
+        `MariaDB did not answer within 30 s; see ${path.join(dir, "mariadb.log")}`,
+      );
     await new Promise((r) => setTimeout(r, 100));
   }
   return child;
@@ -153,8 +212,23 @@ function credentials(dir) {
 async function stopChild(child, name, signal = "SIGTERM", ms = 15000) {
   if (child.exitCode !== null || child.signalCode !== null) return;
   const done = new Promise((r) => child.once("exit", r));
-  try { process.kill(-child.pid, signal); } catch { try { child.kill(signal); } catch { /* gone */ } }
-  const timer = setTimeout(() => { say(`${name} did not stop in time; killing it`); try { process.kill(-child.pid, "SIGKILL"); } catch { /* gone */ } }, ms);
+  try {
+    process.kill(-child.pid, signal);
+  } catch {
+    try {
+      child.kill(signal);
+    } catch {
+      /* gone */
+    }
+  }
+  const timer = setTimeout(() => {
+    say(`${name} did not stop in time; killing it`);
+    try {
+      process.kill(-child.pid, "SIGKILL");
+    } catch {
+      /* gone */
+    }
+  }, ms);
   await done;
   clearTimeout(timer);
 }
@@ -164,12 +238,20 @@ let app = null;
 async function stopAll() {
   if (stopping) return;
   stopping = true;
-  if (app) { say("Stopping the app"); await stopChild(app, "The app"); }
-  if (mariadb) { say("Stopping MariaDB"); await stopChild(mariadb, "MariaDB", "SIGTERM", 30000); }
+  if (app) {
+    say("Stopping the app");
+    await stopChild(app, "The app");
+  }
+  if (mariadb) {
+    say("Stopping MariaDB");
+    await stopChild(mariadb, "MariaDB", "SIGTERM", 30000);
+  }
 }
 
 for (const sig of ["SIGINT", "SIGTERM", "SIGHUP"]) {
-  process.on(sig, () => { stopAll().then(() => process.exit(process.exitCode ?? 0)); });
+  process.on(sig, () => {
+    stopAll().then(() => process.exit(process.exitCode ?? 0));
+  });
 }
 
 async function main() {
@@ -178,9 +260,16 @@ async function main() {
   ensureDebian("mariadb-server", "mariadbd");
   if (mode === "test") ensureDebian("chromium", "chromium");
 
-  const dir = path.join(root, ".data", mode === "start" ? (production ? "prod" : "dev") : "test");
-  if (mode === "test") fs.rmSync(path.join(dir, "db"), { recursive: true, force: true });
-  const dbPort = await freePort(Number(process.env.SITECUE_DB_PORT ?? (mode === "start" ? 3406 : 3456)));
+  const dir = path.join(
+    root,
+    ".data",
+    mode === "start" ? (production ? "prod" : "dev") : "test",
+  );
+  if (mode === "test")
+    fs.rmSync(path.join(dir, "db"), { recursive: true, force: true });
+  const dbPort = await freePort(
+    Number(process.env.SITECUE_DB_PORT ?? (mode === "start" ? 3406 : 3456)),
+  );
   mariadb = await startMariaDB(dir, dbPort);
   const creds = credentials(dir);
   const esc = (s) => s.replace(/'/g, "''");
@@ -191,13 +280,19 @@ async function main() {
   };
 
   if (mode === "start") {
-    sql(dir, [
-      "CREATE DATABASE IF NOT EXISTS sitecue CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;",
-      `CREATE USER IF NOT EXISTS 'sitecue'@'127.0.0.1' IDENTIFIED BY '${esc(creds.appPassword)}';`,
-      `ALTER USER 'sitecue'@'127.0.0.1' IDENTIFIED BY '${esc(creds.appPassword)}';`,
-      "GRANT ALL PRIVILEGES ON sitecue.* TO 'sitecue'@'127.0.0.1';",
-    ].join(" "));
-    if (production && !fs.existsSync(path.join(root, "dist", "client", "index.html"))) {
+    sql(
+      dir,
+      [
+        "CREATE DATABASE IF NOT EXISTS sitecue CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;",
+        `CREATE USER IF NOT EXISTS 'sitecue'@'127.0.0.1' IDENTIFIED BY '${esc(creds.appPassword)}';`,
+        `ALTER USER 'sitecue'@'127.0.0.1' IDENTIFIED BY '${esc(creds.appPassword)}';`,
+        "GRANT ALL PRIVILEGES ON sitecue.* TO 'sitecue'@'127.0.0.1';",
+      ].join(" "),
+    );
+    if (
+      production &&
+      !fs.existsSync(path.join(root, "dist", "client", "index.html"))
+    ) {
       say("Building the client (vite build)");
       run("npx", ["vite", "build", "--logLevel", "warn"]);
     }
@@ -214,9 +309,16 @@ async function main() {
       SITECUE_BOOT_STARTED: String(t0),
     });
     if (!production) env.SMTP_FAKE ??= "1";
-    app = spawn("node", ["--import", "tsx", "server/main.ts"], { cwd: root, env, stdio: "inherit", detached: true });
+    app = spawn("node", ["--import", "tsx", "server/main.ts"], {
+      cwd: root,
+      env,
+      stdio: "inherit",
+      detached: true,
+    });
     children.add(app);
-    const code = await new Promise((r) => app.once("exit", (c, s) => r(c ?? (s ? 1 : 0))));
+    const code = await new Promise((r) =>
+      app.once("exit", (c, s) => r(c ?? (s ? 1 : 0))),
+    );
     if (!stopping) {
       if (code !== 0) fail(`The app stopped with exit code ${code}`);
       await stopAll();
@@ -226,11 +328,14 @@ async function main() {
 
   // Test mode: an admin user that may create one database per test file (sitecue_t_*).
   const adminPassword = randomBytes(18).toString("base64url");
-  sql(dir, [
-    `CREATE USER IF NOT EXISTS 'sitecue_test'@'127.0.0.1' IDENTIFIED BY '${esc(adminPassword)}';`,
-    `ALTER USER 'sitecue_test'@'127.0.0.1' IDENTIFIED BY '${esc(adminPassword)}';`,
-    "GRANT ALL PRIVILEGES ON `sitecue\\_t\\_%`.* TO 'sitecue_test'@'127.0.0.1';",
-  ].join(" "));
+  sql(
+    dir,
+    [
+      `CREATE USER IF NOT EXISTS 'sitecue_test'@'127.0.0.1' IDENTIFIED BY '${esc(adminPassword)}';`,
+      `ALTER USER 'sitecue_test'@'127.0.0.1' IDENTIFIED BY '${esc(adminPassword)}';`,
+      "GRANT ALL PRIVILEGES ON `sitecue\\_t\\_%`.* TO 'sitecue_test'@'127.0.0.1';",
+    ].join(" "),
+  );
   say("Building the client for the browser tests (vite build)");
   run("npx", ["vite", "build", "--logLevel", "warn"]);
   Object.assign(env, {
@@ -239,12 +344,23 @@ async function main() {
     DB_ADMIN_PASSWORD: adminPassword,
     SESSION_SECRET: randomBytes(32).toString("base64url"),
   });
-  say(`Set-up took ${((Date.now() - t0) / 1000).toFixed(1)} s; running the tests`);
-  const vitest = spawn("npx", ["vitest", "run", ...extraArgs], { cwd: root, env, stdio: "inherit", detached: true });
+  say(
+    `Set-up took ${((Date.now() - t0) / 1000).toFixed(1)} s; running the tests`,
+  );
+  const vitest = spawn("npx", ["vitest", "run", ...extraArgs], {
+    cwd: root,
+    env,
+    stdio: "inherit",
+    detached: true,
+  });
   app = vitest;
-  const code = await new Promise((r) => vitest.once("exit", (c, s) => r(c ?? (s ? 1 : 0))));
+  const code = await new Promise((r) =>
+    vitest.once("exit", (c, s) => r(c ?? (s ? 1 : 0))),
+  );
   app = null;
-  say(`Tests finished in ${((Date.now() - t0) / 1000).toFixed(1)} s with exit code ${code}`);
+  say(
+    `Tests finished in ${((Date.now() - t0) / 1000).toFixed(1)} s with exit code ${code}`,
+  );
   process.exitCode = code;
   await stopAll();
 }

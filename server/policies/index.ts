@@ -70,12 +70,16 @@ const roleIn = (actor: Actor, workshopId: string, ...roles: MemberRole[]) => {
   return role !== undefined && roles.includes(role);
 };
 
-const isMember = (actor: Actor, workshopId: string) => actor.memberships.has(workshopId);
+const isMember = (actor: Actor, workshopId: string) =>
+  actor.memberships.has(workshopId);
 
 const tradeOnJob = (actor: Actor, job: JobResource, ids: ReadonlySet<string>) =>
-  [...actor.trades.entries()].some(([tradeId, ws]) => ws === job.workshopId && ids.has(tradeId));
+  [...actor.trades.entries()].some(
+    ([tradeId, ws]) => ws === job.workshopId && ids.has(tradeId),
+  );
 
-const customerOfJob = (actor: Actor, job: JobResource) => actor.customers.get(job.customerId) === job.workshopId;
+const customerOfJob = (actor: Actor, job: JobResource) =>
+  actor.customers.get(job.customerId) === job.workshopId;
 
 /** Whether the actor may see the resource at all (decides 404 versus 403). */
 export function canSee(actor: Actor, resource: Resource): boolean {
@@ -87,9 +91,16 @@ export function canSee(actor: Actor, resource: Resource): boolean {
         [...actor.customers.values()].includes(resource.workshopId)
       );
     case "job":
-      return isMember(actor, resource.workshopId) || tradeOnJob(actor, resource, resource.activeTradeIds) || customerOfJob(actor, resource);
+      return (
+        isMember(actor, resource.workshopId) ||
+        tradeOnJob(actor, resource, resource.activeTradeIds) ||
+        customerOfJob(actor, resource)
+      );
     case "trade":
-      return isMember(actor, resource.workshopId) || actor.trades.has(resource.tradeId);
+      return (
+        isMember(actor, resource.workshopId) ||
+        actor.trades.has(resource.tradeId)
+      );
   }
 }
 
@@ -121,12 +132,20 @@ export function can(actor: Actor, action: Action, resource: Resource): boolean {
       return resource.kind === "job" && canSee(actor, resource);
     case "job.readAddress":
       if (resource.kind !== "job") return false;
-      return isMember(actor, ws) || customerOfJob(actor, resource) || tradeOnJob(actor, resource, resource.confirmedTradeIds);
+      return (
+        isMember(actor, ws) ||
+        customerOfJob(actor, resource) ||
+        tradeOnJob(actor, resource, resource.confirmedTradeIds)
+      );
   }
 }
 
 /** Throws 401 without an actor, 404 when the resource is invisible to them, 403 when the action is not allowed. */
-export function authorize(actor: Actor | null, action: Action, resource: Resource): asserts actor is Actor {
+export function authorize(
+  actor: Actor | null,
+  action: Action,
+  resource: Resource,
+): asserts actor is Actor {
   if (!actor) throw unauthenticated();
   if (can(actor, action, resource)) return;
   if (!canSee(actor, resource)) throw notFound();

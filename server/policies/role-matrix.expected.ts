@@ -12,18 +12,58 @@
 //
 // 404 = the record is invisible to them; 403 = visible but not theirs to change (see policies).
 
-export const roles = ["owner", "fitter", "tradeOn", "tradeOff", "customer", "other", "anon"] as const;
+export const roles = [
+  "owner",
+  "fitter",
+  "tradeOn",
+  "tradeOff",
+  "customer",
+  "other",
+  "anon",
+] as const;
 export type MatrixRole = (typeof roles)[number];
 type Row = Record<MatrixRole, number>;
 
-const all = (s: number): Row => ({ owner: s, fitter: s, tradeOn: s, tradeOff: s, customer: s, other: s, anon: s });
+const all = (s: number): Row => ({
+  owner: s,
+  fitter: s,
+  tradeOn: s,
+  tradeOff: s,
+  customer: s,
+  other: s,
+  anon: s,
+});
 const signedIn = (s: number): Row => ({ ...all(s), anon: 401 });
 /** Workshop admin: others of the workshop are refused (403), strangers too. */
-const ownerOnly = (ok: number): Row => ({ owner: ok, fitter: 403, tradeOn: 403, tradeOff: 403, customer: 403, other: 403, anon: 401 });
-const staff = (ok: number): Row => ({ owner: ok, fitter: ok, tradeOn: 403, tradeOff: 403, customer: 403, other: 403, anon: 401 });
+const ownerOnly = (ok: number): Row => ({
+  owner: ok,
+  fitter: 403,
+  tradeOn: 403,
+  tradeOff: 403,
+  customer: 403,
+  other: 403,
+  anon: 401,
+});
+const staff = (ok: number): Row => ({
+  owner: ok,
+  fitter: ok,
+  tradeOn: 403,
+  tradeOff: 403,
+  customer: 403,
+  other: 403,
+  anon: 401,
+});
 
 /** On a job: the trade on it and its customer see the job (403); the others do not (404). */
-const jobStaff = (ok: number): Row => ({ owner: ok, fitter: ok, tradeOn: 403, tradeOff: 404, customer: 403, other: 404, anon: 401 });
+const jobStaff = (ok: number): Row => ({
+  owner: ok,
+  fitter: ok,
+  tradeOn: 403,
+  tradeOff: 404,
+  customer: 403,
+  other: 404,
+  anon: 401,
+});
 
 export const expected: Record<string, Row> = {
   "GET /health": all(200),
@@ -37,10 +77,34 @@ export const expected: Record<string, Row> = {
   "POST /auth/set-password": all(404), // an unknown token
 
   "GET /jobs": signedIn(200),
-  "GET /jobs/:jobId": { owner: 200, fitter: 200, tradeOn: 200, tradeOff: 404, customer: 200, other: 404, anon: 401 },
+  "GET /jobs/:jobId": {
+    owner: 200,
+    fitter: 200,
+    tradeOn: 200,
+    tradeOff: 404,
+    customer: 200,
+    other: 404,
+    anon: 401,
+  },
   "POST /workshops/:workshopId/jobs": staff(201),
-  "PATCH /jobs/:jobId": { owner: 200, fitter: 200, tradeOn: 403, tradeOff: 404, customer: 403, other: 404, anon: 401 },
-  "DELETE /jobs/:jobId": { owner: 204, fitter: 403, tradeOn: 403, tradeOff: 404, customer: 403, other: 404, anon: 401 },
+  "PATCH /jobs/:jobId": {
+    owner: 200,
+    fitter: 200,
+    tradeOn: 403,
+    tradeOff: 404,
+    customer: 403,
+    other: 404,
+    anon: 401,
+  },
+  "DELETE /jobs/:jobId": {
+    owner: 204,
+    fitter: 403,
+    tradeOn: 403,
+    tradeOff: 404,
+    customer: 403,
+    other: 404,
+    anon: 401,
+  },
 
   // The programme: the workshop plans it; trades and the customer see their parts through the job.
   "GET /jobs/:jobId/programme": jobStaff(200),
@@ -64,8 +128,24 @@ export const expected: Record<string, Row> = {
   "GET /workshops/:workshopId/trades": staff(200),
   "POST /workshops/:workshopId/trades": staff(201),
   // Another trade's record: trades and customers cannot see it at all.
-  "PATCH /trades/:tradeId": { owner: 200, fitter: 200, tradeOn: 404, tradeOff: 404, customer: 404, other: 404, anon: 401 },
-  "DELETE /trades/:tradeId": { owner: 204, fitter: 403, tradeOn: 404, tradeOff: 404, customer: 404, other: 404, anon: 401 },
+  "PATCH /trades/:tradeId": {
+    owner: 200,
+    fitter: 200,
+    tradeOn: 404,
+    tradeOff: 404,
+    customer: 404,
+    other: 404,
+    anon: 401,
+  },
+  "DELETE /trades/:tradeId": {
+    owner: 204,
+    fitter: 403,
+    tradeOn: 404,
+    tradeOff: 404,
+    customer: 404,
+    other: 404,
+    anon: 401,
+  },
 
   "GET /workshops/:workshopId/starters": staff(200),
   "PUT /workshops/:workshopId/starters/:starterId": staff(200),

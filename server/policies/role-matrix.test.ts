@@ -1,8 +1,25 @@
 import { randomBytes } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { anonymous, signIn, startTestApp, type Session, type TestApp } from "../../tests/setup/test-app";
-import { buildBooking, buildJob, buildLink, buildTask, buildTrade, buildUser, linkTradeUser } from "../../tests/factories/builders";
-import { demoAccounts, demoJobTitles } from "../../tests/factories/demo-scenario";
+import {
+  anonymous,
+  signIn,
+  startTestApp,
+  type Session,
+  type TestApp,
+} from "../../tests/setup/test-app";
+import {
+  buildBooking,
+  buildJob,
+  buildLink,
+  buildTask,
+  buildTrade,
+  buildUser,
+  linkTradeUser,
+} from "../../tests/factories/builders";
+import {
+  demoAccounts,
+  demoJobTitles,
+} from "../../tests/factories/demo-scenario";
 import { Customer } from "../modules/customers/customers.entity";
 import { Job } from "../modules/jobs/jobs.entity";
 import { Trade } from "../modules/trades/trades.entity";
@@ -11,7 +28,13 @@ import { ProgrammeStarter } from "../modules/starters/starters.entity";
 import { expected, roles, type MatrixRole } from "./role-matrix.expected";
 
 let t: TestApp;
-let ids: { workshopId: string; jobId: string; decoratorId: string; rosaId: string; plastererId: string };
+let ids: {
+  workshopId: string;
+  jobId: string;
+  decoratorId: string;
+  rosaId: string;
+  plastererId: string;
+};
 const emails: Record<Exclude<MatrixRole, "anon">, string> = {
   owner: demoAccounts.owner.email,
   fitter: demoAccounts.fitter.email,
@@ -24,19 +47,38 @@ const emails: Record<Exclude<MatrixRole, "anon">, string> = {
 beforeAll(async () => {
   t = await startTestApp({ demo: true });
   const m = t.db.ds.manager;
-  const workshop = await m.findOneByOrFail(Workshop, { name: "Hollin & Vane Joinery" });
+  const workshop = await m.findOneByOrFail(Workshop, {
+    name: "Hollin & Vane Joinery",
+  });
   const job = await m.findOneByOrFail(Job, { title: demoJobTitles.alcoves });
-  const decorator = await m.findOneByOrFail(Trade, { businessName: "Kestrel Decorating" });
-  const plasterer = await m.findOneByOrFail(Trade, { businessName: "Ashby Plaster & Coving" });
-  const flooring = await m.findOneByOrFail(Trade, { businessName: "Tarn Floors" });
-  const rosa = await m.findOneByOrFail(Customer, { email: demoAccounts.customer.email });
+  const decorator = await m.findOneByOrFail(Trade, {
+    businessName: "Kestrel Decorating",
+  });
+  const plasterer = await m.findOneByOrFail(Trade, {
+    businessName: "Ashby Plaster & Coving",
+  });
+  const flooring = await m.findOneByOrFail(Trade, {
+    businessName: "Tarn Floors",
+  });
+  const rosa = await m.findOneByOrFail(Customer, {
+    email: demoAccounts.customer.email,
+  });
   const tom = await m.findOneByOrFail(Customer, { email: emails.other });
   // Accounts for the two "not on this job" people.
   const ola = await buildUser(m, { email: emails.tradeOff, name: "Ola Tarn" });
   await linkTradeUser(m, flooring, ola);
-  const tomUser = await buildUser(m, { email: emails.other, name: "Tom Fennimore" });
+  const tomUser = await buildUser(m, {
+    email: emails.other,
+    name: "Tom Fennimore",
+  });
   await m.update(Customer, { id: tom.id }, { userId: tomUser.id });
-  ids = { workshopId: workshop.id, jobId: job.id, decoratorId: decorator.id, rosaId: rosa.id, plastererId: plasterer.id };
+  ids = {
+    workshopId: workshop.id,
+    jobId: job.id,
+    decoratorId: decorator.id,
+    rosaId: rosa.id,
+    plastererId: plasterer.id,
+  };
 }, 120_000);
 
 afterAll(async () => {
@@ -48,112 +90,249 @@ async function freshJob(): Promise<string> {
   return (await freshProgramme()).jobId;
 }
 
-async function freshProgramme(): Promise<{ jobId: string; taskId: string; otherTaskId: string; thirdTaskId: string; linkId: string }> {
+async function freshProgramme(): Promise<{
+  jobId: string;
+  taskId: string;
+  otherTaskId: string;
+  thirdTaskId: string;
+  linkId: string;
+}> {
   const m = t.db.ds.manager;
   const workshop = await m.findOneByOrFail(Workshop, { id: ids.workshopId });
   const rosa = await m.findOneByOrFail(Customer, { id: ids.rosaId });
   const plasterer = await m.findOneByOrFail(Trade, { id: ids.plastererId });
   const job = await buildJob(m, workshop, rosa, { title: "Matrix job" });
-  const fix = await buildTask(m, job, { name: "Fix carcasses & scribes", party: "workshop", durationDays: 2 });
-  const task = await buildTask(m, job, { name: "Template coving", party: "plasterer", durationDays: 0.5 });
+  const fix = await buildTask(m, job, {
+    name: "Fix carcasses & scribes",
+    party: "workshop",
+    durationDays: 2,
+  });
+  const task = await buildTask(m, job, {
+    name: "Template coving",
+    party: "plasterer",
+    durationDays: 0.5,
+  });
   const link = await buildLink(m, fix, task);
-  const doors = await buildTask(m, job, { name: "Hang doors", party: "workshop", durationDays: 1 });
-  await buildBooking(m, task, plasterer, { state: "sent", start: "2027-02-01T08:00", finish: "2027-02-01T12:00" });
-  return { jobId: job.id, taskId: task.id, otherTaskId: fix.id, thirdTaskId: doors.id, linkId: link.id };
+  const doors = await buildTask(m, job, {
+    name: "Hang doors",
+    party: "workshop",
+    durationDays: 1,
+  });
+  await buildBooking(m, task, plasterer, {
+    state: "sent",
+    start: "2027-02-01T08:00",
+    finish: "2027-02-01T12:00",
+  });
+  return {
+    jobId: job.id,
+    taskId: task.id,
+    otherTaskId: fix.id,
+    thirdTaskId: doors.id,
+    linkId: link.id,
+  };
 }
 
 const unique = () => randomBytes(4).toString("hex");
 
 /** One concrete request per route: path, and a valid body for changes. */
-const requests: Record<string, () => Promise<{ path: string; body?: object }>> = {
-  "GET /health": async () => ({ path: "/api/health" }),
-  "GET /openapi.json": async () => ({ path: "/api/openapi.json" }),
-  "GET /dev/mail": async () => ({ path: "/api/dev/mail" }),
-  "GET /auth/session": async () => ({ path: "/api/auth/session" }),
-  "POST /auth/sign-in": async () => ({ path: "/api/auth/sign-in", body: { email: "nobody@example.test", password: "wrong-password" } }),
-  "POST /auth/sign-out": async () => ({ path: "/api/auth/sign-out" }),
-  "POST /auth/password-reset": async () => ({ path: "/api/auth/password-reset", body: { email: "nobody@example.test" } }),
-  "GET /auth/tokens/:token": async () => ({ path: `/api/auth/tokens/${randomBytes(32).toString("base64url")}` }),
-  "POST /auth/set-password": async () => ({ path: "/api/auth/set-password", body: { token: randomBytes(32).toString("base64url"), password: "a-long-enough-password" } }),
-  "GET /jobs": async () => ({ path: "/api/jobs" }),
-  "GET /jobs/:jobId": async () => ({ path: `/api/jobs/${ids.jobId}` }),
-  "POST /workshops/:workshopId/jobs": async () => ({
-    path: `/api/workshops/${ids.workshopId}/jobs`,
-    body: { title: "New alcove pair", customerId: ids.rosaId, siteAddress: "2 Example Row, Wetherfold", postcode: "QX1 2AB", area: "Wetherfold", holidayRegion: "GB-ENG" },
-  }),
-  "PATCH /jobs/:jobId": async () => ({ path: `/api/jobs/${await freshJob()}`, body: { version: 1, title: "Renamed" } }),
-  "DELETE /jobs/:jobId": async () => ({ path: `/api/jobs/${await freshJob()}` }),
-  "GET /jobs/:jobId/programme": async () => ({ path: `/api/jobs/${await freshJob()}/programme` }),
-  "POST /jobs/:jobId/tasks": async () => ({ path: `/api/jobs/${await freshJob()}/tasks`, body: { version: 1, name: "Fit plinths", party: "workshop", durationDays: 0.5 } }),
-  "PATCH /jobs/:jobId/tasks/:taskId": async () => {
-    const p = await freshProgramme();
-    return { path: `/api/jobs/${p.jobId}/tasks/${p.taskId}`, body: { version: 1, durationDays: 1 } };
-  },
-  "DELETE /jobs/:jobId/tasks/:taskId": async () => {
-    const p = await freshProgramme();
-    return { path: `/api/jobs/${p.jobId}/tasks/${p.otherTaskId}?version=1` };
-  },
-  "PUT /jobs/:jobId/tasks/order": async () => {
-    const p = await freshProgramme();
-    return { path: `/api/jobs/${p.jobId}/tasks/order`, body: { version: 1, taskIds: [p.thirdTaskId, p.taskId, p.otherTaskId] } };
-  },
-  "POST /jobs/:jobId/tasks/:taskId/progress": async () => {
-    const p = await freshProgramme();
-    return { path: `/api/jobs/${p.jobId}/tasks/${p.otherTaskId}/progress`, body: { version: 1, actualStart: "2027-01-25", actualFinish: null } };
-  },
-  "POST /jobs/:jobId/links": async () => {
-    const p = await freshProgramme();
-    return { path: `/api/jobs/${p.jobId}/links`, body: { version: 1, fromTaskId: p.otherTaskId, toTaskId: p.thirdTaskId, kind: "FS", lag: 0 } };
-  },
-  "PATCH /jobs/:jobId/links/:linkId": async () => {
-    const p = await freshProgramme();
-    return { path: `/api/jobs/${p.jobId}/links/${p.linkId}`, body: { version: 1, lag: 1 } };
-  },
-  "DELETE /jobs/:jobId/links/:linkId": async () => {
-    const p = await freshProgramme();
-    return { path: `/api/jobs/${p.jobId}/links/${p.linkId}?version=1` };
-  },
-  "POST /jobs/:jobId/programme/preview": async () => {
-    const p = await freshProgramme();
-    return { path: `/api/jobs/${p.jobId}/programme/preview`, body: { version: 1, changes: [{ taskId: p.otherTaskId, notEarlierThan: "2027-02-03" }] } };
-  },
-  "POST /jobs/:jobId/programme/apply": async () => {
-    const p = await freshProgramme();
-    return { path: `/api/jobs/${p.jobId}/programme/apply`, body: { version: 1, changes: [{ taskId: p.otherTaskId, notEarlierThan: "2027-02-03" }] } };
-  },
-  "GET /workshops/:workshopId": async () => ({ path: `/api/workshops/${ids.workshopId}` }),
-  "PATCH /workshops/:workshopId": async () => ({ path: `/api/workshops/${ids.workshopId}`, body: { town: "Wetherfold" } }),
-  "GET /workshops/:workshopId/members": async () => ({ path: `/api/workshops/${ids.workshopId}/members` }),
-  "GET /workshops/:workshopId/invitations": async () => ({ path: `/api/workshops/${ids.workshopId}/invitations` }),
-  "POST /workshops/:workshopId/invitations": async () => ({
-    path: `/api/workshops/${ids.workshopId}/invitations`,
-    body: { role: "fitter", name: "New Fitter", email: `fitter-${unique()}@example.test` },
-  }),
-  "GET /workshops/:workshopId/trades": async () => ({ path: `/api/workshops/${ids.workshopId}/trades` }),
-  "POST /workshops/:workshopId/trades": async () => ({
-    path: `/api/workshops/${ids.workshopId}/trades`,
-    body: { businessName: `Trade ${unique()}`, kind: "plumber", contactName: "A Plumber", email: `plumber-${unique()}@example.test`, phone: "01632 960 999" },
-  }),
-  "PATCH /trades/:tradeId": async () => ({ path: `/api/trades/${ids.decoratorId}`, body: { phone: "01632 960 272" } }),
-  "DELETE /trades/:tradeId": async () => {
-    const workshop = await t.db.ds.manager.findOneByOrFail(Workshop, { id: ids.workshopId });
-    const trade = await buildTrade(t.db.ds.manager, workshop, { kind: "other" });
-    return { path: `/api/trades/${trade.id}` };
-  },
-  "GET /workshops/:workshopId/starters": async () => ({ path: `/api/workshops/${ids.workshopId}/starters` }),
-  "PUT /workshops/:workshopId/starters/:starterId": async () => {
-    const starter = await t.db.ds.manager.findOneByOrFail(ProgrammeStarter, { workshopId: ids.workshopId, name: "Bookcase wall" });
-    return {
-      path: `/api/workshops/${ids.workshopId}/starters/${starter.id}`,
-      body: { name: "Bookcase wall", tasks: starter.tasks, links: starter.links },
-    };
-  },
-  "GET /workshops/:workshopId/customers": async () => ({ path: `/api/workshops/${ids.workshopId}/customers` }),
-  "POST /workshops/:workshopId/customers": async () => ({
-    path: `/api/workshops/${ids.workshopId}/customers`,
-    body: { name: "New Customer", email: `c-${unique()}@example.test` },
-  }),
-};
+const requests: Record<string, () => Promise<{ path: string; body?: object }>> =
+  {
+    "GET /health": async () => ({ path: "/api/health" }),
+    "GET /openapi.json": async () => ({ path: "/api/openapi.json" }),
+    "GET /dev/mail": async () => ({ path: "/api/dev/mail" }),
+    "GET /auth/session": async () => ({ path: "/api/auth/session" }),
+    "POST /auth/sign-in": async () => ({
+      path: "/api/auth/sign-in",
+      body: { email: "nobody@example.test", password: "wrong-password" },
+    }),
+    "POST /auth/sign-out": async () => ({ path: "/api/auth/sign-out" }),
+    "POST /auth/password-reset": async () => ({
+      path: "/api/auth/password-reset",
+      body: { email: "nobody@example.test" },
+    }),
+    "GET /auth/tokens/:token": async () => ({
+      path: `/api/auth/tokens/${randomBytes(32).toString("base64url")}`,
+    }),
+    "POST /auth/set-password": async () => ({
+      path: "/api/auth/set-password",
+      body: {
+        token: randomBytes(32).toString("base64url"),
+        password: "a-long-enough-password",
+      },
+    }),
+    "GET /jobs": async () => ({ path: "/api/jobs" }),
+    "GET /jobs/:jobId": async () => ({ path: `/api/jobs/${ids.jobId}` }),
+    "POST /workshops/:workshopId/jobs": async () => ({
+      path: `/api/workshops/${ids.workshopId}/jobs`,
+      body: {
+        title: "New alcove pair",
+        customerId: ids.rosaId,
+        siteAddress: "2 Example Row, Wetherfold",
+        postcode: "QX1 2AB",
+        area: "Wetherfold",
+        holidayRegion: "GB-ENG",
+      },
+    }),
+    "PATCH /jobs/:jobId": async () => ({
+      path: `/api/jobs/${await freshJob()}`,
+      body: { version: 1, title: "Renamed" },
+    }),
+    "DELETE /jobs/:jobId": async () => ({
+      path: `/api/jobs/${await freshJob()}`,
+    }),
+    "GET /jobs/:jobId/programme": async () => ({
+      path: `/api/jobs/${await freshJob()}/programme`,
+    }),
+    "POST /jobs/:jobId/tasks": async () => ({
+      path: `/api/jobs/${await freshJob()}/tasks`,
+      body: {
+        version: 1,
+        name: "Fit plinths",
+        party: "workshop",
+        durationDays: 0.5,
+      },
+    }),
+    "PATCH /jobs/:jobId/tasks/:taskId": async () => {
+      const p = await freshProgramme();
+      return {
+        path: `/api/jobs/${p.jobId}/tasks/${p.taskId}`,
+        body: { version: 1, durationDays: 1 },
+      };
+    },
+    "DELETE /jobs/:jobId/tasks/:taskId": async () => {
+      const p = await freshProgramme();
+      return { path: `/api/jobs/${p.jobId}/tasks/${p.otherTaskId}?version=1` };
+    },
+    "PUT /jobs/:jobId/tasks/order": async () => {
+      const p = await freshProgramme();
+      return {
+        path: `/api/jobs/${p.jobId}/tasks/order`,
+        body: { version: 1, taskIds: [p.thirdTaskId, p.taskId, p.otherTaskId] },
+      };
+    },
+    "POST /jobs/:jobId/tasks/:taskId/progress": async () => {
+      const p = await freshProgramme();
+      return {
+        path: `/api/jobs/${p.jobId}/tasks/${p.otherTaskId}/progress`,
+        body: { version: 1, actualStart: "2027-01-25", actualFinish: null },
+      };
+    },
+    "POST /jobs/:jobId/links": async () => {
+      const p = await freshProgramme();
+      return {
+        path: `/api/jobs/${p.jobId}/links`,
+        body: {
+          version: 1,
+          fromTaskId: p.otherTaskId,
+          toTaskId: p.thirdTaskId,
+          kind: "FS",
+          lag: 0,
+        },
+      };
+    },
+    "PATCH /jobs/:jobId/links/:linkId": async () => {
+      const p = await freshProgramme();
+      return {
+        path: `/api/jobs/${p.jobId}/links/${p.linkId}`,
+        body: { version: 1, lag: 1 },
+      };
+    },
+    "DELETE /jobs/:jobId/links/:linkId": async () => {
+      const p = await freshProgramme();
+      return { path: `/api/jobs/${p.jobId}/links/${p.linkId}?version=1` };
+    },
+    "POST /jobs/:jobId/programme/preview": async () => {
+      const p = await freshProgramme();
+      return {
+        path: `/api/jobs/${p.jobId}/programme/preview`,
+        body: {
+          version: 1,
+          changes: [{ taskId: p.otherTaskId, notEarlierThan: "2027-02-03" }],
+        },
+      };
+    },
+    "POST /jobs/:jobId/programme/apply": async () => {
+      const p = await freshProgramme();
+      return {
+        path: `/api/jobs/${p.jobId}/programme/apply`,
+        body: {
+          version: 1,
+          changes: [{ taskId: p.otherTaskId, notEarlierThan: "2027-02-03" }],
+        },
+      };
+    },
+    "GET /workshops/:workshopId": async () => ({
+      path: `/api/workshops/${ids.workshopId}`,
+    }),
+    "PATCH /workshops/:workshopId": async () => ({
+      path: `/api/workshops/${ids.workshopId}`,
+      body: { town: "Wetherfold" },
+    }),
+    "GET /workshops/:workshopId/members": async () => ({
+      path: `/api/workshops/${ids.workshopId}/members`,
+    }),
+    "GET /workshops/:workshopId/invitations": async () => ({
+      path: `/api/workshops/${ids.workshopId}/invitations`,
+    }),
+    "POST /workshops/:workshopId/invitations": async () => ({
+      path: `/api/workshops/${ids.workshopId}/invitations`,
+      body: {
+        role: "fitter",
+        name: "New Fitter",
+        email: `fitter-${unique()}@example.test`,
+      },
+    }),
+    "GET /workshops/:workshopId/trades": async () => ({
+      path: `/api/workshops/${ids.workshopId}/trades`,
+    }),
+    "POST /workshops/:workshopId/trades": async () => ({
+      path: `/api/workshops/${ids.workshopId}/trades`,
+      body: {
+        businessName: `Trade ${unique()}`,
+        kind: "plumber",
+        contactName: "A Plumber",
+        email: `plumber-${unique()}@example.test`,
+        phone: "01632 960 999",
+      },
+    }),
+    "PATCH /trades/:tradeId": async () => ({
+      path: `/api/trades/${ids.decoratorId}`,
+      body: { phone: "01632 960 272" },
+    }),
+    "DELETE /trades/:tradeId": async () => {
+      const workshop = await t.db.ds.manager.findOneByOrFail(Workshop, {
+        id: ids.workshopId,
+      });
+      const trade = await buildTrade(t.db.ds.manager, workshop, {
+        kind: "other",
+      });
+      return { path: `/api/trades/${trade.id}` };
+    },
+    "GET /workshops/:workshopId/starters": async () => ({
+      path: `/api/workshops/${ids.workshopId}/starters`,
+    }),
+    "PUT /workshops/:workshopId/starters/:starterId": async () => {
+      const starter = await t.db.ds.manager.findOneByOrFail(ProgrammeStarter, {
+        workshopId: ids.workshopId,
+        name: "Bookcase wall",
+      });
+      return {
+        path: `/api/workshops/${ids.workshopId}/starters/${starter.id}`,
+        body: {
+          name: "Bookcase wall",
+          tasks: starter.tasks,
+          links: starter.links,
+        },
+      };
+    },
+    "GET /workshops/:workshopId/customers": async () => ({
+      path: `/api/workshops/${ids.workshopId}/customers`,
+    }),
+    "POST /workshops/:workshopId/customers": async () => ({
+      path: `/api/workshops/${ids.workshopId}/customers`,
+      body: { name: "New Customer", email: `c-${unique()}@example.test` },
+    }),
+  };
 
 async function sessionFor(role: MatrixRole): Promise<Session> {
   return role === "anon" ? anonymous(t) : signIn(t, emails[role]);
@@ -161,7 +340,9 @@ async function sessionFor(role: MatrixRole): Promise<Session> {
 
 describe("role matrix: every /api route for every role", () => {
   it("has an expected row and a request for every registered route, and no stale rows", () => {
-    const registered = t.sitecue.routes.specs.map((s) => `${s.method.toUpperCase()} ${s.path}`).sort();
+    const registered = t.sitecue.routes.specs
+      .map((s) => `${s.method.toUpperCase()} ${s.path}`)
+      .sort();
     expect(Object.keys(expected).sort()).toEqual(registered);
     expect(Object.keys(requests).sort()).toEqual(registered);
   });
@@ -173,10 +354,16 @@ describe("role matrix: every /api route for every role", () => {
       for (const role of roles) {
         const s = await sessionFor(role);
         const req = await requests[route]();
-        const call = s.agent[method.toLowerCase() as "get" | "post" | "patch" | "put" | "delete"](req.path).set("X-CSRF-Token", s.csrf);
+        const call = s.agent[
+          method.toLowerCase() as "get" | "post" | "patch" | "put" | "delete"
+        ](req.path).set("X-CSRF-Token", s.csrf);
         const res = await (req.body ? call.send(req.body) : call);
         seen[role] = res.status;
-        if (res.status >= 400) expect(res.body.error?.code, `${role} ${route} error body`).toBeTypeOf("string");
+        if (res.status >= 400)
+          expect(
+            res.body.error?.code,
+            `${role} ${route} error body`,
+          ).toBeTypeOf("string");
       }
       expect(seen, `${method} ${path}`).toEqual(row);
     });

@@ -1,7 +1,10 @@
 import { z } from "zod";
 import { idSchema, memberRoleSchema, tradeKindSchema } from "./common";
 
-export const emailSchema = z.email({ message: "Enter a valid e-mail address" }).max(254).transform((s) => s.toLowerCase());
+export const emailSchema = z
+  .email({ message: "Enter a valid e-mail address" })
+  .max(254)
+  .transform((s) => s.toLowerCase());
 export const passwordSchema = z
   .string()
   .min(10, "Use at least 10 characters")
@@ -20,7 +23,9 @@ export const setPasswordBodySchema = z.object({
   password: passwordSchema,
 });
 
-export const tokenParamsSchema = z.object({ token: z.string().min(20).max(200) });
+export const tokenParamsSchema = z.object({
+  token: z.string().min(20).max(200),
+});
 
 /** What the signed-in person is, in each workshop they belong to. */
 export const sessionUserSchema = z.object({
@@ -28,12 +33,28 @@ export const sessionUserSchema = z.object({
   email: z.string(),
   name: z.string(),
   memberships: z.array(
-    z.object({ workshopId: idSchema, workshopName: z.string(), role: memberRoleSchema }),
+    z.object({
+      workshopId: idSchema,
+      workshopName: z.string(),
+      role: memberRoleSchema,
+    }),
   ),
   trades: z.array(
-    z.object({ tradeId: idSchema, workshopId: idSchema, workshopName: z.string(), businessName: z.string(), kind: tradeKindSchema }),
+    z.object({
+      tradeId: idSchema,
+      workshopId: idSchema,
+      workshopName: z.string(),
+      businessName: z.string(),
+      kind: tradeKindSchema,
+    }),
   ),
-  customers: z.array(z.object({ customerId: idSchema, workshopId: idSchema, workshopName: z.string() })),
+  customers: z.array(
+    z.object({
+      customerId: idSchema,
+      workshopId: idSchema,
+      workshopName: z.string(),
+    }),
+  ),
 });
 export type SessionUser = z.infer<typeof sessionUserSchema>;
 

@@ -7,12 +7,26 @@ export const idSchema = z.uuid({ message: "Must be a valid id" });
 export const isoDateSchema = z
   .string()
   .regex(/^\d{4}-\d{2}-\d{2}$/, "Use a date like 2026-03-14")
-  .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s), "Not a real calendar date");
+  .refine(
+    (s) =>
+      !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) &&
+      new Date(`${s}T00:00:00Z`).toISOString().startsWith(s),
+    "Not a real calendar date",
+  );
 
 /** Local wall-clock time HH:mm on the 24-hour clock. */
-export const clockTimeSchema = z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, "Use a time like 08:00");
+export const clockTimeSchema = z
+  .string()
+  .regex(/^([01]\d|2[0-3]):[0-5]\d$/, "Use a time like 08:00");
 
-export const tradeKinds = ["plasterer", "decorator", "electrician", "flooring", "plumber", "other"] as const;
+export const tradeKinds = [
+  "plasterer",
+  "decorator",
+  "electrician",
+  "flooring",
+  "plumber",
+  "other",
+] as const;
 export const tradeKindSchema = z.enum(tradeKinds);
 export type TradeKind = z.infer<typeof tradeKindSchema>;
 
@@ -25,7 +39,12 @@ export const memberRoleSchema = z.enum(memberRoles);
 export type MemberRole = z.infer<typeof memberRoleSchema>;
 
 /** ISO 3166-2 codes for the UK nations with their own bank holidays. */
-export const holidayRegionSchema = z.enum(["GB-ENG", "GB-WLS", "GB-SCT", "GB-NIR"]);
+export const holidayRegionSchema = z.enum([
+  "GB-ENG",
+  "GB-WLS",
+  "GB-SCT",
+  "GB-NIR",
+]);
 export type HolidayRegion = z.infer<typeof holidayRegionSchema>;
 
 /** ISO weekday numbers, 1 = Monday … 7 = Sunday. */
@@ -46,10 +65,21 @@ export const bookingStates = [
 export const bookingStateSchema = z.enum(bookingStates);
 export type BookingState = z.infer<typeof bookingStateSchema>;
 
-export const arrivalWindows = ["morning", "afternoon", "all-day", "range"] as const;
+export const arrivalWindows = [
+  "morning",
+  "afternoon",
+  "all-day",
+  "range",
+] as const;
 export const arrivalWindowSchema = z.enum(arrivalWindows);
 
-export const jobStatuses = ["survey", "planned", "on-site", "handed-over", "cancelled"] as const;
+export const jobStatuses = [
+  "survey",
+  "planned",
+  "on-site",
+  "handed-over",
+  "cancelled",
+] as const;
 export const jobStatusSchema = z.enum(jobStatuses);
 export type JobStatus = z.infer<typeof jobStatusSchema>;
 

@@ -11,7 +11,12 @@ import {
   weekdaysSchema,
 } from "./common";
 
-export const viewerRoleSchema = z.enum(["owner", "fitter", "trade", "customer"]);
+export const viewerRoleSchema = z.enum([
+  "owner",
+  "fitter",
+  "trade",
+  "customer",
+]);
 export type ViewerRole = z.infer<typeof viewerRoleSchema>;
 
 export const createJobBodySchema = z.object({
@@ -22,8 +27,15 @@ export const createJobBodySchema = z.object({
     .string()
     .trim()
     .toUpperCase()
-    .regex(/^[A-Z]{1,2}\d[A-Z\d]? ?\d[A-Z]{2}$/, "Enter a UK postcode like AB1 2CD"),
-  area: z.string().trim().min(1, "Enter the town or area trades see before they confirm").max(120),
+    .regex(
+      /^[A-Z]{1,2}\d[A-Z\d]? ?\d[A-Z]{2}$/,
+      "Enter a UK postcode like AB1 2CD",
+    ),
+  area: z
+    .string()
+    .trim()
+    .min(1, "Enter the town or area trades see before they confirm")
+    .max(120),
   holidayRegion: holidayRegionSchema,
   timeZone: z.string().default("Europe/London"),
   status: jobStatusSchema.default("survey"),
@@ -56,9 +68,7 @@ export const jobSummarySchema = z.object({
   status: jobStatusSchema,
   customerName: z.string().nullable(),
   handoverDate: z.string().nullable(),
-  nextEvent: z
-    .object({ date: z.string(), label: z.string() })
-    .nullable(),
+  nextEvent: z.object({ date: z.string(), label: z.string() }).nullable(),
   viewerRole: viewerRoleSchema,
 });
 export type JobSummary = z.infer<typeof jobSummarySchema>;

@@ -4,7 +4,10 @@ import { isoDateSchema, partySchema } from "./common";
 /** A date (that morning / that day's end) or a date-time on a slot boundary, local to the job. */
 export const slotInstantSchema = z
   .string()
-  .regex(/^\d{4}-\d{2}-\d{2}(T([01]\d|2[0-3]):[0-5]\d)?$/, "Use a date like 2026-03-14, or 2026-03-14T12:00");
+  .regex(
+    /^\d{4}-\d{2}-\d{2}(T([01]\d|2[0-3]):[0-5]\d)?$/,
+    "Use a date like 2026-03-14, or 2026-03-14T12:00",
+  );
 
 export const hazardSchema = z.enum(["electrical", "height", "tall-unit"]);
 export const linkKindSchema = z.enum(["FS", "SS", "FF"]);
@@ -14,11 +17,17 @@ const durationSchema = z
   .number({ message: "Enter the duration in working days" })
   .min(0, "A duration cannot be negative")
   .max(250, "Keep a task under 250 working days")
-  .refine((d) => Number.isInteger(d * 2), "Use whole or half days (0.5 is one morning or afternoon)");
+  .refine(
+    (d) => Number.isInteger(d * 2),
+    "Use whole or half days (0.5 is one morning or afternoon)",
+  );
 
 const lagSchema = z.number({ message: "Enter the lag" }).min(-60).max(2000);
 
-export const versionSchema = z.number({ message: "The programme version is missing" }).int().min(1);
+export const versionSchema = z
+  .number({ message: "The programme version is missing" })
+  .int()
+  .min(1);
 
 export const taskFieldsSchema = z.object({
   name: z.string().trim().min(1, "Give the task a name").max(160),
@@ -30,14 +39,18 @@ export const taskFieldsSchema = z.object({
   hazards: z.array(hazardSchema).max(3).default([]),
 });
 
-export const createTaskBodySchema = taskFieldsSchema.extend({ version: versionSchema });
+export const createTaskBodySchema = taskFieldsSchema.extend({
+  version: versionSchema,
+});
 export type CreateTaskBody = z.input<typeof createTaskBodySchema>;
 
 export const updateTaskBodySchema = taskFieldsSchema
   .partial()
   .extend({ version: versionSchema });
 
-export const versionQuerySchema = z.object({ version: z.coerce.number().int().min(1, "The programme version is missing") });
+export const versionQuerySchema = z.object({
+  version: z.coerce.number().int().min(1, "The programme version is missing"),
+});
 
 export const reorderBodySchema = z.object({
   version: versionSchema,
@@ -54,7 +67,10 @@ export const linkFieldsSchema = z.object({
 });
 export const createLinkBodySchema = linkFieldsSchema
   .extend({ version: versionSchema })
-  .refine((l) => l.fromTaskId !== l.toTaskId, { message: "A task cannot wait for itself", path: ["fromTaskId"] })
+  .refine((l) => l.fromTaskId !== l.toTaskId, {
+    message: "A task cannot wait for itself",
+    path: ["fromTaskId"],
+  })
   .refine((l) => l.lagUnit !== "workingDays" || Number.isInteger(l.lag * 2), {
     message: "Working-day lags go in whole or half days",
     path: ["lag"],
@@ -62,11 +78,22 @@ export const createLinkBodySchema = linkFieldsSchema
 export type CreateLinkBody = z.input<typeof createLinkBodySchema>;
 
 export const updateLinkBodySchema = z
-  .object({ version: versionSchema, kind: linkKindSchema.optional(), lag: lagSchema.optional(), lagUnit: lagUnitSchema.optional() })
-  .refine((l) => l.lag === undefined || l.lagUnit !== "workingDays" || Number.isInteger(l.lag * 2), {
-    message: "Working-day lags go in whole or half days",
-    path: ["lag"],
-  });
+  .object({
+    version: versionSchema,
+    kind: linkKindSchema.optional(),
+    lag: lagSchema.optional(),
+    lagUnit: lagUnitSchema.optional(),
+  })
+  .refine(
+    (l) =>
+      l.lag === undefined ||
+      l.lagUnit !== "workingDays" ||
+      Number.isInteger(l.lag * 2),
+    {
+      message: "Working-day lags go in whole or half days",
+      path: ["lag"],
+    },
+  );
 
 export const progressBodySchema = z
   .object({
@@ -78,10 +105,13 @@ export const progressBodySchema = z
     message: "A task is started before it is done",
     path: ["actualStart"],
   })
-  .refine((b) => !b.actualStart || !b.actualFinish || b.actualStart <= b.actualFinish, {
-    message: "It cannot finish before it starts",
-    path: ["actualFinish"],
-  });
+  .refine(
+    (b) => !b.actualStart || !b.actualFinish || b.actualStart <= b.actualFinish,
+    {
+      message: "It cannot finish before it starts",
+      path: ["actualFinish"],
+    },
+  );
 
 /** One proposed edit, previewed or applied: move a task (not earlier than) and/or change its duration. */
 export const programmeChangeSchema = z
@@ -90,7 +120,10 @@ export const programmeChangeSchema = z
     notEarlierThan: isoDateSchema.nullable().optional(),
     durationDays: durationSchema.optional(),
   })
-  .refine((c) => c.notEarlierThan !== undefined || c.durationDays !== undefined, { message: "Say what changes" });
+  .refine(
+    (c) => c.notEarlierThan !== undefined || c.durationDays !== undefined,
+    { message: "Say what changes" },
+  );
 export type ProgrammeChange = z.infer<typeof programmeChangeSchema>;
 
 export const changeBodySchema = z.object({
@@ -114,7 +147,18 @@ const taskResultSchema = z.object({
     state: z.enum(["done", "started", "clear", "waiting"]),
     waitingOn: z.array(z.object({ task: z.string(), allowsFrom: z.string() })),
   }),
-  problems: z.array(z.object({ code: z.enum(["booking-too-early", "non-working-day", "clash", "overdue", "handover-at-risk"]), message: z.string() })),
+  problems: z.array(
+    z.object({
+      code: z.enum([
+        "booking-too-early",
+        "non-working-day",
+        "clash",
+        "overdue",
+        "handover-at-risk",
+      ]),
+      message: z.string(),
+    }),
+  ),
 });
 
 export const programmeResultSchema = z.object({
@@ -138,7 +182,14 @@ export const programmeTaskSchema = z.object({
   hazards: z.array(hazardSchema),
   caution: z.string().nullable(),
   booking: z
-    .object({ id: z.string(), tradeId: z.string(), tradeName: z.string(), state: z.string(), start: z.string(), finish: z.string() })
+    .object({
+      id: z.string(),
+      tradeId: z.string(),
+      tradeName: z.string(),
+      state: z.string(),
+      start: z.string(),
+      finish: z.string(),
+    })
     .nullable(),
 });
 export type ProgrammeTask = z.infer<typeof programmeTaskSchema>;
@@ -168,8 +219,24 @@ export const programmeResponseSchema = z.object({
 export type ProgrammeResponse = z.infer<typeof programmeResponseSchema>;
 
 const impactSchema = z.object({
-  moves: z.array(z.object({ task: z.string(), fromStart: z.string(), toStart: z.string(), fromFinish: z.string(), toFinish: z.string(), byDays: z.number() })),
-  reconfirm: z.array(z.object({ task: z.string(), bookedStart: z.string(), proposedStart: z.string(), reason: z.string() })),
+  moves: z.array(
+    z.object({
+      task: z.string(),
+      fromStart: z.string(),
+      toStart: z.string(),
+      fromFinish: z.string(),
+      toFinish: z.string(),
+      byDays: z.number(),
+    }),
+  ),
+  reconfirm: z.array(
+    z.object({
+      task: z.string(),
+      bookedStart: z.string(),
+      proposedStart: z.string(),
+      reason: z.string(),
+    }),
+  ),
   handover: z.object({
     finishBefore: z.string().nullable(),
     finishAfter: z.string().nullable(),
@@ -179,5 +246,11 @@ const impactSchema = z.object({
   }),
 });
 
-export const previewResponseSchema = z.object({ impact: impactSchema, result: programmeResultSchema });
-export const applyResponseSchema = z.object({ impact: impactSchema, programme: programmeResponseSchema });
+export const previewResponseSchema = z.object({
+  impact: impactSchema,
+  result: programmeResultSchema,
+});
+export const applyResponseSchema = z.object({
+  impact: impactSchema,
+  programme: programmeResponseSchema,
+});

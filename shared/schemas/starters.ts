@@ -3,10 +3,19 @@ import { idSchema, partySchema } from "./common";
 import { hazardSchema, lagUnitSchema, linkKindSchema } from "./programme";
 
 export const starterTaskSchema = z.object({
-  key: z.string().trim().min(1).max(40).regex(/^[a-z0-9-]+$/, "Use lower-case letters, digits and -"),
+  key: z
+    .string()
+    .trim()
+    .min(1)
+    .max(40)
+    .regex(/^[a-z0-9-]+$/, "Use lower-case letters, digits and -"),
   name: z.string().trim().min(1, "Give the task a name").max(160),
   party: partySchema,
-  durationDays: z.number().min(0).max(250).refine((d) => Number.isInteger(d * 2), "Use whole or half days"),
+  durationDays: z
+    .number()
+    .min(0)
+    .max(250)
+    .refine((d) => Number.isInteger(d * 2), "Use whole or half days"),
   hazards: z.array(hazardSchema).max(3).default([]),
   customerNote: z.string().max(1000).default(""),
 });
@@ -27,18 +36,36 @@ export const starterBodySchema = z
   .object({
     name: z.string().trim().min(1, "Give the starter a name").max(120),
     description: z.string().max(300).default(""),
-    tasks: z.array(starterTaskSchema).min(1, "A starter needs at least one task").max(60),
+    tasks: z
+      .array(starterTaskSchema)
+      .min(1, "A starter needs at least one task")
+      .max(60),
     links: z.array(starterLinkSchema).max(120).default([]),
   })
   .superRefine((b, ctx) => {
     const keys = new Set<string>();
     b.tasks.forEach((t, i) => {
-      if (keys.has(t.key)) ctx.addIssue({ code: "custom", path: ["tasks", i, "key"], message: "Each task key once" });
+      if (keys.has(t.key))
+        ctx.addIssue({
+          code: "custom",
+          path: ["tasks", i, "key"],
+          message: "Each task key once",
+        });
       keys.add(t.key);
     });
     b.links.forEach((l, i) => {
-      if (!keys.has(l.from)) ctx.addIssue({ code: "custom", path: ["links", i, "from"], message: `No task with key "${l.from}"` });
-      if (!keys.has(l.to)) ctx.addIssue({ code: "custom", path: ["links", i, "to"], message: `No task with key "${l.to}"` });
+      if (!keys.has(l.from))
+        ctx.addIssue({
+          code: "custom",
+          path: ["links", i, "from"],
+          message: `No task with key "${l.from}"`,
+        });
+      if (!keys.has(l.to))
+        ctx.addIssue({
+          code: "custom",
+          path: ["links", i, "to"],
+          message: `No task with key "${l.to}"`,
+        });
     });
   });
 export type StarterBody = z.input<typeof starterBodySchema>;

@@ -1,5 +1,11 @@
 import { z } from "zod";
-import { clockTimeSchema, idSchema, isoDateSchema, tradeKindSchema, weekdaysSchema } from "./common";
+import {
+  clockTimeSchema,
+  idSchema,
+  isoDateSchema,
+  tradeKindSchema,
+  weekdaysSchema,
+} from "./common";
 import { emailSchema } from "./auth";
 
 const phoneSchema = z
@@ -19,7 +25,10 @@ export const tradeBodySchema = z
     dayEnd: clockTimeSchema.default("16:30"),
     daysOff: z.array(isoDateSchema).max(366).default([]),
   })
-  .refine((b) => b.dayStart < b.dayEnd, { message: "The day must end after it starts", path: ["dayEnd"] });
+  .refine((b) => b.dayStart < b.dayEnd, {
+    message: "The day must end after it starts",
+    path: ["dayEnd"],
+  });
 export type TradeBody = z.input<typeof tradeBodySchema>;
 
 export const updateTradeBodySchema = z

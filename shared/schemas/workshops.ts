@@ -1,5 +1,11 @@
 import { z } from "zod";
-import { clockTimeSchema, holidayRegionSchema, idSchema, memberRoleSchema, weekdaysSchema } from "./common";
+import {
+  clockTimeSchema,
+  holidayRegionSchema,
+  idSchema,
+  memberRoleSchema,
+  weekdaysSchema,
+} from "./common";
 import { emailSchema } from "./auth";
 
 export const workshopResponseSchema = z.object({
@@ -48,8 +54,14 @@ export const createInvitationBodySchema = z
     tradeId: idSchema.optional(),
     customerId: idSchema.optional(),
   })
-  .refine((b) => b.role !== "trade" || b.tradeId, { message: "Choose the trade they speak for", path: ["tradeId"] })
-  .refine((b) => b.role !== "customer" || b.customerId, { message: "Choose the customer", path: ["customerId"] });
+  .refine((b) => b.role !== "trade" || b.tradeId, {
+    message: "Choose the trade they speak for",
+    path: ["tradeId"],
+  })
+  .refine((b) => b.role !== "customer" || b.customerId, {
+    message: "Choose the customer",
+    path: ["customerId"],
+  });
 export type CreateInvitationBody = z.input<typeof createInvitationBodySchema>;
 
 export const invitationResponseSchema = z.object({

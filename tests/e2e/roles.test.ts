@@ -3,8 +3,20 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
 import { startTestApp, type TestApp } from "../setup/test-app";
-import { demoAccounts, demoJobTitles, DEMO_PASSWORD } from "../factories/demo-scenario";
-import { countOf, desktop, launchBrowser, phone, shot, visible, watchConsole } from "./browser";
+import {
+  demoAccounts,
+  demoJobTitles,
+  DEMO_PASSWORD,
+} from "../factories/demo-scenario";
+import {
+  countOf,
+  desktop,
+  launchBrowser,
+  phone,
+  shot,
+  visible,
+  watchConsole,
+} from "./browser";
 
 let t: TestApp;
 let browser: Browser;
@@ -18,7 +30,10 @@ afterAll(async () => {
   await t?.close();
 });
 
-async function signInAs(email: string, viewport = desktop): Promise<{ page: Page; problems: string[] }> {
+async function signInAs(
+  email: string,
+  viewport = desktop,
+): Promise<{ page: Page; problems: string[] }> {
   const context = await browser.newContext({ viewport });
   const page = await context.newPage();
   const problems = watchConsole(page);
@@ -37,7 +52,8 @@ const nav = (page: Page) => page.getByRole("navigation", { name: "Main" });
 describe("each demo role in the browser", () => {
   it("the owner sees the workshop's three jobs and the admin screens", async () => {
     const { page, problems } = await signInAs(demoAccounts.owner.email);
-    for (const title of Object.values(demoJobTitles)) await visible(page.getByRole("link", { name: title }));
+    for (const title of Object.values(demoJobTitles))
+      await visible(page.getByRole("link", { name: title }));
     await visible(nav(page).getByRole("link", { name: "Trades" }));
     await visible(nav(page).getByRole("link", { name: "Members" }));
     await shot(page, "owner-home-desktop");
@@ -47,7 +63,12 @@ describe("each demo role in the browser", () => {
     await shot(page, "owner-members-desktop");
 
     await nav(page).getByRole("link", { name: "Trades" }).click();
-    for (const business of ["Ashby Plaster & Coving", "Kestrel Decorating", "Brightwire Electrical", "Tarn Floors"]) {
+    for (const business of [
+      "Ashby Plaster & Coving",
+      "Kestrel Decorating",
+      "Brightwire Electrical",
+      "Tarn Floors",
+    ]) {
       await visible(page.getByText(business).first());
     }
     await shot(page, "owner-trades-desktop");
@@ -64,9 +85,12 @@ describe("each demo role in the browser", () => {
 
   it("the fitter sees the jobs and trades but not the members screen", async () => {
     const { page, problems } = await signInAs(demoAccounts.fitter.email);
-    for (const title of Object.values(demoJobTitles)) await visible(page.getByRole("link", { name: title }));
+    for (const title of Object.values(demoJobTitles))
+      await visible(page.getByRole("link", { name: title }));
     await visible(nav(page).getByRole("link", { name: "Trades" }));
-    expect(await countOf(nav(page).getByRole("link", { name: "Members" }))).toBe(0);
+    expect(
+      await countOf(nav(page).getByRole("link", { name: "Members" })),
+    ).toBe(0);
     await shot(page, "fitter-home-desktop");
     expect(problems).toEqual([]);
     await page.context().close();
@@ -75,14 +99,20 @@ describe("each demo role in the browser", () => {
   it("the plasterer sees only the job they are booked on, on a phone", async () => {
     const { page, problems } = await signInAs(demoAccounts.trade.email, phone);
     await visible(page.getByRole("link", { name: demoJobTitles.alcoves }));
-    expect(await countOf(page.getByRole("link", { name: demoJobTitles.wardrobe }))).toBe(0);
-    expect(await countOf(page.getByRole("link", { name: demoJobTitles.bookcase }))).toBe(0);
+    expect(
+      await countOf(page.getByRole("link", { name: demoJobTitles.wardrobe })),
+    ).toBe(0);
+    expect(
+      await countOf(page.getByRole("link", { name: demoJobTitles.bookcase })),
+    ).toBe(0);
     expect(await countOf(page.getByRole("link", { name: "Trades" }))).toBe(0);
     await shot(page, "trade-home-phone");
     await page.getByRole("link", { name: demoJobTitles.alcoves }).click();
     await visible(page.getByText("Template coving").first());
     // Never another trade's contact details or the workshop's internal notes.
-    expect(await countOf(page.getByText("nell@kestreldecorating.example.test"))).toBe(0);
+    expect(
+      await countOf(page.getByText("nell@kestreldecorating.example.test")),
+    ).toBe(0);
     expect(await countOf(page.getByText(/out of plumb/))).toBe(0);
     await shot(page, "trade-job-phone");
     expect(problems).toEqual([]);
@@ -90,13 +120,24 @@ describe("each demo role in the browser", () => {
   });
 
   it("the customer sees only their own job, on a phone", async () => {
-    const { page, problems } = await signInAs(demoAccounts.customer.email, phone);
+    const { page, problems } = await signInAs(
+      demoAccounts.customer.email,
+      phone,
+    );
     await visible(page.getByRole("link", { name: demoJobTitles.alcoves }));
-    expect(await countOf(page.getByRole("link", { name: demoJobTitles.wardrobe }))).toBe(0);
-    expect(await countOf(page.getByRole("link", { name: demoJobTitles.bookcase }))).toBe(0);
+    expect(
+      await countOf(page.getByRole("link", { name: demoJobTitles.wardrobe })),
+    ).toBe(0);
+    expect(
+      await countOf(page.getByRole("link", { name: demoJobTitles.bookcase })),
+    ).toBe(0);
     await shot(page, "customer-home-phone");
     await page.getByRole("link", { name: demoJobTitles.alcoves }).click();
-    await visible(page.getByText("Keep the room free of dust for painting; windows closed."));
+    await visible(
+      page.getByText(
+        "Keep the room free of dust for painting; windows closed.",
+      ),
+    );
     expect(await countOf(page.getByText(/out of plumb/))).toBe(0);
     await shot(page, "customer-job-phone");
     expect(problems).toEqual([]);

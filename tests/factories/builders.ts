@@ -6,11 +6,23 @@ import { hashPassword } from "../../server/modules/auth/passwords";
 import { Booking } from "../../server/modules/bookings/bookings.entity";
 import { Customer } from "../../server/modules/customers/customers.entity";
 import { Job } from "../../server/modules/jobs/jobs.entity";
-import { Task, TaskLink, type Hazard } from "../../server/modules/programme/programme.entity";
+import {
+  Task,
+  TaskLink,
+  type Hazard,
+} from "../../server/modules/programme/programme.entity";
 import { Trade, TradeMember } from "../../server/modules/trades/trades.entity";
 import { User } from "../../server/modules/users/users.entity";
-import { Workshop, WorkshopMember } from "../../server/modules/workshops/workshops.entity";
-import type { BookingState, MemberRole, Party, TradeKind } from "../../shared/schemas";
+import {
+  Workshop,
+  WorkshopMember,
+} from "../../server/modules/workshops/workshops.entity";
+import type {
+  BookingState,
+  MemberRole,
+  Party,
+  TradeKind,
+} from "../../shared/schemas";
 
 let counter = 0;
 const seq = () => ++counter;
@@ -22,7 +34,10 @@ const hashOnce = (password: string) => {
   return hashes.get(password)!;
 };
 
-export async function buildUser(m: EntityManager, o: Partial<User> & { password?: string | null } = {}): Promise<User> {
+export async function buildUser(
+  m: EntityManager,
+  o: Partial<User> & { password?: string | null } = {},
+): Promise<User> {
   const n = seq();
   const { password = "sitecue-demo", ...rest } = o;
   const user = m.create(User, {
@@ -37,7 +52,10 @@ export async function buildUser(m: EntityManager, o: Partial<User> & { password?
   return user;
 }
 
-export async function buildWorkshop(m: EntityManager, o: Partial<Workshop> = {}): Promise<Workshop> {
+export async function buildWorkshop(
+  m: EntityManager,
+  o: Partial<Workshop> = {},
+): Promise<Workshop> {
   const w = m.create(Workshop, {
     id: newId(),
     name: `Workshop ${seq()}`,
@@ -53,13 +71,27 @@ export async function buildWorkshop(m: EntityManager, o: Partial<Workshop> = {})
   return w;
 }
 
-export async function buildMember(m: EntityManager, workshop: Workshop, user: User, role: MemberRole): Promise<WorkshopMember> {
-  const member = m.create(WorkshopMember, { id: newId(), workshopId: workshop.id, userId: user.id, role });
+export async function buildMember(
+  m: EntityManager,
+  workshop: Workshop,
+  user: User,
+  role: MemberRole,
+): Promise<WorkshopMember> {
+  const member = m.create(WorkshopMember, {
+    id: newId(),
+    workshopId: workshop.id,
+    userId: user.id,
+    role,
+  });
   await m.insert(WorkshopMember, member);
   return member;
 }
 
-export async function buildTrade(m: EntityManager, workshop: Workshop, o: Partial<Trade> & { kind: TradeKind }): Promise<Trade> {
+export async function buildTrade(
+  m: EntityManager,
+  workshop: Workshop,
+  o: Partial<Trade> & { kind: TradeKind },
+): Promise<Trade> {
   const n = seq();
   const t = m.create(Trade, {
     id: newId(),
@@ -78,20 +110,46 @@ export async function buildTrade(m: EntityManager, workshop: Workshop, o: Partia
   return t;
 }
 
-export async function linkTradeUser(m: EntityManager, trade: Trade, user: User): Promise<TradeMember> {
-  const link = m.create(TradeMember, { id: newId(), workshopId: trade.workshopId, tradeId: trade.id, userId: user.id });
+export async function linkTradeUser(
+  m: EntityManager,
+  trade: Trade,
+  user: User,
+): Promise<TradeMember> {
+  const link = m.create(TradeMember, {
+    id: newId(),
+    workshopId: trade.workshopId,
+    tradeId: trade.id,
+    userId: user.id,
+  });
   await m.insert(TradeMember, link);
   return link;
 }
 
-export async function buildCustomer(m: EntityManager, workshop: Workshop, o: Partial<Customer> = {}): Promise<Customer> {
+export async function buildCustomer(
+  m: EntityManager,
+  workshop: Workshop,
+  o: Partial<Customer> = {},
+): Promise<Customer> {
   const n = seq();
-  const c = m.create(Customer, { id: newId(), workshopId: workshop.id, name: `Customer ${n}`, email: `customer${n}@example.test`, phone: null, userId: null, ...o });
+  const c = m.create(Customer, {
+    id: newId(),
+    workshopId: workshop.id,
+    name: `Customer ${n}`,
+    email: `customer${n}@example.test`,
+    phone: null,
+    userId: null,
+    ...o,
+  });
   await m.insert(Customer, c);
   return c;
 }
 
-export async function buildJob(m: EntityManager, workshop: Workshop, customer: Customer, o: Partial<Job> = {}): Promise<Job> {
+export async function buildJob(
+  m: EntityManager,
+  workshop: Workshop,
+  customer: Customer,
+  o: Partial<Job> = {},
+): Promise<Job> {
   const j = m.create(Job, {
     id: newId(),
     workshopId: workshop.id,
@@ -117,7 +175,12 @@ export async function buildJob(m: EntityManager, workshop: Workshop, customer: C
 export async function buildTask(
   m: EntityManager,
   job: Job,
-  o: Partial<Omit<Task, "durationDays">> & { name: string; party: Party; durationDays?: number; hazards?: Hazard[] },
+  o: Partial<Omit<Task, "durationDays">> & {
+    name: string;
+    party: Party;
+    durationDays?: number;
+    hazards?: Hazard[];
+  },
 ): Promise<Task> {
   const { durationDays = 1, ...rest } = o;
   const count = await m.countBy(Task, { jobId: job.id });
@@ -143,7 +206,11 @@ export async function buildLink(
   m: EntityManager,
   from: Task,
   to: Task,
-  o: { kind?: TaskLink["kind"]; lag?: number; lagUnit?: TaskLink["lagUnit"] } = {},
+  o: {
+    kind?: TaskLink["kind"];
+    lag?: number;
+    lagUnit?: TaskLink["lagUnit"];
+  } = {},
 ): Promise<TaskLink> {
   const l = m.create(TaskLink, {
     id: newId(),

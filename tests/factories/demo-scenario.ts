@@ -46,12 +46,24 @@ export function weekdaysFrom(today: string, n: number): string {
 }
 
 /** Loads the whole demo scenario in one transaction. */
-export async function loadDemoScenario(ds: DataSource, today: string): Promise<void> {
+export async function loadDemoScenario(
+  ds: DataSource,
+  today: string,
+): Promise<void> {
   const day = (n: number) => weekdaysFrom(today, n);
   await ds.transaction(async (m) => {
-    const workshop = await buildWorkshop(m, { name: "Hollin & Vane Joinery", town: "Wetherfold" });
-    const owner = await buildUser(m, { ...demoAccounts.owner, password: DEMO_PASSWORD });
-    const fitter = await buildUser(m, { ...demoAccounts.fitter, password: DEMO_PASSWORD });
+    const workshop = await buildWorkshop(m, {
+      name: "Hollin & Vane Joinery",
+      town: "Wetherfold",
+    });
+    const owner = await buildUser(m, {
+      ...demoAccounts.owner,
+      password: DEMO_PASSWORD,
+    });
+    const fitter = await buildUser(m, {
+      ...demoAccounts.fitter,
+      password: DEMO_PASSWORD,
+    });
     await buildMember(m, workshop, owner, "owner");
     await buildMember(m, workshop, fitter, "fitter");
     await addDefaultStarters(m, workshop.id);
@@ -85,13 +97,32 @@ export async function loadDemoScenario(ds: DataSource, today: string): Promise<v
       phone: "01632 960 452",
       workingWeekdays: [1, 2, 3, 4, 5, 6],
     });
-    const tradeUser = await buildUser(m, { ...demoAccounts.trade, password: DEMO_PASSWORD });
+    const tradeUser = await buildUser(m, {
+      ...demoAccounts.trade,
+      password: DEMO_PASSWORD,
+    });
     await linkTradeUser(m, plasterer, tradeUser);
 
-    const rosaUser = await buildUser(m, { ...demoAccounts.customer, password: DEMO_PASSWORD });
-    const rosa = await buildCustomer(m, workshop, { name: demoAccounts.customer.name, email: demoAccounts.customer.email, phone: "01632 960 519", userId: rosaUser.id });
-    const tom = await buildCustomer(m, workshop, { name: "Tom Fennimore", email: "tom.fennimore@example.test", phone: "01632 960 633" });
-    const ada = await buildCustomer(m, workshop, { name: "Ada Linwood", email: "ada.linwood@example.test", phone: "01632 960 747" });
+    const rosaUser = await buildUser(m, {
+      ...demoAccounts.customer,
+      password: DEMO_PASSWORD,
+    });
+    const rosa = await buildCustomer(m, workshop, {
+      name: demoAccounts.customer.name,
+      email: demoAccounts.customer.email,
+      phone: "01632 960 519",
+      userId: rosaUser.id,
+    });
+    const tom = await buildCustomer(m, workshop, {
+      name: "Tom Fennimore",
+      email: "tom.fennimore@example.test",
+      phone: "01632 960 633",
+    });
+    const ada = await buildCustomer(m, workshop, {
+      name: "Ada Linwood",
+      email: "ada.linwood@example.test",
+      phone: "01632 960 747",
+    });
 
     // Job 1 — an alcove pair in a Victorian terrace, on site now.
     const alcoves = await buildJob(m, workshop, rosa, {
@@ -101,9 +132,16 @@ export async function loadDemoScenario(ds: DataSource, today: string): Promise<v
       area: "Larkspur, Wetherfold",
       status: "on-site",
       handoverDate: day(8),
-      accessNotes: "Park on Larkspur Terrace (permit in the front window). Key safe by the door: code given on confirmation. Cat indoors: keep the front-room door shut.",
+      accessNotes:
+        "Park on Larkspur Terrace (permit in the front window). Key safe by the door: code given on confirmation. Cat indoors: keep the front-room door shut.",
     });
-    const survey = await buildTask(m, alcoves, { name: "Survey & measure", party: "workshop", durationDays: 0.5, actualStart: day(-15), actualFinish: `${day(-15)}T12:00` });
+    const survey = await buildTask(m, alcoves, {
+      name: "Survey & measure",
+      party: "workshop",
+      durationDays: 0.5,
+      actualStart: day(-15),
+      actualFinish: `${day(-15)}T12:00`,
+    });
     const firstFix = await buildTask(m, alcoves, {
       name: "Electrician first fix (cabinet lights)",
       party: "electrician",
@@ -119,9 +157,15 @@ export async function loadDemoScenario(ds: DataSource, today: string): Promise<v
       actualStart: day(-1),
       hazards: ["tall-unit"],
       customerNote: "Clear both alcoves and the floor in front of them.",
-      internalNote: "Left alcove wall out of plumb by 12 mm at the top: scribe allowance on the left side.",
+      internalNote:
+        "Left alcove wall out of plumb by 12 mm at the top: scribe allowance on the left side.",
     });
-    const template = await buildTask(m, alcoves, { name: "Template coving", party: "plasterer", durationDays: 0.5, hazards: ["height"] });
+    const template = await buildTask(m, alcoves, {
+      name: "Template coving",
+      party: "plasterer",
+      durationDays: 0.5,
+      hazards: ["height"],
+    });
     const coving = await buildTask(m, alcoves, {
       name: "Fit coving & make good",
       party: "plasterer",
@@ -129,15 +173,29 @@ export async function loadDemoScenario(ds: DataSource, today: string): Promise<v
       hazards: ["height"],
       customerNote: "Expect dust: keep the room closed and pets out.",
     });
-    const doors = await buildTask(m, alcoves, { name: "Hang doors", party: "workshop", durationDays: 1, notEarlierThan: day(2), internalNote: "Sprayed doors due from the finisher." });
-    const secondFix = await buildTask(m, alcoves, { name: "Electrician second fix", party: "electrician", durationDays: 0.5 });
+    const doors = await buildTask(m, alcoves, {
+      name: "Hang doors",
+      party: "workshop",
+      durationDays: 1,
+      notEarlierThan: day(2),
+      internalNote: "Sprayed doors due from the finisher.",
+    });
+    const secondFix = await buildTask(m, alcoves, {
+      name: "Electrician second fix",
+      party: "electrician",
+      durationDays: 0.5,
+    });
     const paint = await buildTask(m, alcoves, {
       name: "Fill, caulk & paint",
       party: "decorator",
       durationDays: 2,
       customerNote: "Keep the room free of dust for painting; windows closed.",
     });
-    const handover = await buildTask(m, alcoves, { name: "Handover", party: "workshop", durationDays: 0 });
+    const handover = await buildTask(m, alcoves, {
+      name: "Handover",
+      party: "workshop",
+      durationDays: 0,
+    });
     await buildLink(m, survey, firstFix);
     await buildLink(m, firstFix, carcasses);
     await buildLink(m, carcasses, template);
@@ -148,11 +206,39 @@ export async function loadDemoScenario(ds: DataSource, today: string): Promise<v
     await buildLink(m, coving, paint, { lag: 24, lagUnit: "elapsedHours" });
     await buildLink(m, paint, handover);
     await buildLink(m, secondFix, handover);
-    await buildBooking(m, firstFix, electrician, { state: "confirmed", start: `${day(-3)}T08:00`, finish: `${day(-3)}T12:00`, arrivalWindow: "morning", sequence: 0 });
-    await buildBooking(m, template, plasterer, { state: "sent", start: `${day(1)}T08:00`, finish: `${day(1)}T12:00`, arrivalWindow: "morning" });
-    await buildBooking(m, coving, plasterer, { state: "confirmed", start: `${day(4)}T08:00`, finish: `${day(4)}T16:30`, arrivalWindow: "range", arrivalFrom: "08:00", arrivalTo: "09:00" });
-    await buildBooking(m, secondFix, electrician, { state: "sent", start: `${day(3)}T12:00`, finish: `${day(3)}T16:30`, arrivalWindow: "afternoon" });
-    await buildBooking(m, paint, decorator, { state: "confirmed", start: `${day(6)}T08:00`, finish: `${day(7)}T16:30`, arrivalWindow: "all-day" });
+    await buildBooking(m, firstFix, electrician, {
+      state: "confirmed",
+      start: `${day(-3)}T08:00`,
+      finish: `${day(-3)}T12:00`,
+      arrivalWindow: "morning",
+      sequence: 0,
+    });
+    await buildBooking(m, template, plasterer, {
+      state: "sent",
+      start: `${day(1)}T08:00`,
+      finish: `${day(1)}T12:00`,
+      arrivalWindow: "morning",
+    });
+    await buildBooking(m, coving, plasterer, {
+      state: "confirmed",
+      start: `${day(4)}T08:00`,
+      finish: `${day(4)}T16:30`,
+      arrivalWindow: "range",
+      arrivalFrom: "08:00",
+      arrivalTo: "09:00",
+    });
+    await buildBooking(m, secondFix, electrician, {
+      state: "sent",
+      start: `${day(3)}T12:00`,
+      finish: `${day(3)}T16:30`,
+      arrivalWindow: "afternoon",
+    });
+    await buildBooking(m, paint, decorator, {
+      state: "confirmed",
+      start: `${day(6)}T08:00`,
+      finish: `${day(7)}T16:30`,
+      arrivalWindow: "all-day",
+    });
 
     // Job 2 — a double wardrobe in a first-floor flat, planned.
     const wardrobe = await buildJob(m, workshop, tom, {
@@ -163,21 +249,60 @@ export async function loadDemoScenario(ds: DataSource, today: string): Promise<v
       status: "planned",
       handoverDate: day(22),
       siteWeekdays: [1, 2, 3, 4],
-      accessNotes: "Entry phone for flat 3; lift to the first floor. No parking on the court: use the pay car park on Weir Street.",
+      accessNotes:
+        "Entry phone for flat 3; lift to the first floor. No parking on the court: use the pay car park on Weir Street.",
     });
-    const wSurvey = await buildTask(m, wardrobe, { name: "Survey & measure", party: "workshop", durationDays: 0.5, actualStart: day(-6), actualFinish: `${day(-6)}T12:00` });
-    const wFirstFix = await buildTask(m, wardrobe, { name: "Electrician first fix (wardrobe lighting)", party: "electrician", durationDays: 0.5 });
-    const wFloor = await buildTask(m, wardrobe, { name: "Lay bedroom floor", party: "flooring", durationDays: 1, customerNote: "Clear the bedroom floor completely." });
-    const wCarcasses = await buildTask(m, wardrobe, { name: "Fit wardrobe carcasses", party: "workshop", durationDays: 2, hazards: ["tall-unit"] });
-    const wPlinths = await buildTask(m, wardrobe, { name: "Fit plinths, doors & scribes", party: "workshop", durationDays: 1 });
-    const wHandover = await buildTask(m, wardrobe, { name: "Handover", party: "workshop", durationDays: 0 });
+    const wSurvey = await buildTask(m, wardrobe, {
+      name: "Survey & measure",
+      party: "workshop",
+      durationDays: 0.5,
+      actualStart: day(-6),
+      actualFinish: `${day(-6)}T12:00`,
+    });
+    const wFirstFix = await buildTask(m, wardrobe, {
+      name: "Electrician first fix (wardrobe lighting)",
+      party: "electrician",
+      durationDays: 0.5,
+    });
+    const wFloor = await buildTask(m, wardrobe, {
+      name: "Lay bedroom floor",
+      party: "flooring",
+      durationDays: 1,
+      customerNote: "Clear the bedroom floor completely.",
+    });
+    const wCarcasses = await buildTask(m, wardrobe, {
+      name: "Fit wardrobe carcasses",
+      party: "workshop",
+      durationDays: 2,
+      hazards: ["tall-unit"],
+    });
+    const wPlinths = await buildTask(m, wardrobe, {
+      name: "Fit plinths, doors & scribes",
+      party: "workshop",
+      durationDays: 1,
+    });
+    const wHandover = await buildTask(m, wardrobe, {
+      name: "Handover",
+      party: "workshop",
+      durationDays: 0,
+    });
     await buildLink(m, wSurvey, wFirstFix);
     await buildLink(m, wFirstFix, wCarcasses);
     await buildLink(m, wFloor, wCarcasses);
     await buildLink(m, wCarcasses, wPlinths);
     await buildLink(m, wPlinths, wHandover);
-    await buildBooking(m, wFirstFix, electrician, { state: "confirmed", start: `${day(10)}T08:00`, finish: `${day(10)}T12:00`, arrivalWindow: "morning" });
-    await buildBooking(m, wFloor, flooring, { state: "draft", start: `${day(11)}T08:00`, finish: `${day(11)}T16:30`, arrivalWindow: "all-day" });
+    await buildBooking(m, wFirstFix, electrician, {
+      state: "confirmed",
+      start: `${day(10)}T08:00`,
+      finish: `${day(10)}T12:00`,
+      arrivalWindow: "morning",
+    });
+    await buildBooking(m, wFloor, flooring, {
+      state: "draft",
+      start: `${day(11)}T08:00`,
+      finish: `${day(11)}T16:30`,
+      arrivalWindow: "all-day",
+    });
 
     // Job 3 — a bookcase wall, still under survey.
     const bookcase = await buildJob(m, workshop, ada, {
@@ -189,6 +314,12 @@ export async function loadDemoScenario(ds: DataSource, today: string): Promise<v
       handoverDate: null,
       accessNotes: "Side gate; ring the bell at the back door.",
     });
-    await buildTask(m, bookcase, { name: "Survey & measure", party: "workshop", durationDays: 0.5, notEarlierThan: day(3), hazards: [] });
+    await buildTask(m, bookcase, {
+      name: "Survey & measure",
+      party: "workshop",
+      durationDays: 0.5,
+      notEarlierThan: day(3),
+      hazards: [],
+    });
   });
 }

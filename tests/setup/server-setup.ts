@@ -11,5 +11,8 @@ beforeEach(() => {
 });
 afterEach(() => {
   vi.restoreAllMocks();
-  if (errors.length) throw new Error(`console.error was called:\n${errors.map((e) => e.map(String).join(" ")).join("\n")}`);
+  if (errors.length)
+    throw new Error(
+      `console.error was called:\n${errors.map((e) => e.map(String).join(" ")).join("\n")}`,
+    );
 });

@@ -5,7 +5,10 @@ import type TestAgent from "supertest/lib/agent";
 import { createApp, type SitecueApp } from "../../server/app";
 import { mountClient } from "../../server/http/client";
 import { createMailer } from "../../server/infra/mail/mailer";
-import { startSmtpFake, type SmtpFake } from "../../server/infra/mail/smtp-fake";
+import {
+  startSmtpFake,
+  type SmtpFake,
+} from "../../server/infra/mail/smtp-fake";
 import { localToday } from "../../server/modules/jobs/jobs.presenter";
 import { DEMO_PASSWORD, loadDemoScenario } from "../factories/demo-scenario";
 import { createTestDatabase, type TestDatabase } from "./test-db";
@@ -23,10 +26,17 @@ export interface TestApp {
  * Sitecue against a fresh database, with the SMTP fake on a free loopback port. `demo` loads the
  * demo scenario; `listen` serves the built client over real HTTP for the browser.
  */
-export async function startTestApp(opts: { demo?: boolean; listen?: boolean; signInLimit?: number } = {}): Promise<TestApp> {
+export async function startTestApp(
+  opts: { demo?: boolean; listen?: boolean; signInLimit?: number } = {},
+): Promise<TestApp> {
   const db = await createTestDatabase();
   const mail = await startSmtpFake();
-  const mailer = createMailer({ host: "127.0.0.1", port: mail.port, secure: false, from: "Sitecue <no-reply@sitecue.example.test>" });
+  const mailer = createMailer({
+    host: "127.0.0.1",
+    port: mail.port,
+    secure: false,
+    from: "Sitecue <no-reply@sitecue.example.test>",
+  });
   if (opts.demo) await loadDemoScenario(db.ds, localToday("Europe/London"));
   let url: string | null = null;
   let server: http.Server | null = null;
@@ -84,9 +94,19 @@ export async function anonymous(t: TestApp): Promise<Session> {
 }
 
 /** Signs in through the real route and returns the session. */
-export async function signIn(t: TestApp, email: string, password = DEMO_PASSWORD): Promise<Session> {
+export async function signIn(
+  t: TestApp,
+  email: string,
+  password = DEMO_PASSWORD,
+): Promise<Session> {
   const s = await anonymous(t);
-  const res = await s.agent.post("/api/auth/sign-in").set("X-CSRF-Token", s.csrf).send({ email, password });
-  if (res.status !== 200) throw new Error(`Sign-in as ${email} failed: ${res.status} ${JSON.stringify(res.body)}`);
+  const res = await s.agent
+    .post("/api/auth/sign-in")
+    .set("X-CSRF-Token", s.csrf)
+    .send({ email, password });
+  if (res.status !== 200)
+    throw new Error(
+      `Sign-in as ${email} failed: ${res.status} ${JSON.stringify(res.body)}`,
+    );
   return { agent: s.agent, csrf: res.body.csrfToken };
 }

@@ -8,9 +8,16 @@ import { migrate } from "../../server/db/migrate";
 export function adminSettings(): Omit<DbSettings, "database"> {
   const { DB_HOST, DB_PORT, DB_ADMIN_USER, DB_ADMIN_PASSWORD } = process.env;
   if (!DB_PORT || !DB_ADMIN_USER) {
-    throw new Error("These tests need the MariaDB that `npm test` starts. Run them with `npm test` (extra args go to vitest).");
+    throw new Error(
+      "These tests need the MariaDB that `npm test` starts. Run them with `npm test` (extra args go to vitest).",
+    );
   }
-  return { host: DB_HOST ?? "127.0.0.1", port: Number(DB_PORT), user: DB_ADMIN_USER, password: DB_ADMIN_PASSWORD ?? "" };
+  return {
+    host: DB_HOST ?? "127.0.0.1",
+    port: Number(DB_PORT),
+    user: DB_ADMIN_USER,
+    password: DB_ADMIN_PASSWORD ?? "",
+  };
 }
 
 export interface TestDatabase {
@@ -24,7 +31,9 @@ export async function createTestDatabase(): Promise<TestDatabase> {
   const admin = adminSettings();
   const database = `sitecue_t_${randomBytes(6).toString("hex")}`;
   const conn = await mysql.createConnection(admin);
-  await conn.query(`CREATE DATABASE \`${database}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
+  await conn.query(
+    `CREATE DATABASE \`${database}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`,
+  );
   await conn.end();
   const settings = { ...admin, database };
   const ds = createDataSource(settings);

@@ -27,7 +27,9 @@ export function createMailer(smtp: SmtpSettings): Mailer {
     host: smtp.host,
     port: smtp.port,
     secure: smtp.secure,
-    auth: smtp.user ? { user: smtp.user, pass: smtp.password ?? "" } : undefined,
+    auth: smtp.user
+      ? { user: smtp.user, pass: smtp.password ?? "" }
+      : undefined,
     // The local fake speaks plain SMTP on loopback; a real relay negotiates STARTTLS.
     ignoreTLS: smtp.host === "127.0.0.1" && !smtp.secure,
   });

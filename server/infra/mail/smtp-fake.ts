@@ -10,12 +10,17 @@ export interface SmtpFake {
   /** Newest first. */
   messages(): CaughtMail[];
   /** Waits until a message matching `pred` arrives (tests). */
-  waitFor(pred: (m: CaughtMail) => boolean, timeoutMs?: number): Promise<CaughtMail>;
+  waitFor(
+    pred: (m: CaughtMail) => boolean,
+    timeoutMs?: number,
+  ): Promise<CaughtMail>;
   close(): Promise<void>;
 }
 
 const addresses = (a: AddressObject | AddressObject[] | undefined) =>
-  (Array.isArray(a) ? a : a ? [a] : []).flatMap((x) => x.value.map((v) => v.address ?? "")).filter(Boolean);
+  (Array.isArray(a) ? a : a ? [a] : [])
+    .flatMap((x) => x.value.map((v) => v.address ?? ""))
+    .filter(Boolean);
 
 const linkPattern = /https?:\/\/[^\s"'<>)]+/g;
 
@@ -24,12 +29,20 @@ const linkPattern = /https?:\/\/[^\s"'<>)]+/g;
  * stand-in for a real mail relay, spoken to over real SMTP by nodemailer. With `dir`, messages are
  * also kept as JSON files so a restart of `npm start` keeps the mailbox.
  */
-export async function startSmtpFake(opts: { port?: number; dir?: string } = {}): Promise<SmtpFake> {
+export async function startSmtpFake(
+  opts: { port?: number; dir?: string } = {},
+): Promise<SmtpFake> {
   const store: CaughtMail[] = [];
-  const waiters = new Set<{ pred: (m: CaughtMail) => boolean; resolve: (m: CaughtMail) => void }>();
+  const waiters = new Set<{
+    pred: (m: CaughtMail) => boolean;
+    resolve: (m: CaughtMail) => void;
+  }>();
   if (opts.dir) {
     fs.mkdirSync(opts.dir, { recursive: true });
-    for (const f of fs.readdirSync(opts.dir).filter((f) => f.endsWith(".json")).sort()) {
+    for (const f of fs
+      .readdirSync(opts.dir)
+      .filter((f) => f.endsWith(".json"))
+      .sort()) {
       store.push(JSON.parse(fs.readFileSync(path.join(opts.dir, f), "utf8")));
     }
   }
@@ -53,8 +66,19 @@ export async function startSmtpFake(opts: { port?: number; dir?: string } = {}):
             links: [...new Set(text.match(linkPattern) ?? [])],
           };
           store.push(mail);
-          if (opts.dir) fs.writeFileSync(path.join(opts.dir, `${mail.receivedAt.replace(/[:.]/g, "-")}-${mail.id}.json`), JSON.stringify(mail));
-          for (const w of waiters) if (w.pred(mail)) { waiters.delete(w); w.resolve(mail); }
+          if (opts.dir)
+            fs.writeFileSync(
+              path.join(
+                opts.dir,
+                `${mail.receivedAt.replace(/[:.]/g, "-")}-${mail.id}.json`,
+              ),
+              JSON.stringify(mail),
+            );
+          for (const w of waiters)
+            if (w.pred(mail)) {
+              waiters.delete(w);
+              w.resolve(mail);
+            }
           callback();
         })
         .catch((err: Error) => callback(err));
@@ -73,8 +97,17 @@ export async function startSmtpFake(opts: { port?: number; dir?: string } = {}):
       const found = [...store].reverse().find(pred);
       if (found) return Promise.resolve(found);
       return new Promise((resolve, reject) => {
-        const w = { pred, resolve: (m: CaughtMail) => { clearTimeout(t); resolve(m); } };
-        const t = setTimeout(() => { waiters.delete(w); reject(new Error("No matching e-mail arrived in time")); }, timeoutMs);
+        const w = {
+          pred,
+          resolve: (m: CaughtMail) => {
+            clearTimeout(t);
+            resolve(m);
+          },
+        };
+        const t = setTimeout(() => {
+          waiters.delete(w);
+          reject(new Error("No matching e-mail arrived in time"));
+        }, timeoutMs);
         waiters.add(w);
       });
     },

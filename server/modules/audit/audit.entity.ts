@@ -1,5 +1,11 @@
 import { Entity, Index } from "typeorm";
-import { CreatedColumn, IdColumn, JsonColumn, RefColumn, TextColumn } from "../../db/columns";
+import {
+  CreatedColumn,
+  IdColumn,
+  JsonColumn,
+  RefColumn,
+  TextColumn,
+} from "../../db/columns";
 
 /** Who changed what, when. Never updated or deleted by the app. */
 @Entity("audit_entries")
@@ -11,7 +17,8 @@ export class AuditEntry {
   @TextColumn(64) action!: string;
   @TextColumn(32) entityType!: string;
   @Index("ix_audit_entity")
-  @RefColumn({ nullable: true }) entityId!: string | null;
+  @RefColumn({ nullable: true })
+  entityId!: string | null;
   @JsonColumn() detail!: Record<string, unknown>;
   @CreatedColumn() createdAt!: Date;
 }

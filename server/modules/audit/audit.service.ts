@@ -12,6 +12,13 @@ export interface AuditInput {
 }
 
 /** Records who changed what; call inside the same transaction as the change. */
-export async function audit(manager: EntityManager, input: AuditInput): Promise<void> {
-  await manager.insert(AuditEntry, { id: newId(), ...input, detail: (input.detail ?? {}) as never });
+export async function audit(
+  manager: EntityManager,
+  input: AuditInput,
+): Promise<void> {
+  await manager.insert(AuditEntry, {
+    id: newId(),
+    ...input,
+    detail: (input.detail ?? {}) as never,
+  });
 }

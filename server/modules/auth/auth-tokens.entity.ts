@@ -1,5 +1,19 @@
-import { Column, Entity, Index, JoinColumn, ManyToOne, type Relation } from "typeorm";
-import { CreatedColumn, IdColumn, InstantColumn, JsonColumn, RefColumn, TextColumn } from "../../db/columns";
+import {
+  Column,
+  Entity,
+  Index,
+  JoinColumn,
+  ManyToOne,
+  type Relation,
+} from "typeorm";
+import {
+  CreatedColumn,
+  IdColumn,
+  InstantColumn,
+  JsonColumn,
+  RefColumn,
+  TextColumn,
+} from "../../db/columns";
 import { User } from "../users/users.entity";
 
 export type TokenGrant =
@@ -13,10 +27,13 @@ export type TokenGrant =
 export class AuthToken {
   @IdColumn() id!: string;
   @Index("uq_auth_tokens_hash", { unique: true })
-  @TextColumn(64) tokenHash!: string;
-  @Column({ type: "enum", enum: ["invitation", "password-reset"] }) kind!: "invitation" | "password-reset";
+  @TextColumn(64)
+  tokenHash!: string;
+  @Column({ type: "enum", enum: ["invitation", "password-reset"] }) kind!:
+    "invitation" | "password-reset";
   @Index("ix_auth_tokens_user")
-  @RefColumn() userId!: string;
+  @RefColumn()
+  userId!: string;
   @RefColumn({ nullable: true }) workshopId!: string | null;
   @RefColumn({ nullable: true }) invitedByUserId!: string | null;
   @JsonColumn() grant!: TokenGrant;

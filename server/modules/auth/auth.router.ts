@@ -14,7 +14,12 @@ import { csrfTokenFor } from "../../http/csrf";
 import { HttpError } from "../../http/errors";
 import type { ApiRoutes } from "../../http/routes";
 import { loadSessionUser } from "../users/users.service";
-import { requestPasswordReset, setPasswordWithToken, tokenInfo, type AuthDeps } from "./auth.service";
+import {
+  requestPasswordReset,
+  setPasswordWithToken,
+  tokenInfo,
+  type AuthDeps,
+} from "./auth.service";
 
 export interface AuthRouteOptions {
   /** Attempts per window per client address for sign-in and link use. */
@@ -22,7 +27,10 @@ export interface AuthRouteOptions {
   windowMs: number;
 }
 
-function limiter(opts: AuthRouteOptions, extra: { limit?: number; skipSuccessfulRequests?: boolean } = {}) {
+function limiter(
+  opts: AuthRouteOptions,
+  extra: { limit?: number; skipSuccessfulRequests?: boolean } = {},
+) {
   return rateLimit({
     windowMs: opts.windowMs,
     limit: extra.limit ?? opts.signInLimit,
@@ -31,32 +39,56 @@ function limiter(opts: AuthRouteOptions, extra: { limit?: number; skipSuccessful
     standardHeaders: "draft-8",
     legacyHeaders: false,
     handler: (_req, _res, next) =>
-      next(new HttpError(429, "rate-limited", "Too many attempts. Wait a few minutes and try again.")),
+      next(
+        new HttpError(
+          429,
+          "rate-limited",
+          "Too many attempts. Wait a few minutes and try again.",
+        ),
+      ),
   });
 }
 
 const login = (req: Request, user: Express.User) =>
-  new Promise<void>((resolve, reject) => req.login(user, (err) => (err ? reject(err) : resolve())));
+  new Promise<void>((resolve, reject) =>
+    req.login(user, (err) => (err ? reject(err) : resolve())),
+  );
 
-const authenticateLocal = (passport: Pick<Authenticator, "authenticate">, req: Request, res: Response) =>
+const authenticateLocal = (
+  passport: Pick<Authenticator, "authenticate">,
+  req: Request,
+  res: Response,
+) =>
   new Promise<Express.User | false>((resolve, reject) =>
-    passport.authenticate("local", { session: false }, (err: unknown, user: Express.User | false) =>
-      err ? reject(err) : resolve(user),
+    passport.authenticate(
+      "local",
+      { session: false },
+      (err: unknown, user: Express.User | false) =>
+        err ? reject(err) : resolve(user),
     )(req, res, reject),
   );
 
 /** Sign-in, sign-out, the session, password reset and set-password-by-link. */
-export function registerAuthRoutes(api: ApiRoutes, deps: AuthDeps, passport: Pick<Authenticator, "authenticate">, opts: AuthRouteOptions): void {
+export function registerAuthRoutes(
+  api: ApiRoutes,
+  deps: AuthDeps,
+  passport: Pick<Authenticator, "authenticate">,
+  opts: AuthRouteOptions,
+): void {
   const attempts = limiter(opts, { skipSuccessfulRequests: true });
   // Link use and reset requests have their own budget, three times the sign-in one.
   const links = limiter(opts, { limit: opts.signInLimit * 3 });
-  const session = (req: Request) => ({ user: req.user?.user ?? null, csrfToken: csrfTokenFor(req) });
+  const session = (req: Request) => ({
+    user: req.user?.user ?? null,
+    csrfToken: csrfTokenFor(req),
+  });
 
   api.add({
     method: "get",
     path: "/auth/session",
     tag: "auth",
-    summary: "The signed-in person (or null) and the CSRF token for state-changing requests",
+    summary:
+      "The signed-in person (or null) and the CSRF token for state-changing requests",
     response: sessionResponseSchema,
     handler: async ({ req }) => session(req),
   });
@@ -71,7 +103,12 @@ export function registerAuthRoutes(api: ApiRoutes, deps: AuthDeps, passport: Pic
     response: sessionResponseSchema,
     handler: async ({ req, res }) => {
       const user = await authenticateLocal(passport, req, res);
-      if (!user) throw new HttpError(401, "invalid-credentials", "That e-mail and password do not match an account.");
+      if (!user)
+        throw new HttpError(
+          401,
+          "invalid-credentials",
+          "That e-mail and password do not match an account.",
+        );
       await login(req, user);
       return session(req);
     },
@@ -84,7 +121,9 @@ export function registerAuthRoutes(api: ApiRoutes, deps: AuthDeps, passport: Pic
     summary: "Sign out",
     response: sessionResponseSchema,
     handler: async ({ req }) => {
-      await new Promise<void>((resolve, reject) => req.logout((err) => (err ? reject(err) : resolve())));
+      await new Promise<void>((resolve, reject) =>
+        req.logout((err) => (err ? reject(err) : resolve())),
+      );
       return { user: null, csrfToken: csrfTokenFor(req) };
     },
   });
@@ -93,7 +132,8 @@ export function registerAuthRoutes(api: ApiRoutes, deps: AuthDeps, passport: Pic
     method: "post",
     path: "/auth/password-reset",
     tag: "auth",
-    summary: "E-mail a password-reset link (always answers 202, so accounts are not revealed)",
+    summary:
+      "E-mail a password-reset link (always answers 202, so accounts are not revealed)",
     before: [links],
     body: passwordResetBodySchema,
     status: 202,
@@ -119,14 +159,24 @@ export function registerAuthRoutes(api: ApiRoutes, deps: AuthDeps, passport: Pic
     method: "post",
     path: "/auth/set-password",
     tag: "auth",
-    summary: "Use an invitation or reset link once: set the password and sign in",
+    summary:
+      "Use an invitation or reset link once: set the password and sign in",
     before: [links],
     body: setPasswordBodySchema,
     response: sessionResponseSchema,
     handler: async ({ req, body }) => {
-      const userId = await setPasswordWithToken(deps.ds, body.token, body.password);
+      const userId = await setPasswordWithToken(
+        deps.ds,
+        body.token,
+        body.password,
+      );
       const loaded = await loadSessionUser(deps.ds, userId);
-      if (!loaded) throw new HttpError(404, "token-invalid", "This link is no longer valid.");
+      if (!loaded)
+        throw new HttpError(
+          404,
+          "token-invalid",
+          "This link is no longer valid.",
+        );
       await login(req, loaded);
       return session(req);
     },

@@ -23,11 +23,19 @@ export interface AuthDeps {
 }
 
 /** Checks an e-mail and password; returns the user id or null (same time either way). */
-export async function checkCredentials(ds: DataSource, email: string, password: string): Promise<string | null> {
-  const user = await ds.getRepository(User).findOneBy({ email: email.toLowerCase() });
+export async function checkCredentials(
+  ds: DataSource,
+  email: string,
+  password: string,
+): Promise<string | null> {
+  const user = await ds
+    .getRepository(User)
+    .findOneBy({ email: email.toLowerCase() });
   const ok = await verifyPassword(user?.passwordHash ?? null, password);
   if (!user || !ok) return null;
-  await ds.getRepository(User).update({ id: user.id }, { lastSignInAt: new Date() });
+  await ds
+    .getRepository(User)
+    .update({ id: user.id }, { lastSignInAt: new Date() });
   return user.id;
 }
 
@@ -68,34 +76,90 @@ export async function invite(
   deps: AuthDeps,
   by: { userId: string; name: string },
   workshopId: string,
-  input: { name: string; email: string; role: "fitter" | "trade" | "customer"; tradeId?: string; customerId?: string },
+  input: {
+    name: string;
+    email: string;
+    role: "fitter" | "trade" | "customer";
+    tradeId?: string;
+    customerId?: string;
+  },
 ) {
   const { raw, record, workshop } = await deps.ds.transaction(async (m) => {
     const workshop = await m.findOneByOrFail(Workshop, { id: workshopId });
     let grant: TokenGrant;
     if (input.role === "trade") {
-      const trade = await m.findOneBy(Trade, { id: input.tradeId!, workshopId });
-      if (!trade) throw new HttpError(422, "unprocessable", "That trade is not one of this workshop's.", { tradeId: ["Choose one of the workshop's trades"] });
+      const trade = await m.findOneBy(Trade, {
+        id: input.tradeId!,
+        workshopId,
+      });
+      if (!trade)
+        throw new HttpError(
+          422,
+          "unprocessable",
+          "That trade is not one of this workshop's.",
+          { tradeId: ["Choose one of the workshop's trades"] },
+        );
       grant = { role: "trade", workshopId, tradeId: trade.id };
     } else if (input.role === "customer") {
-      const customer = await m.findOneBy(Customer, { id: input.customerId!, workshopId });
-      if (!customer) throw new HttpError(422, "unprocessable", "That customer is not one of this workshop's.", { customerId: ["Choose one of the workshop's customers"] });
+      const customer = await m.findOneBy(Customer, {
+        id: input.customerId!,
+        workshopId,
+      });
+      if (!customer)
+        throw new HttpError(
+          422,
+          "unprocessable",
+          "That customer is not one of this workshop's.",
+          { customerId: ["Choose one of the workshop's customers"] },
+        );
       grant = { role: "customer", workshopId, customerId: customer.id };
     } else {
       grant = { role: "fitter", workshopId };
       const user = await m.findOneBy(User, { email: input.email });
-      if (user && (await m.findOneBy(WorkshopMember, { workshopId, userId: user.id }))) {
-        throw new HttpError(409, "conflict", `${input.email} is already a member of this workshop.`, { email: ["Already a member"] });
+      if (
+        user &&
+        (await m.findOneBy(WorkshopMember, { workshopId, userId: user.id }))
+      ) {
+        throw new HttpError(
+          409,
+          "conflict",
+          `${input.email} is already a member of this workshop.`,
+          { email: ["Already a member"] },
+        );
       }
     }
     let user = await m.findOneBy(User, { email: input.email });
     if (!user) {
-      user = m.create(User, { id: newId(), email: input.email, name: input.name, passwordHash: null, lastSignInAt: null });
+      user = m.create(User, {
+        id: newId(),
+        email: input.email,
+        name: input.name,
+        passwordHash: null,
+        lastSignInAt: null,
+      });
       await m.insert(User, user);
     }
-    const token = await issueToken(m, "invitation", user.id, grant, INVITATION_DAYS * 86400_000, by.userId);
-    await audit(m, { workshopId, actorUserId: by.userId, action: "invitation.created", entityType: "user", entityId: user.id, detail: { role: input.role, email: input.email } });
-    return { raw: token.raw, record: { id: token.id, expiresAt: token.expiresAt, userId: user.id }, workshop };
+    const token = await issueToken(
+      m,
+      "invitation",
+      user.id,
+      grant,
+      INVITATION_DAYS * 86400_000,
+      by.userId,
+    );
+    await audit(m, {
+      workshopId,
+      actorUserId: by.userId,
+      action: "invitation.created",
+      entityType: "user",
+      entityId: user.id,
+      detail: { role: input.role, email: input.email },
+    });
+    return {
+      raw: token.raw,
+      record: { id: token.id, expiresAt: token.expiresAt, userId: user.id },
+      workshop,
+    };
   });
   const link = `${deps.appUrl}/invite/${raw}`;
   await deps.mailer.send({
@@ -117,10 +181,22 @@ export async function invite(
 }
 
 /** E-mails a reset link when the address has an account; says nothing either way. */
-export async function requestPasswordReset(deps: AuthDeps, email: string): Promise<void> {
+export async function requestPasswordReset(
+  deps: AuthDeps,
+  email: string,
+): Promise<void> {
   const user = await deps.ds.getRepository(User).findOneBy({ email });
   if (!user) return;
-  const token = await deps.ds.transaction((m) => issueToken(m, "password-reset", user.id, { role: null }, RESET_HOURS * 3600_000, null));
+  const token = await deps.ds.transaction((m) =>
+    issueToken(
+      m,
+      "password-reset",
+      user.id,
+      { role: null },
+      RESET_HOURS * 3600_000,
+      null,
+    ),
+  );
   const link = `${deps.appUrl}/reset/${token.raw}`;
   await deps.mailer.send({
     to: user.email,
@@ -130,27 +206,52 @@ export async function requestPasswordReset(deps: AuthDeps, email: string): Promi
   });
 }
 
-async function liveToken(m: EntityManager, raw: string, lock = false): Promise<AuthToken> {
+async function liveToken(
+  m: EntityManager,
+  raw: string,
+  lock = false,
+): Promise<AuthToken> {
   const token = await m.findOne(AuthToken, {
     where: { tokenHash: hashToken(raw), usedAt: IsNull() },
     ...(lock ? { lock: { mode: "pessimistic_write" as const } } : {}),
   });
   if (!token || token.expiresAt.getTime() <= Date.now()) {
-    throw new HttpError(404, "token-invalid", "This link has expired or has already been used. Ask for a new one.");
+    throw new HttpError(
+      404,
+      "token-invalid",
+      "This link has expired or has already been used. Ask for a new one.",
+    );
   }
   return token;
 }
 
 /** What the set-password screen shows about a link. */
-export async function tokenInfo(ds: DataSource, raw: string): Promise<TokenInfoResponse> {
+export async function tokenInfo(
+  ds: DataSource,
+  raw: string,
+): Promise<TokenInfoResponse> {
   const token = await liveToken(ds.manager, raw);
-  const user = await ds.getRepository(User).findOneByOrFail({ id: token.userId });
-  const workshop = token.workshopId ? await ds.getRepository(Workshop).findOneBy({ id: token.workshopId }) : null;
-  return { kind: token.kind, email: user.email, name: user.name, workshopName: workshop?.name ?? null, role: token.grant.role };
+  const user = await ds
+    .getRepository(User)
+    .findOneByOrFail({ id: token.userId });
+  const workshop = token.workshopId
+    ? await ds.getRepository(Workshop).findOneBy({ id: token.workshopId })
+    : null;
+  return {
+    kind: token.kind,
+    email: user.email,
+    name: user.name,
+    workshopName: workshop?.name ?? null,
+    role: token.grant.role,
+  };
 }
 
 /** Uses a link once: sets the password and grants what the invitation carried. Returns the user id. */
-export async function setPasswordWithToken(ds: DataSource, raw: string, password: string): Promise<string> {
+export async function setPasswordWithToken(
+  ds: DataSource,
+  raw: string,
+  password: string,
+): Promise<string> {
   const passwordHash = await hashPassword(password);
   return ds.transaction(async (m) => {
     const token = await liveToken(m, raw, true);
@@ -158,18 +259,41 @@ export async function setPasswordWithToken(ds: DataSource, raw: string, password
     await m.update(AuthToken, { id: token.id }, { usedAt: new Date() });
     const g = token.grant;
     if (g.role === "owner" || g.role === "fitter") {
-      const exists = await m.findOneBy(WorkshopMember, { workshopId: g.workshopId, userId: token.userId });
-      if (!exists) await m.insert(WorkshopMember, { id: newId(), workshopId: g.workshopId, userId: token.userId, role: g.role });
+      const exists = await m.findOneBy(WorkshopMember, {
+        workshopId: g.workshopId,
+        userId: token.userId,
+      });
+      if (!exists)
+        await m.insert(WorkshopMember, {
+          id: newId(),
+          workshopId: g.workshopId,
+          userId: token.userId,
+          role: g.role,
+        });
     } else if (g.role === "trade") {
-      const exists = await m.findOneBy(TradeMember, { tradeId: g.tradeId, userId: token.userId });
-      if (!exists) await m.insert(TradeMember, { id: newId(), workshopId: g.workshopId, tradeId: g.tradeId, userId: token.userId });
+      const exists = await m.findOneBy(TradeMember, {
+        tradeId: g.tradeId,
+        userId: token.userId,
+      });
+      if (!exists)
+        await m.insert(TradeMember, {
+          id: newId(),
+          workshopId: g.workshopId,
+          tradeId: g.tradeId,
+          userId: token.userId,
+        });
     } else if (g.role === "customer") {
-      await m.update(Customer, { id: g.customerId, workshopId: g.workshopId }, { userId: token.userId });
+      await m.update(
+        Customer,
+        { id: g.customerId, workshopId: g.workshopId },
+        { userId: token.userId },
+      );
     }
     await audit(m, {
       workshopId: token.workshopId,
       actorUserId: token.userId,
-      action: token.kind === "invitation" ? "invitation.accepted" : "password.reset",
+      action:
+        token.kind === "invitation" ? "invitation.accepted" : "password.reset",
       entityType: "user",
       entityId: token.userId,
     });
@@ -178,5 +302,11 @@ export async function setPasswordWithToken(ds: DataSource, raw: string, password
 }
 
 export function escapeHtml(s: string): string {
-  return s.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
+  return s.replace(
+    /[&<>"']/g,
+    (c) =>
+      ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[
+        c
+      ]!,
+  );
 }

@@ -14,7 +14,10 @@ export function hashPassword(password: string): Promise<string> {
 const dummyHash = hash(crypto.randomUUID(), options);
 
 /** Checks a password against a stored hash (or a dummy one, in the same time, when there is none). */
-export async function verifyPassword(stored: string | null, password: string): Promise<boolean> {
+export async function verifyPassword(
+  stored: string | null,
+  password: string,
+): Promise<boolean> {
   if (!stored) {
     await verify(await dummyHash, password).catch(() => false);
     return false;

@@ -1,5 +1,10 @@
 import { Entity, Index, JoinColumn, ManyToOne, type Relation } from "typeorm";
-import { CreatedColumn, IdColumn, RefColumn, TextColumn } from "../../db/columns";
+import {
+  CreatedColumn,
+  IdColumn,
+  RefColumn,
+  TextColumn,
+} from "../../db/columns";
 import { Workshop } from "../workshops/workshops.entity";
 import { User } from "../users/users.entity";
 
@@ -8,12 +13,14 @@ import { User } from "../users/users.entity";
 export class Customer {
   @IdColumn() id!: string;
   @Index("ix_customers_workshop")
-  @RefColumn() workshopId!: string;
+  @RefColumn()
+  workshopId!: string;
   @TextColumn(120) name!: string;
   @TextColumn(254) email!: string;
   @TextColumn(24, { nullable: true }) phone!: string | null;
   @Index("ix_customers_user")
-  @RefColumn({ nullable: true }) userId!: string | null;
+  @RefColumn({ nullable: true })
+  userId!: string | null;
   @CreatedColumn() createdAt!: Date;
 
   @ManyToOne(() => Workshop, { onDelete: "CASCADE" })

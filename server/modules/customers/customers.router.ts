@@ -1,6 +1,10 @@
 import { z } from "zod";
 import type { DataSource } from "typeorm";
-import { customerBodySchema, customerResponseSchema, idSchema } from "../../../shared/schemas";
+import {
+  customerBodySchema,
+  customerResponseSchema,
+  idSchema,
+} from "../../../shared/schemas";
 import type { ApiRoutes } from "../../http/routes";
 import { createCustomer, listCustomers } from "./customers.service";
 
@@ -14,7 +18,9 @@ export function registerCustomerRoutes(api: ApiRoutes, ds: DataSource): void {
     summary: "The workshop's customers",
     params,
     response: z.object({ customers: z.array(customerResponseSchema) }),
-    handler: async ({ actor, params }) => ({ customers: await listCustomers(ds, actor, params.workshopId) }),
+    handler: async ({ actor, params }) => ({
+      customers: await listCustomers(ds, actor, params.workshopId),
+    }),
   });
   api.add({
     method: "post",
@@ -25,6 +31,7 @@ export function registerCustomerRoutes(api: ApiRoutes, ds: DataSource): void {
     body: customerBodySchema,
     status: 201,
     response: customerResponseSchema,
-    handler: async ({ actor, params, body }) => createCustomer(ds, actor, params.workshopId, body),
+    handler: async ({ actor, params, body }) =>
+      createCustomer(ds, actor, params.workshopId, body),
   });
 }

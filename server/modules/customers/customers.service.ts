@@ -5,14 +5,31 @@ import { authorize } from "../../policies";
 import { newId } from "../../db/columns";
 import { audit } from "../audit/audit.service";
 import { Customer } from "./customers.entity";
-import type { CustomerResponse, customerBodySchema } from "../../../shared/schemas";
+import type {
+  CustomerResponse,
+  customerBodySchema,
+} from "../../../shared/schemas";
 
-const present = (c: Customer): CustomerResponse => ({ id: c.id, name: c.name, email: c.email, phone: c.phone, hasAccount: c.userId !== null });
+const present = (c: Customer): CustomerResponse => ({
+  id: c.id,
+  name: c.name,
+  email: c.email,
+  phone: c.phone,
+  hasAccount: c.userId !== null,
+});
 
 /** The workshop's customers by name. */
-export async function listCustomers(ds: DataSource, actor: Actor | null, workshopId: string): Promise<CustomerResponse[]> {
+export async function listCustomers(
+  ds: DataSource,
+  actor: Actor | null,
+  workshopId: string,
+): Promise<CustomerResponse[]> {
   authorize(actor, "customers.read", { kind: "workshop", workshopId });
-  return (await ds.getRepository(Customer).find({ where: { workshopId }, order: { name: "ASC" } })).map(present);
+  return (
+    await ds
+      .getRepository(Customer)
+      .find({ where: { workshopId }, order: { name: "ASC" } })
+  ).map(present);
 }
 
 export async function createCustomer(
@@ -22,10 +39,26 @@ export async function createCustomer(
   body: z.output<typeof customerBodySchema>,
 ): Promise<CustomerResponse> {
   authorize(actor, "customers.create", { kind: "workshop", workshopId });
-  const customer = ds.getRepository(Customer).create({ id: newId(), workshopId, name: body.name, email: body.email, phone: body.phone ?? null, userId: null });
+  const customer = ds
+    .getRepository(Customer)
+    .create({
+      id: newId(),
+      workshopId,
+      name: body.name,
+      email: body.email,
+      phone: body.phone ?? null,
+      userId: null,
+    });
   await ds.transaction(async (m) => {
     await m.insert(Customer, customer);
-    await audit(m, { workshopId, actorUserId: actor.userId, action: "customer.created", entityType: "customer", entityId: customer.id, detail: { name: body.name } });
+    await audit(m, {
+      workshopId,
+      actorUserId: actor.userId,
+      action: "customer.created",
+      entityType: "customer",
+      entityId: customer.id,
+      detail: { name: body.name },
+    });
   });
   return present(customer);
 }

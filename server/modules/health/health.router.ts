@@ -2,7 +2,11 @@ import type { DataSource } from "typeorm";
 import { healthResponseSchema } from "../../../shared/schemas";
 import type { ApiRoutes } from "../../http/routes";
 
-export function registerHealthRoutes(api: ApiRoutes, ds: DataSource, version: string): void {
+export function registerHealthRoutes(
+  api: ApiRoutes,
+  ds: DataSource,
+  version: string,
+): void {
   api.add({
     method: "get",
     path: "/health",
@@ -15,7 +19,11 @@ export function registerHealthRoutes(api: ApiRoutes, ds: DataSource, version: st
         .then(() => true)
         .catch(() => false);
       res.status(up ? 200 : 503);
-      return { status: up ? "ok" : "degraded", database: up ? "up" : "down", version };
+      return {
+        status: up ? "ok" : "degraded",
+        database: up ? "up" : "down",
+        version,
+      };
     },
   });
 }

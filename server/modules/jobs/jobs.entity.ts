@@ -1,8 +1,28 @@
-import { Column, Entity, Index, JoinColumn, ManyToOne, VersionColumn, type Relation } from "typeorm";
-import { CreatedColumn, IdColumn, JsonColumn, LocalDateColumn, RefColumn, TextColumn, UpdatedColumn } from "../../db/columns";
+import {
+  Column,
+  Entity,
+  Index,
+  JoinColumn,
+  ManyToOne,
+  VersionColumn,
+  type Relation,
+} from "typeorm";
+import {
+  CreatedColumn,
+  IdColumn,
+  JsonColumn,
+  LocalDateColumn,
+  RefColumn,
+  TextColumn,
+  UpdatedColumn,
+} from "../../db/columns";
 import { Workshop } from "../workshops/workshops.entity";
 import { Customer } from "../customers/customers.entity";
-import { jobStatuses, type HolidayRegion, type JobStatus } from "../../../shared/schemas";
+import {
+  jobStatuses,
+  type HolidayRegion,
+  type JobStatus,
+} from "../../../shared/schemas";
 
 /** One customer's install at one site. `version` guards the programme against lost updates. */
 @Entity("jobs")
@@ -11,7 +31,8 @@ export class Job {
   @IdColumn() id!: string;
   @RefColumn() workshopId!: string;
   @Index("ix_jobs_customer")
-  @RefColumn() customerId!: string;
+  @RefColumn()
+  customerId!: string;
   @TextColumn(160) title!: string;
   @TextColumn(300) siteAddress!: string;
   @TextColumn(10) postcode!: string;

@@ -1,5 +1,11 @@
 import type { Actor } from "../../policies";
-import type { BookingView, JobDetail, JobSummary, TaskView, ViewerRole } from "../../../shared/schemas";
+import type {
+  BookingView,
+  JobDetail,
+  JobSummary,
+  TaskView,
+  ViewerRole,
+} from "../../../shared/schemas";
 import type { Booking } from "../bookings/bookings.entity";
 import type { Customer } from "../customers/customers.entity";
 import { cautionFor } from "../programme/cautions";
@@ -44,7 +50,10 @@ export function presentJobSummary(
   if (next) {
     const trade = ctx.trades.get(next.tradeId);
     const task = ctx.tasks.get(next.taskId);
-    nextEvent = { date: next.start.slice(0, 10), label: `${trade ? tradeWords[trade.kind] : "Visit"}: ${task?.name ?? "visit"}` };
+    nextEvent = {
+      date: next.start.slice(0, 10),
+      label: `${trade ? tradeWords[trade.kind] : "Visit"}: ${task?.name ?? "visit"}`,
+    };
   } else if (job.handoverDate && job.handoverDate >= today) {
     nextEvent = { date: job.handoverDate, label: "Handover" };
   }
@@ -62,7 +71,8 @@ export function presentJobSummary(
   };
 }
 
-const taskStatus = (t: Task): TaskView["status"] => (t.actualFinish ? "done" : t.actualStart ? "started" : "not-started");
+const taskStatus = (t: Task): TaskView["status"] =>
+  t.actualFinish ? "done" : t.actualStart ? "started" : "not-started";
 
 /** A job as one viewer may see it: trades see their own tasks in full and what those wait on by name only. */
 export function presentJobDetail(
@@ -83,11 +93,25 @@ export function presentJobDetail(
   const trades = new Map(ctx.trades.map((t) => [t.id, t]));
   const visibleBookings = ctx.bookings.filter((b) => {
     if (ctx.full) return true;
-    if (ctx.role === "customer") return ["sent", "confirmed", "date-proposed", "needs-reconfirming"].includes(b.state);
+    if (ctx.role === "customer")
+      return [
+        "sent",
+        "confirmed",
+        "date-proposed",
+        "needs-reconfirming",
+      ].includes(b.state);
     return ctx.actor.trades.has(b.tradeId) && b.state !== "draft";
   });
-  const ownTaskIds = new Set(visibleBookings.filter((b) => ctx.actor.trades.has(b.tradeId)).map((b) => b.taskId));
-  const waitedOn = new Set(ctx.links.filter((l) => ownTaskIds.has(l.toTaskId)).map((l) => l.fromTaskId));
+  const ownTaskIds = new Set(
+    visibleBookings
+      .filter((b) => ctx.actor.trades.has(b.tradeId))
+      .map((b) => b.taskId),
+  );
+  const waitedOn = new Set(
+    ctx.links
+      .filter((l) => ownTaskIds.has(l.toTaskId))
+      .map((l) => l.fromTaskId),
+  );
 
   const tasks: TaskView[] = [];
   for (const t of ctx.tasks) {
@@ -106,7 +130,8 @@ export function presentJobDetail(
             actualFinish: t.actualFinish,
             customerNote: t.customerNote,
             internalNote: ctx.full ? t.internalNote : null,
-            caution: ctx.role === "customer" ? null : cautionFor(t.party, t.hazards),
+            caution:
+              ctx.role === "customer" ? null : cautionFor(t.party, t.hazards),
             sortOrder: t.sortOrder,
           }
         : null,
@@ -131,7 +156,11 @@ export function presentJobDetail(
     };
   });
 
-  const partyTrades = [...new Map(visibleBookings.map((b) => [b.tradeId, trades.get(b.tradeId)!])).values()];
+  const partyTrades = [
+    ...new Map(
+      visibleBookings.map((b) => [b.tradeId, trades.get(b.tradeId)!]),
+    ).values(),
+  ];
   return {
     id: job.id,
     workshopId: job.workshopId,
@@ -168,13 +197,28 @@ export function presentJobDetail(
     ],
     tasks,
     links: ctx.links
-      .filter((l) => ctx.full || (taskIds.has(l.fromTaskId) && taskIds.has(l.toTaskId)))
-      .map((l) => ({ id: l.id, fromTaskId: l.fromTaskId, toTaskId: l.toTaskId, kind: l.kind, lag: Number(l.lag), lagUnit: l.lagUnit })),
+      .filter(
+        (l) =>
+          ctx.full || (taskIds.has(l.fromTaskId) && taskIds.has(l.toTaskId)),
+      )
+      .map((l) => ({
+        id: l.id,
+        fromTaskId: l.fromTaskId,
+        toTaskId: l.toTaskId,
+        kind: l.kind,
+        lag: Number(l.lag),
+        lagUnit: l.lagUnit,
+      })),
     bookings,
   };
 }
 
 /** Today's date in a time zone, as YYYY-MM-DD. */
 export function localToday(timeZone: string, now = new Date()): string {
-  return new Intl.DateTimeFormat("en-CA", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" }).format(now);
+  return new Intl.DateTimeFormat("en-CA", {
+    timeZone,
+    year: "numeric",
+    month: "2-digit",
+    day: "2-digit",
+  }).format(now);
 }

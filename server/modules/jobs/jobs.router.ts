@@ -8,7 +8,13 @@ import {
   updateJobBodySchema,
 } from "../../../shared/schemas";
 import type { ApiRoutes } from "../../http/routes";
-import { createJob, deleteJob, getJob, listJobs, updateJob } from "./jobs.service";
+import {
+  createJob,
+  deleteJob,
+  getJob,
+  listJobs,
+  updateJob,
+} from "./jobs.service";
 
 const jobParams = z.object({ jobId: idSchema });
 const workshopParams = z.object({ workshopId: idSchema });
@@ -40,17 +46,20 @@ export function registerJobRoutes(api: ApiRoutes, ds: DataSource): void {
     body: createJobBodySchema,
     status: 201,
     response: jobDetailSchema,
-    handler: async ({ actor, params, body }) => createJob(ds, actor, params.workshopId, body),
+    handler: async ({ actor, params, body }) =>
+      createJob(ds, actor, params.workshopId, body),
   });
   api.add({
     method: "patch",
     path: "/jobs/:jobId",
     tag: "jobs",
-    summary: "Edit a job's details (carries the version you saw; 409 if it changed)",
+    summary:
+      "Edit a job's details (carries the version you saw; 409 if it changed)",
     params: jobParams,
     body: updateJobBodySchema,
     response: jobDetailSchema,
-    handler: async ({ actor, params, body }) => updateJob(ds, actor, params.jobId, body),
+    handler: async ({ actor, params, body }) =>
+      updateJob(ds, actor, params.jobId, body),
   });
   api.add({
     method: "delete",

@@ -12,10 +12,17 @@ import { Workshop } from "../workshops/workshops.entity";
 import { Job } from "./jobs.entity";
 import { ACTIVE_STATES, jobResource } from "./job-access";
 import { applyStarter } from "../starters/starters.service";
-import { presentJobDetail, presentJobSummary, viewerRoleFor } from "./jobs.presenter";
+import {
+  presentJobDetail,
+  presentJobSummary,
+  viewerRoleFor,
+} from "./jobs.presenter";
 import type { JobDetail, JobSummary } from "../../../shared/schemas";
 import type { z } from "zod";
-import type { createJobBodySchema, updateJobBodySchema } from "../../../shared/schemas";
+import type {
+  createJobBodySchema,
+  updateJobBodySchema,
+} from "../../../shared/schemas";
 
 async function loadJob(ds: DataSource, jobId: string): Promise<Job> {
   const job = await ds.getRepository(Job).findOneBy({ id: jobId });
@@ -24,50 +31,96 @@ async function loadJob(ds: DataSource, jobId: string): Promise<Job> {
 }
 
 /** Every job the actor may see, each with its next event. */
-export async function listJobs(ds: DataSource, actor: Actor | null): Promise<JobSummary[]> {
+export async function listJobs(
+  ds: DataSource,
+  actor: Actor | null,
+): Promise<JobSummary[]> {
   requireActor(actor);
   const memberWorkshops = [...actor.memberships.keys()];
   const tradeIds = [...actor.trades.keys()];
   const customerIds = [...actor.customers.keys()];
   const jobIds = new Set<string>();
   const jobs: Job[] = [];
-  const add = (list: Job[]) => list.forEach((j) => !jobIds.has(j.id) && (jobIds.add(j.id), jobs.push(j)));
-  if (memberWorkshops.length) add(await ds.getRepository(Job).findBy({ workshopId: In(memberWorkshops) }));
-  if (customerIds.length) add(await ds.getRepository(Job).findBy({ customerId: In(customerIds) }));
+  const add = (list: Job[]) =>
+    list.forEach((j) => !jobIds.has(j.id) && (jobIds.add(j.id), jobs.push(j)));
+  if (memberWorkshops.length)
+    add(
+      await ds.getRepository(Job).findBy({ workshopId: In(memberWorkshops) }),
+    );
+  if (customerIds.length)
+    add(await ds.getRepository(Job).findBy({ customerId: In(customerIds) }));
   if (tradeIds.length) {
-    const booked = await ds.getRepository(Booking).findBy({ tradeId: In(tradeIds), state: In(ACTIVE_STATES) });
-    const ids = [...new Set(booked.map((b) => b.jobId))].filter((id) => !jobIds.has(id));
+    const booked = await ds
+      .getRepository(Booking)
+      .findBy({ tradeId: In(tradeIds), state: In(ACTIVE_STATES) });
+    const ids = [...new Set(booked.map((b) => b.jobId))].filter(
+      (id) => !jobIds.has(id),
+    );
     if (ids.length) add(await ds.getRepository(Job).findBy({ id: In(ids) }));
   }
   if (!jobs.length) return [];
   const ids = jobs.map((j) => j.id);
   const [workshops, customers, bookings, tasks, trades] = await Promise.all([
-    ds.getRepository(Workshop).findBy({ id: In([...new Set(jobs.map((j) => j.workshopId))]) }),
-    ds.getRepository(Customer).findBy({ id: In([...new Set(jobs.map((j) => j.customerId))]) }),
-    ds.getRepository(Booking).findBy({ jobId: In(ids), state: In(ACTIVE_STATES) }),
-    ds.getRepository(Task).find({ where: { jobId: In(ids) }, select: { id: true, name: true, party: true } }),
-    ds.getRepository(Trade).find({ where: { workshopId: In([...new Set(jobs.map((j) => j.workshopId))]) }, select: { id: true, businessName: true, kind: true } }),
+    ds
+      .getRepository(Workshop)
+      .findBy({ id: In([...new Set(jobs.map((j) => j.workshopId))]) }),
+    ds
+      .getRepository(Customer)
+      .findBy({ id: In([...new Set(jobs.map((j) => j.customerId))]) }),
+    ds
+      .getRepository(Booking)
+      .findBy({ jobId: In(ids), state: In(ACTIVE_STATES) }),
+    ds
+      .getRepository(Task)
+      .find({
+        where: { jobId: In(ids) },
+        select: { id: true, name: true, party: true },
+      }),
+    ds
+      .getRepository(Trade)
+      .find({
+        where: { workshopId: In([...new Set(jobs.map((j) => j.workshopId))]) },
+        select: { id: true, businessName: true, kind: true },
+      }),
   ]);
-  const byId = <T extends { id: string }>(xs: T[]) => new Map(xs.map((x) => [x.id, x]));
-  const ws = byId(workshops), cs = byId(customers), ts = byId(tasks), trs = byId(trades);
+  const byId = <T extends { id: string }>(xs: T[]) =>
+    new Map(xs.map((x) => [x.id, x]));
+  const ws = byId(workshops),
+    cs = byId(customers),
+    ts = byId(tasks),
+    trs = byId(trades);
   return jobs
     .map((job) => {
       const role = viewerRoleFor(actor, job);
-      const visible = bookings.filter((b) => b.jobId === job.id && (role !== "trade" || actor.trades.has(b.tradeId)));
+      const visible = bookings.filter(
+        (b) =>
+          b.jobId === job.id &&
+          (role !== "trade" || actor.trades.has(b.tradeId)),
+      );
       return presentJobSummary(job, {
         role,
         workshopName: ws.get(job.workshopId)?.name ?? "",
-        customerName: role === "trade" ? null : (cs.get(job.customerId)?.name ?? null),
+        customerName:
+          role === "trade" ? null : (cs.get(job.customerId)?.name ?? null),
         bookings: visible,
         tasks: ts,
         trades: trs,
       });
     })
-    .sort((a, b) => (a.nextEvent?.date ?? "9999").localeCompare(b.nextEvent?.date ?? "9999") || a.title.localeCompare(b.title));
+    .sort(
+      (a, b) =>
+        (a.nextEvent?.date ?? "9999").localeCompare(
+          b.nextEvent?.date ?? "9999",
+        ) || a.title.localeCompare(b.title),
+    );
 }
 
 /** One job as the actor may see it (404 if they may not see it at all). */
-export async function getJob(ds: DataSource, actor: Actor | null, jobId: string): Promise<JobDetail> {
+export async function getJob(
+  ds: DataSource,
+  actor: Actor | null,
+  jobId: string,
+): Promise<JobDetail> {
   requireActor(actor);
   const job = await loadJob(ds, jobId);
   const resource = await jobResource(ds, job);
@@ -75,11 +128,19 @@ export async function getJob(ds: DataSource, actor: Actor | null, jobId: string)
   const [workshop, customer, tasks, links, bookings] = await Promise.all([
     ds.getRepository(Workshop).findOneByOrFail({ id: job.workshopId }),
     ds.getRepository(Customer).findOneByOrFail({ id: job.customerId }),
-    ds.getRepository(Task).find({ where: { jobId }, order: { sortOrder: "ASC" } }),
+    ds
+      .getRepository(Task)
+      .find({ where: { jobId }, order: { sortOrder: "ASC" } }),
     ds.getRepository(TaskLink).findBy({ jobId }),
-    ds.getRepository(Booking).find({ where: { jobId }, order: { start: "ASC" } }),
+    ds
+      .getRepository(Booking)
+      .find({ where: { jobId }, order: { start: "ASC" } }),
   ]);
-  const trades = bookings.length ? await ds.getRepository(Trade).findBy({ id: In([...new Set(bookings.map((b) => b.tradeId))]) }) : [];
+  const trades = bookings.length
+    ? await ds
+        .getRepository(Trade)
+        .findBy({ id: In([...new Set(bookings.map((b) => b.tradeId))]) })
+    : [];
   return presentJobDetail(job, {
     actor,
     full: can(actor, "job.readFull", resource),
@@ -102,14 +163,36 @@ export async function createJob(
   body: z.output<typeof createJobBodySchema>,
 ): Promise<JobDetail> {
   authorize(actor, "jobs.create", { kind: "workshop", workshopId });
-  const customer = await ds.getRepository(Customer).findOneBy({ id: body.customerId, workshopId });
-  if (!customer) throw new HttpError(422, "unprocessable", "That customer is not one of this workshop's.", { customerId: ["Choose one of the workshop's customers"] });
+  const customer = await ds
+    .getRepository(Customer)
+    .findOneBy({ id: body.customerId, workshopId });
+  if (!customer)
+    throw new HttpError(
+      422,
+      "unprocessable",
+      "That customer is not one of this workshop's.",
+      { customerId: ["Choose one of the workshop's customers"] },
+    );
   const id = newId();
   const { starterId, ...fields } = body;
   await ds.transaction(async (m) => {
-    await m.insert(Job, { id, workshopId, ...fields, siteClosedDates: [], version: 1 });
-    if (starterId) await applyStarter(m, await m.findOneByOrFail(Job, { id }), starterId);
-    await audit(m, { workshopId, actorUserId: actor.userId, action: "job.created", entityType: "job", entityId: id, detail: { title: body.title } });
+    await m.insert(Job, {
+      id,
+      workshopId,
+      ...fields,
+      siteClosedDates: [],
+      version: 1,
+    });
+    if (starterId)
+      await applyStarter(m, await m.findOneByOrFail(Job, { id }), starterId);
+    await audit(m, {
+      workshopId,
+      actorUserId: actor.userId,
+      action: "job.created",
+      entityType: "job",
+      entityId: id,
+      detail: { title: body.title },
+    });
   });
   return getJob(ds, actor, id);
 }
@@ -135,20 +218,42 @@ export async function updateJob(
       .execute();
     if (result.affected !== 1) {
       const current = await m.findOneByOrFail(Job, { id: jobId });
-      throw new HttpError(409, "version-conflict", `Someone else changed this job (now version ${current.version}, you had ${version}). Reload to see their changes, then try again.`);
+      throw new HttpError(
+        409,
+        "version-conflict",
+        `Someone else changed this job (now version ${current.version}, you had ${version}). Reload to see their changes, then try again.`,
+      );
     }
-    await audit(m, { workshopId: job.workshopId, actorUserId: actor.userId, action: "job.updated", entityType: "job", entityId: jobId, detail: { changes, fromVersion: version } });
+    await audit(m, {
+      workshopId: job.workshopId,
+      actorUserId: actor.userId,
+      action: "job.updated",
+      entityType: "job",
+      entityId: jobId,
+      detail: { changes, fromVersion: version },
+    });
   });
   return getJob(ds, actor, jobId);
 }
 
 /** Deletes a job and everything in it (owner only). */
-export async function deleteJob(ds: DataSource, actor: Actor | null, jobId: string): Promise<void> {
+export async function deleteJob(
+  ds: DataSource,
+  actor: Actor | null,
+  jobId: string,
+): Promise<void> {
   requireActor(actor);
   const job = await loadJob(ds, jobId);
   authorize(actor, "job.delete", await jobResource(ds, job));
   await ds.transaction(async (m) => {
     await m.delete(Job, { id: jobId });
-    await audit(m, { workshopId: job.workshopId, actorUserId: actor.userId, action: "job.deleted", entityType: "job", entityId: jobId, detail: { title: job.title } });
+    await audit(m, {
+      workshopId: job.workshopId,
+      actorUserId: actor.userId,
+      action: "job.deleted",
+      entityType: "job",
+      entityId: jobId,
+      detail: { title: job.title },
+    });
   });
 }

@@ -13,9 +13,15 @@ const cautions: Record<Hazard, string> = {
 };
 
 /** The caution text for a task, from its hazards (electrical work is always flagged). */
-export function cautionFor(party: Party, hazards: readonly Hazard[]): string | null {
+export function cautionFor(
+  party: Party,
+  hazards: readonly Hazard[],
+): string | null {
   const all = new Set<Hazard>(hazards);
   if (party === "electrician") all.add("electrical");
   if (all.size === 0) return null;
-  return [...all].map((h) => cautions[h]).join(" ") + " Sitecue plans work; it does not certify it.";
+  return (
+    [...all].map((h) => cautions[h]).join(" ") +
+    " Sitecue plans work; it does not certify it."
+  );
 }

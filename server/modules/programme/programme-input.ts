@@ -1,5 +1,10 @@
 import { In, Not, type EntityManager } from "typeorm";
-import type { BusyInput, CalendarInput, ProgrammeInput, TaskInput } from "../../../shared/programme";
+import type {
+  BusyInput,
+  CalendarInput,
+  ProgrammeInput,
+  TaskInput,
+} from "../../../shared/programme";
 import { Booking } from "../bookings/bookings.entity";
 import type { Job } from "../jobs/jobs.entity";
 import { localToday } from "../jobs/jobs.presenter";
@@ -8,7 +13,12 @@ import type { Workshop } from "../workshops/workshops.entity";
 import { Task, TaskLink } from "./programme.entity";
 
 /** Booking states that hold the trade's dates: the engine treats them as pins. */
-export const PINNING_STATES = ["sent", "confirmed", "date-proposed", "needs-reconfirming"] as const;
+export const PINNING_STATES = [
+  "sent",
+  "confirmed",
+  "date-proposed",
+  "needs-reconfirming",
+] as const;
 
 export interface ProgrammeData {
   tasks: Task[];
@@ -26,18 +36,35 @@ export interface ProgrammeData {
  * booked trade task when that trade and the site do; an unbooked trade task on the site's days.
  * Busy intervals: the booked trades' other bookings on every other job of the workshop.
  */
-export async function loadProgramme(m: EntityManager, job: Job, workshop: Workshop, now = new Date()): Promise<ProgrammeData> {
+export async function loadProgramme(
+  m: EntityManager,
+  job: Job,
+  workshop: Workshop,
+  now = new Date(),
+): Promise<ProgrammeData> {
   const [tasks, links, bookings] = await Promise.all([
     m.find(Task, { where: { jobId: job.id }, order: { sortOrder: "ASC" } }),
     m.find(TaskLink, { where: { jobId: job.id } }),
-    m.find(Booking, { where: { jobId: job.id, state: In([...PINNING_STATES]) }, order: { updatedAt: "ASC" } }),
+    m.find(Booking, {
+      where: { jobId: job.id, state: In([...PINNING_STATES]) },
+      order: { updatedAt: "ASC" },
+    }),
   ]);
   const bookingByTask = new Map(bookings.map((b) => [b.taskId, b]));
   const tradeIds = [...new Set(bookings.map((b) => b.tradeId))];
-  const tradeList = tradeIds.length ? await m.findBy(Trade, { id: In(tradeIds) }) : [];
+  const tradeList = tradeIds.length
+    ? await m.findBy(Trade, { id: In(tradeIds) })
+    : [];
   const trades = new Map(tradeList.map((t) => [t.id, t]));
   const others = tradeIds.length
-    ? await m.find(Booking, { where: { tradeId: In(tradeIds), jobId: Not(job.id), state: In([...PINNING_STATES]) }, relations: { job: true } })
+    ? await m.find(Booking, {
+        where: {
+          tradeId: In(tradeIds),
+          jobId: Not(job.id),
+          state: In([...PINNING_STATES]),
+        },
+        relations: { job: true },
+      })
     : [];
 
   // Resource ids double as the name in clash messages ("Ashby Plaster & Coving is already booked …").
@@ -51,8 +78,22 @@ export async function loadProgramme(m: EntityManager, job: Job, workshop: Worksh
   }
 
   const calendars: CalendarInput[] = [
-    { id: "workshop", workingWeekdays: workshop.workingWeekdays, dayStart: workshop.dayStart, dayEnd: workshop.dayEnd, holidayRegion: workshop.holidayRegion, daysOff: [] },
-    { id: "site", workingWeekdays: job.siteWeekdays, dayStart: workshop.dayStart, dayEnd: workshop.dayEnd, holidayRegion: job.holidayRegion, daysOff: job.siteClosedDates },
+    {
+      id: "workshop",
+      workingWeekdays: workshop.workingWeekdays,
+      dayStart: workshop.dayStart,
+      dayEnd: workshop.dayEnd,
+      holidayRegion: workshop.holidayRegion,
+      daysOff: [],
+    },
+    {
+      id: "site",
+      workingWeekdays: job.siteWeekdays,
+      dayStart: workshop.dayStart,
+      dayEnd: workshop.dayEnd,
+      holidayRegion: job.holidayRegion,
+      daysOff: job.siteClosedDates,
+    },
     ...tradeList.map((t) => ({
       id: `trade:${t.id}`,
       workingWeekdays: t.workingWeekdays,
@@ -65,7 +106,12 @@ export async function loadProgramme(m: EntityManager, job: Job, workshop: Worksh
 
   const taskInputs: TaskInput[] = tasks.map((t) => {
     const booking = bookingByTask.get(t.id);
-    const calendar = t.party === "workshop" ? ["workshop", "site"] : booking ? [`trade:${booking.tradeId}`, "site"] : ["site"];
+    const calendar =
+      t.party === "workshop"
+        ? ["workshop", "site"]
+        : booking
+          ? [`trade:${booking.tradeId}`, "site"]
+          : ["site"];
     return {
       id: t.id,
       name: t.name,
@@ -92,7 +138,13 @@ export async function loadProgramme(m: EntityManager, job: Job, workshop: Worksh
     handover: job.handoverDate,
     calendars,
     tasks: taskInputs,
-    links: links.map((l) => ({ from: l.fromTaskId, to: l.toTaskId, kind: l.kind, lag: Number(l.lag), lagUnit: l.lagUnit })),
+    links: links.map((l) => ({
+      from: l.fromTaskId,
+      to: l.toTaskId,
+      kind: l.kind,
+      lag: Number(l.lag),
+      lagUnit: l.lagUnit,
+    })),
     busy,
   };
   return { tasks, links, bookingByTask, trades, input };

@@ -1,4 +1,11 @@
-import { Column, Entity, Index, JoinColumn, ManyToOne, type Relation } from "typeorm";
+import {
+  Column,
+  Entity,
+  Index,
+  JoinColumn,
+  ManyToOne,
+  type Relation,
+} from "typeorm";
 import {
   CreatedColumn,
   IdColumn,
@@ -20,7 +27,8 @@ export type Hazard = (typeof hazardKinds)[number];
 export class Task {
   @IdColumn() id!: string;
   @Index("ix_tasks_workshop")
-  @RefColumn() workshopId!: string;
+  @RefColumn()
+  workshopId!: string;
   @RefColumn() jobId!: string;
   @TextColumn(160) name!: string;
   @Column({ type: "enum", enum: partySchema.options }) party!: Party;
@@ -51,13 +59,16 @@ export class TaskLink {
   @IdColumn() id!: string;
   @RefColumn() workshopId!: string;
   @Index("ix_task_links_job")
-  @RefColumn() jobId!: string;
+  @RefColumn()
+  jobId!: string;
   @RefColumn() fromTaskId!: string;
   @Index("ix_task_links_to")
-  @RefColumn() toTaskId!: string;
+  @RefColumn()
+  toTaskId!: string;
   @Column({ type: "enum", enum: ["FS", "SS", "FF"] }) kind!: "FS" | "SS" | "FF";
   @Column({ type: "decimal", precision: 6, scale: 1 }) lag!: string;
-  @Column({ type: "enum", enum: ["workingDays", "elapsedHours"] }) lagUnit!: "workingDays" | "elapsedHours";
+  @Column({ type: "enum", enum: ["workingDays", "elapsedHours"] }) lagUnit!:
+    "workingDays" | "elapsedHours";
   @CreatedColumn() createdAt!: Date;
 
   @ManyToOne(() => Job, { onDelete: "CASCADE" })

@@ -37,13 +37,19 @@ export function schedule(input: ProgrammeInput): ProgrammeResult {
     return scheduleProgramme(input);
   } catch (err) {
     if (err instanceof ProgrammeInputError) {
-      throw new HttpError(422, "unprocessable", err.problems.join(" "), { programme: err.problems });
+      throw new HttpError(422, "unprocessable", err.problems.join(" "), {
+        programme: err.problems,
+      });
     }
     throw err;
   }
 }
 
-function present(job: Job, data: ProgrammeData, result: ProgrammeResult): ProgrammeResponse {
+function present(
+  job: Job,
+  data: ProgrammeData,
+  result: ProgrammeResult,
+): ProgrammeResponse {
   return {
     jobId: job.id,
     version: job.version,
@@ -66,47 +72,87 @@ function present(job: Job, data: ProgrammeData, result: ProgrammeResult): Progra
         hazards: t.hazards,
         caution: cautionFor(t.party, t.hazards),
         booking: b
-          ? { id: b.id, tradeId: b.tradeId, tradeName: data.trades.get(b.tradeId)?.businessName ?? "", state: b.state, start: b.start, finish: b.finish }
+          ? {
+              id: b.id,
+              tradeId: b.tradeId,
+              tradeName: data.trades.get(b.tradeId)?.businessName ?? "",
+              state: b.state,
+              start: b.start,
+              finish: b.finish,
+            }
           : null,
       };
     }),
-    links: data.links.map((l) => ({ id: l.id, fromTaskId: l.fromTaskId, toTaskId: l.toTaskId, kind: l.kind, lag: Number(l.lag), lagUnit: l.lagUnit })),
+    links: data.links.map((l) => ({
+      id: l.id,
+      fromTaskId: l.fromTaskId,
+      toTaskId: l.toTaskId,
+      kind: l.kind,
+      lag: Number(l.lag),
+      lagUnit: l.lagUnit,
+    })),
     input: data.input as unknown as Record<string, unknown>,
     result,
   };
 }
 
-async function loadJob(m: EntityManager, jobId: string, lock: boolean): Promise<Job> {
-  const job = await m.findOne(Job, { where: { id: jobId }, ...(lock ? { lock: { mode: "pessimistic_write" as const } } : {}) });
+async function loadJob(
+  m: EntityManager,
+  jobId: string,
+  lock: boolean,
+): Promise<Job> {
+  const job = await m.findOne(Job, {
+    where: { id: jobId },
+    ...(lock ? { lock: { mode: "pessimistic_write" as const } } : {}),
+  });
   if (!job) throw notFound("That job");
   return job;
 }
 
 /** The job's computed programme (workshop members). */
-export async function getProgramme(ds: DataSource, actor: Actor | null, jobId: string): Promise<ProgrammeResponse> {
+export async function getProgramme(
+  ds: DataSource,
+  actor: Actor | null,
+  jobId: string,
+): Promise<ProgrammeResponse> {
   requireActor(actor);
   const job = await loadJob(ds.manager, jobId, false);
   authorize(actor, "job.readFull", await jobResource(ds, job));
-  const workshop = await ds.manager.findOneByOrFail(Workshop, { id: job.workshopId });
+  const workshop = await ds.manager.findOneByOrFail(Workshop, {
+    id: job.workshopId,
+  });
   const data = await loadProgramme(ds.manager, job, workshop);
   return present(job, data, schedule(data.input));
 }
 
 /** Says who changed the programme since the version the editor saw, for the 409 message. */
-async function changesSince(m: EntityManager, job: Job, version: number): Promise<string> {
+async function changesSince(
+  m: EntityManager,
+  job: Job,
+  version: number,
+): Promise<string> {
   const entries = await m
     .createQueryBuilder(AuditEntry, "a")
     .where("a.workshopId = :w", { w: job.workshopId })
-    .andWhere("JSON_UNQUOTE(JSON_EXTRACT(a.detail, '$.jobId')) = :j", { j: job.id })
+    .andWhere("JSON_UNQUOTE(JSON_EXTRACT(a.detail, '$.jobId')) = :j", {
+      j: job.id,
+    })
     .andWhere("JSON_EXTRACT(a.detail, '$.toVersion') > :v", { v: version })
     .orderBy("a.createdAt", "ASC")
     .limit(5)
     .getMany();
   const names = new Map<string, string>();
   for (const e of entries) {
-    if (e.actorUserId && !names.has(e.actorUserId)) names.set(e.actorUserId, (await m.findOneBy(User, { id: e.actorUserId }))?.name ?? "Someone");
+    if (e.actorUserId && !names.has(e.actorUserId))
+      names.set(
+        e.actorUserId,
+        (await m.findOneBy(User, { id: e.actorUserId }))?.name ?? "Someone",
+      );
   }
-  const what = entries.map((e) => `${names.get(e.actorUserId ?? "") ?? "Someone"} ${String(e.detail.summary ?? e.action)}`);
+  const what = entries.map(
+    (e) =>
+      `${names.get(e.actorUserId ?? "") ?? "Someone"} ${String(e.detail.summary ?? e.action)}`,
+  );
   return what.length ? ` Since you loaded it: ${what.join("; ")}.` : "";
 }
 
@@ -128,116 +174,305 @@ async function editProgramme<T>(
     const job = await loadJob(m, jobId, true);
     authorize(actor, "job.update", await jobResource(ds, job));
     if (job.version !== version) {
-      throw new HttpError(409, "version-conflict", `Someone else changed this programme (now version ${job.version}, you had ${version}).${await changesSince(m, job, version)} Reload to see it, then make your change again.`);
+      throw new HttpError(
+        409,
+        "version-conflict",
+        `Someone else changed this programme (now version ${job.version}, you had ${version}).${await changesSince(m, job, version)} Reload to see it, then make your change again.`,
+      );
     }
     const value = await apply(m, job);
     const workshop = await m.findOneByOrFail(Workshop, { id: job.workshopId });
     schedule((await loadProgramme(m, job, workshop)).input);
     await m.update(Job, { id: job.id }, { version: job.version + 1 });
     job.version += 1;
-    await audit(m, { workshopId: job.workshopId, actorUserId: actor.userId, action: "programme.changed", entityType: "job", entityId: job.id, detail: { jobId: job.id, toVersion: job.version, summary } });
+    await audit(m, {
+      workshopId: job.workshopId,
+      actorUserId: actor.userId,
+      action: "programme.changed",
+      entityType: "job",
+      entityId: job.id,
+      detail: { jobId: job.id, toVersion: job.version, summary },
+    });
     return { value, job };
   });
 }
 
-async function taskOf(m: EntityManager, job: Job, taskId: string): Promise<Task> {
+async function taskOf(
+  m: EntityManager,
+  job: Job,
+  taskId: string,
+): Promise<Task> {
   const task = await m.findOneBy(Task, { id: taskId, jobId: job.id });
   if (!task) throw notFound("That task");
   return task;
 }
 
-export async function createTask(ds: DataSource, actor: Actor | null, jobId: string, body: z.output<typeof createTaskBodySchema>) {
+export async function createTask(
+  ds: DataSource,
+  actor: Actor | null,
+  jobId: string,
+  body: z.output<typeof createTaskBodySchema>,
+) {
   const { version, ...fields } = body;
-  const { value } = await editProgramme(ds, actor, jobId, version, `added "${fields.name}"`, async (m, job) => {
-    const max = await m.createQueryBuilder(Task, "t").select("MAX(t.sortOrder)", "max").where("t.jobId = :j", { j: job.id }).getRawOne<{ max: number | null }>();
-    const id = newId();
-    await m.insert(Task, { id, workshopId: job.workshopId, jobId: job.id, ...fields, durationDays: String(fields.durationDays), actualStart: null, actualFinish: null, sortOrder: (max?.max ?? 0) + 1 });
-    return id;
-  });
+  const { value } = await editProgramme(
+    ds,
+    actor,
+    jobId,
+    version,
+    `added "${fields.name}"`,
+    async (m, job) => {
+      const max = await m
+        .createQueryBuilder(Task, "t")
+        .select("MAX(t.sortOrder)", "max")
+        .where("t.jobId = :j", { j: job.id })
+        .getRawOne<{ max: number | null }>();
+      const id = newId();
+      await m.insert(Task, {
+        id,
+        workshopId: job.workshopId,
+        jobId: job.id,
+        ...fields,
+        durationDays: String(fields.durationDays),
+        actualStart: null,
+        actualFinish: null,
+        sortOrder: (max?.max ?? 0) + 1,
+      });
+      return id;
+    },
+  );
   return { taskId: value, programme: await getProgramme(ds, actor, jobId) };
 }
 
-export async function updateTask(ds: DataSource, actor: Actor | null, jobId: string, taskId: string, body: z.output<typeof updateTaskBodySchema>) {
+export async function updateTask(
+  ds: DataSource,
+  actor: Actor | null,
+  jobId: string,
+  taskId: string,
+  body: z.output<typeof updateTaskBodySchema>,
+) {
   const { version, ...fields } = body;
-  await editProgramme(ds, actor, jobId, version, "edited a task", async (m, job) => {
-    const task = await taskOf(m, job, taskId);
-    const { durationDays, ...rest } = fields;
-    await m.update(Task, { id: task.id }, { ...rest, ...(durationDays !== undefined ? { durationDays: String(durationDays) } : {}) });
-  });
+  await editProgramme(
+    ds,
+    actor,
+    jobId,
+    version,
+    "edited a task",
+    async (m, job) => {
+      const task = await taskOf(m, job, taskId);
+      const { durationDays, ...rest } = fields;
+      await m.update(
+        Task,
+        { id: task.id },
+        {
+          ...rest,
+          ...(durationDays !== undefined
+            ? { durationDays: String(durationDays) }
+            : {}),
+        },
+      );
+    },
+  );
   return getProgramme(ds, actor, jobId);
 }
 
-export async function deleteTask(ds: DataSource, actor: Actor | null, jobId: string, taskId: string, version: number) {
-  await editProgramme(ds, actor, jobId, version, "removed a task", async (m, job) => {
-    const task = await taskOf(m, job, taskId);
-    await m.delete(Task, { id: task.id });
-  });
+export async function deleteTask(
+  ds: DataSource,
+  actor: Actor | null,
+  jobId: string,
+  taskId: string,
+  version: number,
+) {
+  await editProgramme(
+    ds,
+    actor,
+    jobId,
+    version,
+    "removed a task",
+    async (m, job) => {
+      const task = await taskOf(m, job, taskId);
+      await m.delete(Task, { id: task.id });
+    },
+  );
   return getProgramme(ds, actor, jobId);
 }
 
-export async function reorderTasks(ds: DataSource, actor: Actor | null, jobId: string, body: z.output<typeof reorderBodySchema>) {
-  await editProgramme(ds, actor, jobId, body.version, "reordered the tasks", async (m, job) => {
-    const tasks = await m.findBy(Task, { jobId: job.id });
-    const ids = new Set(tasks.map((t) => t.id));
-    if (body.taskIds.length !== ids.size || !body.taskIds.every((id) => ids.has(id)) || new Set(body.taskIds).size !== ids.size) {
-      throw new HttpError(422, "unprocessable", "List every task of the job exactly once.", { taskIds: ["List every task of the job exactly once"] });
-    }
-    for (const [i, id] of body.taskIds.entries()) await m.update(Task, { id }, { sortOrder: i + 1 });
-  });
+export async function reorderTasks(
+  ds: DataSource,
+  actor: Actor | null,
+  jobId: string,
+  body: z.output<typeof reorderBodySchema>,
+) {
+  await editProgramme(
+    ds,
+    actor,
+    jobId,
+    body.version,
+    "reordered the tasks",
+    async (m, job) => {
+      const tasks = await m.findBy(Task, { jobId: job.id });
+      const ids = new Set(tasks.map((t) => t.id));
+      if (
+        body.taskIds.length !== ids.size ||
+        !body.taskIds.every((id) => ids.has(id)) ||
+        new Set(body.taskIds).size !== ids.size
+      ) {
+        throw new HttpError(
+          422,
+          "unprocessable",
+          "List every task of the job exactly once.",
+          { taskIds: ["List every task of the job exactly once"] },
+        );
+      }
+      for (const [i, id] of body.taskIds.entries())
+        await m.update(Task, { id }, { sortOrder: i + 1 });
+    },
+  );
   return getProgramme(ds, actor, jobId);
 }
 
-export async function createLink(ds: DataSource, actor: Actor | null, jobId: string, body: z.output<typeof createLinkBodySchema>) {
+export async function createLink(
+  ds: DataSource,
+  actor: Actor | null,
+  jobId: string,
+  body: z.output<typeof createLinkBodySchema>,
+) {
   const { version, ...fields } = body;
-  await editProgramme(ds, actor, jobId, version, "added a link", async (m, job) => {
-    await taskOf(m, job, fields.fromTaskId);
-    await taskOf(m, job, fields.toTaskId);
-    if (await m.findOneBy(TaskLink, { fromTaskId: fields.fromTaskId, toTaskId: fields.toTaskId })) {
-      throw new HttpError(409, "conflict", "That task already waits for this one; edit the existing link instead.", { fromTaskId: ["Already linked"] });
-    }
-    await m.insert(TaskLink, { id: newId(), workshopId: job.workshopId, jobId: job.id, ...fields, lag: String(fields.lag) });
-  });
+  await editProgramme(
+    ds,
+    actor,
+    jobId,
+    version,
+    "added a link",
+    async (m, job) => {
+      await taskOf(m, job, fields.fromTaskId);
+      await taskOf(m, job, fields.toTaskId);
+      if (
+        await m.findOneBy(TaskLink, {
+          fromTaskId: fields.fromTaskId,
+          toTaskId: fields.toTaskId,
+        })
+      ) {
+        throw new HttpError(
+          409,
+          "conflict",
+          "That task already waits for this one; edit the existing link instead.",
+          { fromTaskId: ["Already linked"] },
+        );
+      }
+      await m.insert(TaskLink, {
+        id: newId(),
+        workshopId: job.workshopId,
+        jobId: job.id,
+        ...fields,
+        lag: String(fields.lag),
+      });
+    },
+  );
   return getProgramme(ds, actor, jobId);
 }
 
-export async function updateLink(ds: DataSource, actor: Actor | null, jobId: string, linkId: string, body: z.output<typeof updateLinkBodySchema>) {
+export async function updateLink(
+  ds: DataSource,
+  actor: Actor | null,
+  jobId: string,
+  linkId: string,
+  body: z.output<typeof updateLinkBodySchema>,
+) {
   const { version, ...fields } = body;
-  await editProgramme(ds, actor, jobId, version, "edited a link", async (m, job) => {
-    const link = await m.findOneBy(TaskLink, { id: linkId, jobId: job.id });
-    if (!link) throw notFound("That link");
-    const lagUnit = fields.lagUnit ?? link.lagUnit;
-    const lag = fields.lag ?? Number(link.lag);
-    if (lagUnit === "workingDays" && !Number.isInteger(lag * 2)) {
-      throw new HttpError(400, "validation", "Working-day lags go in whole or half days.", { lag: ["Working-day lags go in whole or half days"] });
-    }
-    await m.update(TaskLink, { id: link.id }, { kind: fields.kind ?? link.kind, lagUnit, lag: String(lag) });
-  });
+  await editProgramme(
+    ds,
+    actor,
+    jobId,
+    version,
+    "edited a link",
+    async (m, job) => {
+      const link = await m.findOneBy(TaskLink, { id: linkId, jobId: job.id });
+      if (!link) throw notFound("That link");
+      const lagUnit = fields.lagUnit ?? link.lagUnit;
+      const lag = fields.lag ?? Number(link.lag);
+      if (lagUnit === "workingDays" && !Number.isInteger(lag * 2)) {
+        throw new HttpError(
+          400,
+          "validation",
+          "Working-day lags go in whole or half days.",
+          { lag: ["Working-day lags go in whole or half days"] },
+        );
+      }
+      await m.update(
+        TaskLink,
+        { id: link.id },
+        { kind: fields.kind ?? link.kind, lagUnit, lag: String(lag) },
+      );
+    },
+  );
   return getProgramme(ds, actor, jobId);
 }
 
-export async function deleteLink(ds: DataSource, actor: Actor | null, jobId: string, linkId: string, version: number) {
-  await editProgramme(ds, actor, jobId, version, "removed a link", async (m, job) => {
-    const link = await m.findOneBy(TaskLink, { id: linkId, jobId: job.id });
-    if (!link) throw notFound("That link");
-    await m.delete(TaskLink, { id: link.id });
-  });
+export async function deleteLink(
+  ds: DataSource,
+  actor: Actor | null,
+  jobId: string,
+  linkId: string,
+  version: number,
+) {
+  await editProgramme(
+    ds,
+    actor,
+    jobId,
+    version,
+    "removed a link",
+    async (m, job) => {
+      const link = await m.findOneBy(TaskLink, { id: linkId, jobId: job.id });
+      if (!link) throw notFound("That link");
+      await m.delete(TaskLink, { id: link.id });
+    },
+  );
   return getProgramme(ds, actor, jobId);
 }
 
 /** Marks a task started or done (or undoes it) with its actual dates. */
-export async function recordProgress(ds: DataSource, actor: Actor | null, jobId: string, taskId: string, body: z.output<typeof progressBodySchema>) {
-  const state = body.actualFinish ? "done" : body.actualStart ? "started" : "not started";
-  await editProgramme(ds, actor, jobId, body.version, `marked a task ${state}`, async (m, job) => {
-    const task = await taskOf(m, job, taskId);
-    await m.update(Task, { id: task.id }, { actualStart: body.actualStart, actualFinish: body.actualFinish });
-  });
+export async function recordProgress(
+  ds: DataSource,
+  actor: Actor | null,
+  jobId: string,
+  taskId: string,
+  body: z.output<typeof progressBodySchema>,
+) {
+  const state = body.actualFinish
+    ? "done"
+    : body.actualStart
+      ? "started"
+      : "not started";
+  await editProgramme(
+    ds,
+    actor,
+    jobId,
+    body.version,
+    `marked a task ${state}`,
+    async (m, job) => {
+      const task = await taskOf(m, job, taskId);
+      await m.update(
+        Task,
+        { id: task.id },
+        { actualStart: body.actualStart, actualFinish: body.actualFinish },
+      );
+    },
+  );
   return getProgramme(ds, actor, jobId);
 }
 
-function withChanges(input: ProgrammeInput, changes: ProgrammeChange[]): ProgrammeInput {
+function withChanges(
+  input: ProgrammeInput,
+  changes: ProgrammeChange[],
+): ProgrammeInput {
   const byId = new Map(changes.map((c) => [c.taskId, c]));
   for (const c of changes) {
-    if (!input.tasks.some((t) => t.id === c.taskId)) throw new HttpError(404, "not-found", "A task in the change is not in this programme.");
+    if (!input.tasks.some((t) => t.id === c.taskId))
+      throw new HttpError(
+        404,
+        "not-found",
+        "A task in the change is not in this programme.",
+      );
   }
   return {
     ...input,
@@ -246,18 +481,32 @@ function withChanges(input: ProgrammeInput, changes: ProgrammeChange[]): Program
       if (!c) return t;
       return {
         ...t,
-        ...(c.notEarlierThan !== undefined ? { notEarlierThan: c.notEarlierThan } : {}),
-        ...(c.durationDays !== undefined ? { durationDays: c.durationDays } : {}),
+        ...(c.notEarlierThan !== undefined
+          ? { notEarlierThan: c.notEarlierThan }
+          : {}),
+        ...(c.durationDays !== undefined
+          ? { durationDays: c.durationDays }
+          : {}),
       };
     }),
   };
 }
 
 /** What a proposed change would do, computed by the server without saving anything. */
-export async function previewChange(ds: DataSource, actor: Actor | null, jobId: string, version: number, changes: ProgrammeChange[]): Promise<{ impact: Impact; result: ProgrammeResult }> {
+export async function previewChange(
+  ds: DataSource,
+  actor: Actor | null,
+  jobId: string,
+  version: number,
+  changes: ProgrammeChange[],
+): Promise<{ impact: Impact; result: ProgrammeResult }> {
   const current = await getProgramme(ds, actor, jobId);
   if (current.version !== version) {
-    throw new HttpError(409, "version-conflict", `Someone else changed this programme (now version ${current.version}, you had ${version}). Reload to see it.`);
+    throw new HttpError(
+      409,
+      "version-conflict",
+      `Someone else changed this programme (now version ${current.version}, you had ${version}). Reload to see it.`,
+    );
   }
   const before = current.input as unknown as ProgrammeInput;
   const after = withChanges(before, changes);
@@ -265,17 +514,42 @@ export async function previewChange(ds: DataSource, actor: Actor | null, jobId: 
 }
 
 /** Applies a previewed change; the server recomputes the impact itself (a client preview is never trusted). */
-export async function applyChange(ds: DataSource, actor: Actor | null, jobId: string, version: number, changes: ProgrammeChange[]) {
-  const before = (await getProgramme(ds, actor, jobId)).input as unknown as ProgrammeInput;
-  await editProgramme(ds, actor, jobId, version, `moved ${changes.length === 1 ? "a task" : `${changes.length} tasks`}`, async (m, job) => {
-    for (const c of changes) {
-      const task = await taskOf(m, job, c.taskId);
-      await m.update(Task, { id: task.id }, {
-        ...(c.notEarlierThan !== undefined ? { notEarlierThan: c.notEarlierThan } : {}),
-        ...(c.durationDays !== undefined ? { durationDays: String(c.durationDays) } : {}),
-      });
-    }
-  });
+export async function applyChange(
+  ds: DataSource,
+  actor: Actor | null,
+  jobId: string,
+  version: number,
+  changes: ProgrammeChange[],
+) {
+  const before = (await getProgramme(ds, actor, jobId))
+    .input as unknown as ProgrammeInput;
+  await editProgramme(
+    ds,
+    actor,
+    jobId,
+    version,
+    `moved ${changes.length === 1 ? "a task" : `${changes.length} tasks`}`,
+    async (m, job) => {
+      for (const c of changes) {
+        const task = await taskOf(m, job, c.taskId);
+        await m.update(
+          Task,
+          { id: task.id },
+          {
+            ...(c.notEarlierThan !== undefined
+              ? { notEarlierThan: c.notEarlierThan }
+              : {}),
+            ...(c.durationDays !== undefined
+              ? { durationDays: String(c.durationDays) }
+              : {}),
+          },
+        );
+      }
+    },
+  );
   const programme = await getProgramme(ds, actor, jobId);
-  return { impact: impactOf(before, programme.input as unknown as ProgrammeInput), programme };
+  return {
+    impact: impactOf(before, programme.input as unknown as ProgrammeInput),
+    programme,
+  };
 }

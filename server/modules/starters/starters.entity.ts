@@ -1,5 +1,12 @@
 import { Entity, Index } from "typeorm";
-import { CreatedColumn, IdColumn, JsonColumn, RefColumn, TextColumn, UpdatedColumn } from "../../db/columns";
+import {
+  CreatedColumn,
+  IdColumn,
+  JsonColumn,
+  RefColumn,
+  TextColumn,
+  UpdatedColumn,
+} from "../../db/columns";
 import type { StarterLink, StarterTask } from "../../../shared/schemas";
 
 /** An editable starting programme for a common kind of job (tasks, parties, links, trade defaults). */

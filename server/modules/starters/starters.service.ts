@@ -1,7 +1,10 @@
 import { In, Not, type DataSource, type EntityManager } from "typeorm";
 import type { z } from "zod";
 import { firstFreeStart, type BusyInput } from "../../../shared/programme";
-import type { StarterResponse, starterBodySchema } from "../../../shared/schemas";
+import type {
+  StarterResponse,
+  starterBodySchema,
+} from "../../../shared/schemas";
 import { newId } from "../../db/columns";
 import { HttpError, notFound } from "../../http/errors";
 import { authorize, type Actor } from "../../policies";
@@ -15,30 +18,64 @@ import { defaultStarters } from "./default-starters";
 import { ProgrammeStarter } from "./starters.entity";
 import { starterBodySchema as bodySchema } from "../../../shared/schemas";
 
-const present = (s: ProgrammeStarter): StarterResponse => ({ id: s.id, name: s.name, description: s.description, tasks: s.tasks, links: s.links });
+const present = (s: ProgrammeStarter): StarterResponse => ({
+  id: s.id,
+  name: s.name,
+  description: s.description,
+  tasks: s.tasks,
+  links: s.links,
+});
 
 /** Gives a workshop the default starting programmes (alcove cabinets, fitted wardrobe, bookcase wall). */
-export async function addDefaultStarters(m: EntityManager, workshopId: string): Promise<void> {
+export async function addDefaultStarters(
+  m: EntityManager,
+  workshopId: string,
+): Promise<void> {
   for (const body of defaultStarters) {
     const s = bodySchema.parse(body);
     await m.insert(ProgrammeStarter, { id: newId(), workshopId, ...s });
   }
 }
 
-export async function listStarters(ds: DataSource, actor: Actor | null, workshopId: string): Promise<StarterResponse[]> {
+export async function listStarters(
+  ds: DataSource,
+  actor: Actor | null,
+  workshopId: string,
+): Promise<StarterResponse[]> {
   authorize(actor, "starters.read", { kind: "workshop", workshopId });
-  return (await ds.getRepository(ProgrammeStarter).find({ where: { workshopId }, order: { name: "ASC" } })).map(present);
+  return (
+    await ds
+      .getRepository(ProgrammeStarter)
+      .find({ where: { workshopId }, order: { name: "ASC" } })
+  ).map(present);
 }
 
-export async function replaceStarter(ds: DataSource, actor: Actor | null, workshopId: string, starterId: string, body: z.output<typeof starterBodySchema>): Promise<StarterResponse> {
+export async function replaceStarter(
+  ds: DataSource,
+  actor: Actor | null,
+  workshopId: string,
+  starterId: string,
+  body: z.output<typeof starterBodySchema>,
+): Promise<StarterResponse> {
   authorize(actor, "starters.update", { kind: "workshop", workshopId });
-  const starter = await ds.getRepository(ProgrammeStarter).findOneBy({ id: starterId, workshopId });
+  const starter = await ds
+    .getRepository(ProgrammeStarter)
+    .findOneBy({ id: starterId, workshopId });
   if (!starter) throw notFound("That starting programme");
   await ds.transaction(async (m) => {
     await m.update(ProgrammeStarter, { id: starterId }, body);
-    await audit(m, { workshopId, actorUserId: actor!.userId, action: "starter.updated", entityType: "starter", entityId: starterId, detail: { name: body.name } });
+    await audit(m, {
+      workshopId,
+      actorUserId: actor!.userId,
+      action: "starter.updated",
+      entityType: "starter",
+      entityId: starterId,
+      detail: { name: body.name },
+    });
   });
-  return present(await ds.getRepository(ProgrammeStarter).findOneByOrFail({ id: starterId }));
+  return present(
+    await ds.getRepository(ProgrammeStarter).findOneByOrFail({ id: starterId }),
+  );
 }
 
 const CREW = "The workshop's fitting crew";
@@ -48,9 +85,22 @@ const CREW = "The workshop's fitting crew";
  * the workshop's own tasks on its other open jobs count as busy for its one fitting crew, and the
  * engine's first-free-start search places the first workshop task.
  */
-export async function applyStarter(m: EntityManager, job: Job, starterId: string): Promise<void> {
-  const starter = await m.findOneBy(ProgrammeStarter, { id: starterId, workshopId: job.workshopId });
-  if (!starter) throw new HttpError(422, "unprocessable", "That starting programme is not one of this workshop's.", { starterId: ["Choose one of the workshop's starting programmes"] });
+export async function applyStarter(
+  m: EntityManager,
+  job: Job,
+  starterId: string,
+): Promise<void> {
+  const starter = await m.findOneBy(ProgrammeStarter, {
+    id: starterId,
+    workshopId: job.workshopId,
+  });
+  if (!starter)
+    throw new HttpError(
+      422,
+      "unprocessable",
+      "That starting programme is not one of this workshop's.",
+      { starterId: ["Choose one of the workshop's starting programmes"] },
+    );
   const ids = new Map(starter.tasks.map((t) => [t.key, newId()]));
   for (const [i, t] of starter.tasks.entries()) {
     await m.insert(Task, {
@@ -70,29 +120,68 @@ export async function applyStarter(m: EntityManager, job: Job, starterId: string
     });
   }
   for (const l of starter.links) {
-    await m.insert(TaskLink, { id: newId(), workshopId: job.workshopId, jobId: job.id, fromTaskId: ids.get(l.from)!, toTaskId: ids.get(l.to)!, kind: l.kind, lag: String(l.lag), lagUnit: l.lagUnit });
+    await m.insert(TaskLink, {
+      id: newId(),
+      workshopId: job.workshopId,
+      jobId: job.id,
+      fromTaskId: ids.get(l.from)!,
+      toTaskId: ids.get(l.to)!,
+      kind: l.kind,
+      lag: String(l.lag),
+      lagUnit: l.lagUnit,
+    });
   }
 
   const workshop = await m.findOneByOrFail(Workshop, { id: job.workshopId });
   const busy: BusyInput[] = [];
-  const open = await m.findBy(Job, { workshopId: job.workshopId, id: Not(job.id), status: In(["planned", "on-site"]) });
+  const open = await m.findBy(Job, {
+    workshopId: job.workshopId,
+    id: Not(job.id),
+    status: In(["planned", "on-site"]),
+  });
   for (const other of open) {
     const data = await loadProgramme(m, other, workshop);
     const result = schedule(data.input);
     for (const t of data.tasks) {
       const r = result.tasks.find((x) => x.id === t.id);
-      if (t.party === "workshop" && Number(t.durationDays) > 0 && r && !t.actualFinish) busy.push({ resource: CREW, start: r.plannedStart, finish: r.plannedFinish, ref: other.title });
+      if (
+        t.party === "workshop" &&
+        Number(t.durationDays) > 0 &&
+        r &&
+        !t.actualFinish
+      )
+        busy.push({
+          resource: CREW,
+          start: r.plannedStart,
+          finish: r.plannedFinish,
+          ref: other.title,
+        });
     }
   }
   const data = await loadProgramme(m, job, workshop);
   const hasPredecessor = new Set(starter.links.map((l) => l.to));
-  const root = starter.tasks.find((t) => !hasPredecessor.has(t.key) && t.party === "workshop" && t.durationDays > 0);
+  const root = starter.tasks.find(
+    (t) =>
+      !hasPredecessor.has(t.key) &&
+      t.party === "workshop" &&
+      t.durationDays > 0,
+  );
   if (!root) return;
   const input = {
     ...data.input,
-    tasks: data.input.tasks.map((t) => (data.tasks.find((x) => x.id === t.id)?.party === "workshop" && t.durationDays > 0 ? { ...t, resource: CREW } : t)),
+    tasks: data.input.tasks.map((t) =>
+      data.tasks.find((x) => x.id === t.id)?.party === "workshop" &&
+      t.durationDays > 0
+        ? { ...t, resource: CREW }
+        : t,
+    ),
     busy: [...(data.input.busy ?? []), ...busy],
   };
   const free = firstFreeStart(input, ids.get(root.key)!);
-  if (free) await m.update(Task, { id: ids.get(root.key)! }, { notEarlierThan: free.start.slice(0, 10) });
+  if (free)
+    await m.update(
+      Task,
+      { id: ids.get(root.key)! },
+      { notEarlierThan: free.start.slice(0, 10) },
+    );
 }

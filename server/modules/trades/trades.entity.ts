@@ -1,5 +1,19 @@
-import { Column, Entity, Index, JoinColumn, ManyToOne, type Relation } from "typeorm";
-import { CreatedColumn, IdColumn, JsonColumn, RefColumn, TextColumn, UpdatedColumn } from "../../db/columns";
+import {
+  Column,
+  Entity,
+  Index,
+  JoinColumn,
+  ManyToOne,
+  type Relation,
+} from "typeorm";
+import {
+  CreatedColumn,
+  IdColumn,
+  JsonColumn,
+  RefColumn,
+  TextColumn,
+  UpdatedColumn,
+} from "../../db/columns";
 import { Workshop } from "../workshops/workshops.entity";
 import { User } from "../users/users.entity";
 import { tradeKinds, type TradeKind } from "../../../shared/schemas";
@@ -36,7 +50,8 @@ export class TradeMember {
   @RefColumn() workshopId!: string;
   @RefColumn() tradeId!: string;
   @Index("ix_trade_members_user")
-  @RefColumn() userId!: string;
+  @RefColumn()
+  userId!: string;
   @CreatedColumn() createdAt!: Date;
 
   @ManyToOne(() => Workshop, { onDelete: "CASCADE" })

@@ -1,8 +1,18 @@
 import { z } from "zod";
 import type { DataSource } from "typeorm";
-import { idSchema, tradeBodySchema, tradeResponseSchema, updateTradeBodySchema } from "../../../shared/schemas";
+import {
+  idSchema,
+  tradeBodySchema,
+  tradeResponseSchema,
+  updateTradeBodySchema,
+} from "../../../shared/schemas";
 import type { ApiRoutes } from "../../http/routes";
-import { createTrade, deleteTrade, listTrades, updateTrade } from "./trades.service";
+import {
+  createTrade,
+  deleteTrade,
+  listTrades,
+  updateTrade,
+} from "./trades.service";
 
 const workshopParams = z.object({ workshopId: idSchema });
 const tradeParams = z.object({ tradeId: idSchema });
@@ -15,7 +25,9 @@ export function registerTradeRoutes(api: ApiRoutes, ds: DataSource): void {
     summary: "The workshop's trades",
     params: workshopParams,
     response: z.object({ trades: z.array(tradeResponseSchema) }),
-    handler: async ({ actor, params }) => ({ trades: await listTrades(ds, actor, params.workshopId) }),
+    handler: async ({ actor, params }) => ({
+      trades: await listTrades(ds, actor, params.workshopId),
+    }),
   });
   api.add({
     method: "post",
@@ -26,7 +38,8 @@ export function registerTradeRoutes(api: ApiRoutes, ds: DataSource): void {
     body: tradeBodySchema,
     status: 201,
     response: tradeResponseSchema,
-    handler: async ({ actor, params, body }) => createTrade(ds, actor, params.workshopId, body),
+    handler: async ({ actor, params, body }) =>
+      createTrade(ds, actor, params.workshopId, body),
   });
   api.add({
     method: "patch",
@@ -36,7 +49,8 @@ export function registerTradeRoutes(api: ApiRoutes, ds: DataSource): void {
     params: tradeParams,
     body: updateTradeBodySchema,
     response: tradeResponseSchema,
-    handler: async ({ actor, params, body }) => updateTrade(ds, actor, params.tradeId, body),
+    handler: async ({ actor, params, body }) =>
+      updateTrade(ds, actor, params.tradeId, body),
   });
   api.add({
     method: "delete",
@@ -45,6 +59,7 @@ export function registerTradeRoutes(api: ApiRoutes, ds: DataSource): void {
     summary: "Remove a trade with no bookings (owner)",
     params: tradeParams,
     status: 204,
-    handler: async ({ actor, params }) => deleteTrade(ds, actor, params.tradeId),
+    handler: async ({ actor, params }) =>
+      deleteTrade(ds, actor, params.tradeId),
   });
 }

@@ -7,7 +7,11 @@ import { HttpError, notFound } from "../../http/errors";
 import { audit } from "../audit/audit.service";
 import { Booking } from "../bookings/bookings.entity";
 import { Trade, TradeMember } from "./trades.entity";
-import type { TradeResponse, tradeBodySchema, updateTradeBodySchema } from "../../../shared/schemas";
+import type {
+  TradeResponse,
+  tradeBodySchema,
+  updateTradeBodySchema,
+} from "../../../shared/schemas";
 
 export function presentTrade(t: Trade, hasAccount: boolean): TradeResponse {
   return {
@@ -26,17 +30,34 @@ export function presentTrade(t: Trade, hasAccount: boolean): TradeResponse {
   };
 }
 
-async function withAccounts(ds: DataSource, trades: Trade[]): Promise<TradeResponse[]> {
+async function withAccounts(
+  ds: DataSource,
+  trades: Trade[],
+): Promise<TradeResponse[]> {
   if (!trades.length) return [];
-  const links = await ds.getRepository(TradeMember).find({ where: { tradeId: In(trades.map((t) => t.id)) }, select: { tradeId: true } });
+  const links = await ds
+    .getRepository(TradeMember)
+    .find({
+      where: { tradeId: In(trades.map((t) => t.id)) },
+      select: { tradeId: true },
+    });
   const linked = new Set(links.map((l) => l.tradeId));
   return trades.map((t) => presentTrade(t, linked.has(t.id)));
 }
 
 /** The workshop's trades, by kind then name. */
-export async function listTrades(ds: DataSource, actor: Actor | null, workshopId: string): Promise<TradeResponse[]> {
+export async function listTrades(
+  ds: DataSource,
+  actor: Actor | null,
+  workshopId: string,
+): Promise<TradeResponse[]> {
   authorize(actor, "trades.read", { kind: "workshop", workshopId });
-  const trades = await ds.getRepository(Trade).find({ where: { workshopId }, order: { kind: "ASC", businessName: "ASC" } });
+  const trades = await ds
+    .getRepository(Trade)
+    .find({
+      where: { workshopId },
+      order: { kind: "ASC", businessName: "ASC" },
+    });
   return withAccounts(ds, trades);
 }
 
@@ -47,12 +68,24 @@ export async function createTrade(
   body: z.output<typeof tradeBodySchema>,
 ): Promise<TradeResponse> {
   authorize(actor, "trades.create", { kind: "workshop", workshopId });
-  const trade = ds.getRepository(Trade).create({ id: newId(), workshopId, ...body });
+  const trade = ds
+    .getRepository(Trade)
+    .create({ id: newId(), workshopId, ...body });
   await ds.transaction(async (m) => {
     await m.insert(Trade, trade);
-    await audit(m, { workshopId, actorUserId: actor.userId, action: "trade.created", entityType: "trade", entityId: trade.id, detail: { businessName: body.businessName, kind: body.kind } });
+    await audit(m, {
+      workshopId,
+      actorUserId: actor.userId,
+      action: "trade.created",
+      entityType: "trade",
+      entityId: trade.id,
+      detail: { businessName: body.businessName, kind: body.kind },
+    });
   });
-  return presentTrade(await ds.getRepository(Trade).findOneByOrFail({ id: trade.id }), false);
+  return presentTrade(
+    await ds.getRepository(Trade).findOneByOrFail({ id: trade.id }),
+    false,
+  );
 }
 
 async function load(ds: DataSource, actor: Actor | null, tradeId: string) {
@@ -69,25 +102,57 @@ export async function updateTrade(
   body: z.output<typeof updateTradeBodySchema>,
 ): Promise<TradeResponse> {
   const trade = await load(ds, actor, tradeId);
-  authorize(actor, "trades.update", { kind: "trade", workshopId: trade.workshopId, tradeId });
+  authorize(actor, "trades.update", {
+    kind: "trade",
+    workshopId: trade.workshopId,
+    tradeId,
+  });
   await ds.transaction(async (m) => {
     await m.update(Trade, { id: tradeId }, body);
-    await audit(m, { workshopId: trade.workshopId, actorUserId: actor!.userId, action: "trade.updated", entityType: "trade", entityId: tradeId, detail: body });
+    await audit(m, {
+      workshopId: trade.workshopId,
+      actorUserId: actor!.userId,
+      action: "trade.updated",
+      entityType: "trade",
+      entityId: tradeId,
+      detail: body,
+    });
   });
-  const [updated] = await withAccounts(ds, [await ds.getRepository(Trade).findOneByOrFail({ id: tradeId })]);
+  const [updated] = await withAccounts(ds, [
+    await ds.getRepository(Trade).findOneByOrFail({ id: tradeId }),
+  ]);
   return updated;
 }
 
 /** Deletes a trade with no bookings (owner). */
-export async function deleteTrade(ds: DataSource, actor: Actor | null, tradeId: string): Promise<void> {
+export async function deleteTrade(
+  ds: DataSource,
+  actor: Actor | null,
+  tradeId: string,
+): Promise<void> {
   const trade = await load(ds, actor, tradeId);
-  authorize(actor, "trades.delete", { kind: "trade", workshopId: trade.workshopId, tradeId });
+  authorize(actor, "trades.delete", {
+    kind: "trade",
+    workshopId: trade.workshopId,
+    tradeId,
+  });
   const bookings = await ds.getRepository(Booking).countBy({ tradeId });
   if (bookings > 0) {
-    throw new HttpError(409, "conflict", `${trade.businessName} has ${bookings} booking${bookings === 1 ? "" : "s"}; cancel or move them before removing the trade.`);
+    throw new HttpError(
+      409,
+      "conflict",
+      `${trade.businessName} has ${bookings} booking${bookings === 1 ? "" : "s"}; cancel or move them before removing the trade.`,
+    );
   }
   await ds.transaction(async (m) => {
     await m.delete(Trade, { id: tradeId });
-    await audit(m, { workshopId: trade.workshopId, actorUserId: actor!.userId, action: "trade.deleted", entityType: "trade", entityId: tradeId, detail: { businessName: trade.businessName } });
+    await audit(m, {
+      workshopId: trade.workshopId,
+      actorUserId: actor!.userId,
+      action: "trade.deleted",
+      entityType: "trade",
+      entityId: tradeId,
+      detail: { businessName: trade.businessName },
+    });
   });
 }

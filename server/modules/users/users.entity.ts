@@ -1,12 +1,18 @@
 import { Entity, Index } from "typeorm";
-import { CreatedColumn, IdColumn, InstantColumn, TextColumn } from "../../db/columns";
+import {
+  CreatedColumn,
+  IdColumn,
+  InstantColumn,
+  TextColumn,
+} from "../../db/columns";
 
 /** A person who can sign in. What they may see comes from memberships, trade links and customer records. */
 @Entity("users")
 export class User {
   @IdColumn() id!: string;
   @Index("uq_users_email", { unique: true })
-  @TextColumn(254) email!: string;
+  @TextColumn(254)
+  email!: string;
   @TextColumn(120) name!: string;
   /** argon2id hash; null until the invitation is accepted. */
   @TextColumn(255, { nullable: true }) passwordHash!: string | null;

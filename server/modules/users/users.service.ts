@@ -7,20 +7,33 @@ import { Trade, TradeMember } from "../trades/trades.entity";
 import { Customer } from "../customers/customers.entity";
 
 /** Everything a signed-in person is: their memberships, the trades they speak for, their customer records. */
-export async function loadSessionUser(ds: DataSource, userId: string): Promise<{ user: SessionUser; actor: Actor } | null> {
+export async function loadSessionUser(
+  ds: DataSource,
+  userId: string,
+): Promise<{ user: SessionUser; actor: Actor } | null> {
   const user = await ds.getRepository(User).findOneBy({ id: userId });
   if (!user) return null;
   const [members, tradeLinks, customers] = await Promise.all([
-    ds.getRepository(WorkshopMember).find({ where: { userId }, relations: { workshop: true } }),
-    ds.getRepository(TradeMember).find({ where: { userId }, relations: { trade: true, workshop: true } }),
-    ds.getRepository(Customer).find({ where: { userId }, relations: { workshop: true } }),
+    ds
+      .getRepository(WorkshopMember)
+      .find({ where: { userId }, relations: { workshop: true } }),
+    ds
+      .getRepository(TradeMember)
+      .find({ where: { userId }, relations: { trade: true, workshop: true } }),
+    ds
+      .getRepository(Customer)
+      .find({ where: { userId }, relations: { workshop: true } }),
   ]);
   const name = (w: Workshop | undefined) => w?.name ?? "";
   const sessionUser: SessionUser = {
     id: user.id,
     email: user.email,
     name: user.name,
-    memberships: members.map((m) => ({ workshopId: m.workshopId, workshopName: name(m.workshop), role: m.role })),
+    memberships: members.map((m) => ({
+      workshopId: m.workshopId,
+      workshopName: name(m.workshop),
+      role: m.role,
+    })),
     trades: tradeLinks.map((t) => ({
       tradeId: t.tradeId,
       workshopId: t.workshopId,
@@ -28,7 +41,11 @@ export async function loadSessionUser(ds: DataSource, userId: string): Promise<{
       businessName: (t.trade as Trade).businessName,
       kind: (t.trade as Trade).kind,
     })),
-    customers: customers.map((c) => ({ customerId: c.id, workshopId: c.workshopId, workshopName: name(c.workshop) })),
+    customers: customers.map((c) => ({
+      customerId: c.id,
+      workshopId: c.workshopId,
+      workshopName: name(c.workshop),
+    })),
   };
   const actor: Actor = {
     userId,

@@ -1,5 +1,18 @@
-import { Column, Entity, Index, JoinColumn, ManyToOne, type Relation } from "typeorm";
-import { CreatedColumn, IdColumn, JsonColumn, RefColumn, TextColumn } from "../../db/columns";
+import {
+  Column,
+  Entity,
+  Index,
+  JoinColumn,
+  ManyToOne,
+  type Relation,
+} from "typeorm";
+import {
+  CreatedColumn,
+  IdColumn,
+  JsonColumn,
+  RefColumn,
+  TextColumn,
+} from "../../db/columns";
 import { User } from "../users/users.entity";
 import type { HolidayRegion, MemberRole } from "../../../shared/schemas";
 
@@ -24,7 +37,8 @@ export class WorkshopMember {
   @IdColumn() id!: string;
   @RefColumn() workshopId!: string;
   @Index("ix_workshop_members_user")
-  @RefColumn() userId!: string;
+  @RefColumn()
+  userId!: string;
   @Column({ type: "enum", enum: ["owner", "fitter"] }) role!: MemberRole;
   @CreatedColumn() createdAt!: Date;
 

@@ -10,7 +10,12 @@ import {
 import type { ApiRoutes } from "../../http/routes";
 import { authorize } from "../../policies";
 import { invite, type AuthDeps } from "../auth/auth.service";
-import { getWorkshop, listInvitations, listMembers, updateWorkshop } from "./workshops.service";
+import {
+  getWorkshop,
+  listInvitations,
+  listMembers,
+  updateWorkshop,
+} from "./workshops.service";
 
 const params = z.object({ workshopId: idSchema });
 
@@ -23,7 +28,8 @@ export function registerWorkshopRoutes(api: ApiRoutes, deps: AuthDeps): void {
     summary: "The workshop's settings",
     params,
     response: workshopResponseSchema,
-    handler: async ({ actor, params }) => getWorkshop(ds, actor, params.workshopId),
+    handler: async ({ actor, params }) =>
+      getWorkshop(ds, actor, params.workshopId),
   });
   api.add({
     method: "patch",
@@ -33,7 +39,8 @@ export function registerWorkshopRoutes(api: ApiRoutes, deps: AuthDeps): void {
     params,
     body: updateWorkshopBodySchema,
     response: workshopResponseSchema,
-    handler: async ({ actor, params, body }) => updateWorkshop(ds, actor, params.workshopId, body),
+    handler: async ({ actor, params, body }) =>
+      updateWorkshop(ds, actor, params.workshopId, body),
   });
   api.add({
     method: "get",
@@ -42,7 +49,9 @@ export function registerWorkshopRoutes(api: ApiRoutes, deps: AuthDeps): void {
     summary: "Owners and fitters (owner)",
     params,
     response: z.object({ members: z.array(memberResponseSchema) }),
-    handler: async ({ actor, params }) => ({ members: await listMembers(ds, actor, params.workshopId) }),
+    handler: async ({ actor, params }) => ({
+      members: await listMembers(ds, actor, params.workshopId),
+    }),
   });
   api.add({
     method: "get",
@@ -51,7 +60,9 @@ export function registerWorkshopRoutes(api: ApiRoutes, deps: AuthDeps): void {
     summary: "Invitations sent (owner)",
     params,
     response: z.object({ invitations: z.array(invitationResponseSchema) }),
-    handler: async ({ actor, params }) => ({ invitations: await listInvitations(ds, actor, params.workshopId) }),
+    handler: async ({ actor, params }) => ({
+      invitations: await listInvitations(ds, actor, params.workshopId),
+    }),
   });
   api.add({
     method: "post",
@@ -63,7 +74,10 @@ export function registerWorkshopRoutes(api: ApiRoutes, deps: AuthDeps): void {
     status: 201,
     response: invitationResponseSchema,
     handler: async ({ actor, req, params, body }) => {
-      authorize(actor, "invitations.manage", { kind: "workshop", workshopId: params.workshopId });
+      authorize(actor, "invitations.manage", {
+        kind: "workshop",
+        workshopId: params.workshopId,
+      });
       const by = { userId: actor.userId, name: req.user!.user.name };
       const record = await invite(deps, by, params.workshopId, body);
       return {

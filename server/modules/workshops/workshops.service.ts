@@ -36,7 +36,11 @@ async function load(ds: DataSource, workshopId: string): Promise<Workshop> {
 }
 
 /** The workshop's settings (members). */
-export async function getWorkshop(ds: DataSource, actor: Actor | null, workshopId: string): Promise<WorkshopResponse> {
+export async function getWorkshop(
+  ds: DataSource,
+  actor: Actor | null,
+  workshopId: string,
+): Promise<WorkshopResponse> {
   authorize(actor, "workshop.read", ws(workshopId));
   return presentWorkshop(await load(ds, workshopId));
 }
@@ -52,15 +56,32 @@ export async function updateWorkshop(
   await load(ds, workshopId);
   await ds.transaction(async (m) => {
     await m.update(Workshop, { id: workshopId }, body);
-    await audit(m, { workshopId, actorUserId: actor.userId, action: "workshop.updated", entityType: "workshop", entityId: workshopId, detail: body });
+    await audit(m, {
+      workshopId,
+      actorUserId: actor.userId,
+      action: "workshop.updated",
+      entityType: "workshop",
+      entityId: workshopId,
+      detail: body,
+    });
   });
   return presentWorkshop(await load(ds, workshopId));
 }
 
 /** The workshop's owners and fitters (owner). */
-export async function listMembers(ds: DataSource, actor: Actor | null, workshopId: string): Promise<MemberResponse[]> {
+export async function listMembers(
+  ds: DataSource,
+  actor: Actor | null,
+  workshopId: string,
+): Promise<MemberResponse[]> {
   authorize(actor, "members.read", ws(workshopId));
-  const members = await ds.getRepository(WorkshopMember).find({ where: { workshopId }, relations: { user: true }, order: { createdAt: "ASC" } });
+  const members = await ds
+    .getRepository(WorkshopMember)
+    .find({
+      where: { workshopId },
+      relations: { user: true },
+      order: { createdAt: "ASC" },
+    });
   return members.map((m) => ({
     userId: m.userId,
     name: (m.user as User).name,
@@ -71,7 +92,11 @@ export async function listMembers(ds: DataSource, actor: Actor | null, workshopI
 }
 
 /** Invitations sent by the workshop, newest first (owner). */
-export async function listInvitations(ds: DataSource, actor: Actor | null, workshopId: string): Promise<InvitationResponse[]> {
+export async function listInvitations(
+  ds: DataSource,
+  actor: Actor | null,
+  workshopId: string,
+): Promise<InvitationResponse[]> {
   authorize(actor, "invitations.manage", ws(workshopId));
   const tokens = await ds.getRepository(AuthToken).find({
     where: { workshopId, kind: "invitation" },
