@@ -85,6 +85,19 @@ function ensureDebian(pkg, program) {
   });
 }
 
+function logTail(file) {
+  try {
+    return fs
+      .readFileSync(file, "utf8")
+      .trim()
+      .split("\n")
+      .slice(-8)
+      .join("\n");
+  } catch {
+    return "(no log)";
+  }
+}
+
 function portFree(port) {
   return new Promise((resolve) => {
     const s = net.createServer();
@@ -187,7 +200,7 @@ async function startMariaDB(dir, port) {
     if (r.status === 0) break;
     if (child.exitCode !== null)
       throw new Error(
-        `MariaDB stopped at start-up; see ${path.join(dir, "mariadb.log")}`,
+        `MariaDB stopped at start-up. The end of its log:\n${logTail(path.join(dir, "mariadb.log"))}`,
       );
     if (Date.now() > deadline)
       throw new Error(
@@ -235,6 +248,27 @@ async function stopChild(child, name, signal = "SIGTERM", ms = 15000) {
 
 let mariadb = null;
 let app = null;
+let testDir = null;
+
+/** Removes test data folders left by runs whose bootstrap is no longer alive. */
+function removeStaleTestRuns() {
+  const base = path.join(root, ".data", "test");
+  if (!fs.existsSync(base)) return;
+  for (const name of fs.readdirSync(base)) {
+    const pid = Number(/^run-(\d+)$/.exec(name)?.[1]);
+    let alive = false;
+    try {
+      if (pid) {
+        process.kill(pid, 0);
+        alive = true;
+      }
+    } catch {
+      // that run is gone
+    }
+    if (!alive)
+      fs.rmSync(path.join(base, name), { recursive: true, force: true });
+  }
+}
 async function stopAll() {
   if (stopping) return;
   stopping = true;
@@ -246,6 +280,7 @@ async function stopAll() {
     say("Stopping MariaDB");
     await stopChild(mariadb, "MariaDB", "SIGTERM", 30000);
   }
+  if (testDir) fs.rmSync(testDir, { recursive: true, force: true });
 }
 
 for (const sig of ["SIGINT", "SIGTERM", "SIGHUP"]) {
@@ -260,13 +295,15 @@ async function main() {
   ensureDebian("mariadb-server", "mariadbd");
   if (mode === "test") ensureDebian("chromium", "chromium");
 
-  const dir = path.join(
-    root,
-    ".data",
-    mode === "start" ? (production ? "prod" : "dev") : "test",
-  );
-  if (mode === "test")
-    fs.rmSync(path.join(dir, "db"), { recursive: true, force: true });
+  // Tests get a fresh data folder per run (so two runs in one checkout never meet), removed at the end.
+  const dir =
+    mode === "start"
+      ? path.join(root, ".data", production ? "prod" : "dev")
+      : path.join(root, ".data", "test", `run-${process.pid}`);
+  if (mode === "test") {
+    removeStaleTestRuns();
+    testDir = dir;
+  }
   const dbPort = await freePort(
     Number(process.env.SITECUE_DB_PORT ?? (mode === "start" ? 3406 : 3456)),
   );
