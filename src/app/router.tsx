@@ -11,6 +11,7 @@ import { InviteRoute, ResetRoute } from "./routes/set-password";
 import { DevMailRoute } from "./routes/dev-mail";
 import { HomeRoute } from "./routes/home";
 import { JobRoute } from "./routes/job";
+import { ProgrammeRoute } from "./routes/programme";
 import { TradesRoute } from "./routes/trades";
 import { MembersRoute } from "./routes/members";
 import { NotFoundRoute } from "./routes/not-found";
@@ -45,6 +46,7 @@ export function createAppRouter() {
           children: [
             { index: true, element: <HomeRoute /> },
             { path: "jobs/:jobId", element: <JobRoute /> },
+            { path: "jobs/:jobId/programme", element: <ProgrammeRoute /> },
             { path: "trades", element: <TradesRoute /> },
             { path: "members", element: <MembersRoute /> },
           ],

@@ -4,4 +4,6 @@ export const jobKeys = {
   lists: () => [...jobKeys.all, "list"] as const,
   details: () => [...jobKeys.all, "detail"] as const,
   detail: (jobId: string) => [...jobKeys.details(), jobId] as const,
+  starters: (workshopId: string) =>
+    [...jobKeys.all, "starters", workshopId] as const,
 };

@@ -1,6 +1,7 @@
 import type { JobDetail, TaskView } from "../../../../shared/schemas";
 import {
   BookingStateBadge,
+  LinkButton,
   CautionNote,
   EmptyState,
   PartyChip,
@@ -231,10 +232,21 @@ function TaskItem({
 
 export function JobTasksSection({ job }: { job: JobDetail }) {
   const isCustomer = job.viewerRole === "customer";
+  const plans = job.viewerRole === "owner" || job.viewerRole === "fitter";
   return (
     <Section
       title="Programme"
       id="job-tasks"
+      actions={
+        plans ? (
+          <LinkButton
+            to={`/jobs/${encodeURIComponent(job.id)}/programme`}
+            size="sm"
+          >
+            Plan the programme
+          </LinkButton>
+        ) : null
+      }
       description={
         job.viewerRole === "trade"
           ? "Your tasks in full; the tasks you wait on by name and status."

@@ -22,6 +22,7 @@ import { applyServerErrors } from "../../../lib/form-errors";
 import { formatDate } from "../../../lib/format";
 import { holidayRegionLabels, jobStatusLabels } from "../../../lib/labels";
 import { useCreateJob } from "../api/create-job";
+import { useStarters } from "../api/list-starters";
 
 // The shared body schema, with a plain message for the unchosen customer (an empty
 // select) instead of the generic "Must be a valid id".
@@ -46,6 +47,7 @@ const FIELDS = [
   "handoverDate",
   "siteWeekdays",
   "accessNotes",
+  "starterId",
 ] as const;
 
 interface NewJobFormProps {
@@ -72,6 +74,7 @@ export function NewJobForm({
   onCancel,
 }: NewJobFormProps) {
   const createJob = useCreateJob(workshopId);
+  const starters = useStarters(workshopId);
   const [addingCustomer, setAddingCustomer] = useState(false);
   const formId = useId();
   const form = useForm<Input, unknown, Output>({
@@ -230,6 +233,26 @@ export function NewJobForm({
             />
           )}
         />
+        <Select
+          label="Start from"
+          hint={
+            starters.isError
+              ? "Starting programmes could not be loaded; the job starts empty."
+              : "A starting programme brings its tasks and links, dated from the workshop's first free start."
+          }
+          disabled={starters.isPending}
+          error={errors.starterId?.message}
+          {...form.register("starterId", {
+            setValueAs: (v: unknown) => (v === "" || v == null ? undefined : v),
+          })}
+        >
+          <option value="">An empty programme</option>
+          {(starters.data?.starters ?? []).map((s) => (
+            <option key={s.id} value={s.id}>
+              {s.name}
+            </option>
+          ))}
+        </Select>
         <TextArea
           label="Access notes"
           optional

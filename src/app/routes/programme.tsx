@@ -1,0 +1,56 @@
+import { Link, useParams } from "react-router-dom";
+import { useJob } from "../../features/jobs/api/get-job";
+import { ProgrammeScreen } from "../../features/programme/components/ProgrammeScreen";
+import { ErrorState, LoadingState, PageHeader } from "../../components/ui";
+import { isApiError } from "../../lib/api-client";
+
+/** The maker's programme for one job (owner and fitter; the API refuses everyone else). */
+export function ProgrammeRoute() {
+  const { jobId = "" } = useParams();
+  const job = useJob(jobId);
+  const back = (
+    <p className="mb-3 text-sm">
+      <Link
+        to={`/jobs/${encodeURIComponent(jobId)}`}
+        className="text-accent underline underline-offset-2"
+      >
+        ← {job.data?.title ?? "Back to the job"}
+      </Link>
+    </p>
+  );
+  if (job.isPending)
+    return (
+      <>
+        {back}
+        <LoadingState label="Loading the job…" />
+      </>
+    );
+  const isWorkshop =
+    job.data?.viewerRole === "owner" || job.data?.viewerRole === "fitter";
+  if (job.isError || !isWorkshop) {
+    const missing =
+      !job.isError ||
+      (isApiError(job.error) && [400, 403, 404].includes(job.error.status));
+    return (
+      <>
+        {back}
+        <PageHeader title="Programme" />
+        <ErrorState
+          error={job.error}
+          title={missing ? "There's no programme here you can plan" : undefined}
+          onRetry={() => job.refetch()}
+        />
+      </>
+    );
+  }
+  return (
+    <>
+      {back}
+      <PageHeader
+        title={`Programme: ${job.data.title}`}
+        eyebrow={`${job.data.workshopName} · ${job.data.area}`}
+      />
+      <ProgrammeScreen jobId={jobId} />
+    </>
+  );
+}

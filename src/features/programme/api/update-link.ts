@@ -1,0 +1,30 @@
+import type { z } from "zod";
+import type {
+  ProgrammeResponse,
+  updateLinkBodySchema,
+} from "../../../../shared/schemas";
+import { api } from "../../../lib/api-client";
+import { programmePath } from "./get-programme";
+import { itself, useProgrammeMutation } from "./programme-mutation";
+
+export type UpdateLinkInput = z.output<typeof updateLinkBodySchema>;
+
+export function updateLink(
+  jobId: string,
+  linkId: string,
+  body: UpdateLinkInput,
+): Promise<ProgrammeResponse> {
+  return api.patch<ProgrammeResponse>(
+    `${programmePath(jobId)}/links/${encodeURIComponent(linkId)}`,
+    body,
+  );
+}
+
+export function useUpdateLink(jobId: string) {
+  return useProgrammeMutation(
+    jobId,
+    ({ linkId, body }: { linkId: string; body: UpdateLinkInput }) =>
+      updateLink(jobId, linkId, body),
+    itself,
+  );
+}
