@@ -7,7 +7,7 @@ import { Trade, TradeMember } from "../modules/trades/trades.entity";
 import { Customer } from "../modules/customers/customers.entity";
 import { Job } from "../modules/jobs/jobs.entity";
 import { Task, TaskLink } from "../modules/programme/programme.entity";
-import { Booking } from "../modules/bookings/bookings.entity";
+import { Booking, BookingEvent } from "../modules/bookings/bookings.entity";
 import { AuditEntry } from "../modules/audit/audit.entity";
 import { AuthToken } from "../modules/auth/auth-tokens.entity";
 import { ProgrammeStarter } from "../modules/starters/starters.entity";
@@ -24,6 +24,7 @@ export const entities = [
   Task,
   TaskLink,
   Booking,
+  BookingEvent,
   AuditEntry,
   AuthToken,
   ProgrammeStarter,

@@ -1,8 +1,10 @@
 import { Initial1764633600000 } from "./1764633600000-initial";
 import { ProgrammeStarters1764720000000 } from "./1764720000000-programme-starters";
+import { BookingAnswers1764806400000 } from "./1764806400000-booking-answers";
 
 /** Migration classes in order (classes, not a glob, so vitest and tsx load them alike). */
 export const migrations = [
   Initial1764633600000,
   ProgrammeStarters1764720000000,
+  BookingAnswers1764806400000,
 ];

@@ -10,6 +10,8 @@ import {
   CreatedColumn,
   IdColumn,
   LocalDateTimeColumn,
+  InstantColumn,
+  JsonColumn,
   RefColumn,
   TextColumn,
   UpdatedColumn,
@@ -18,6 +20,8 @@ import { Job } from "../jobs/jobs.entity";
 import { Task } from "../programme/programme.entity";
 import { Trade } from "../trades/trades.entity";
 import {
+  bookingChannels,
+  type BookingChannel,
   arrivalWindows,
   bookingStates,
   type BookingState,
@@ -47,6 +51,23 @@ export class Booking {
   @TextColumn(5, { nullable: true }) arrivalTo!: string | null;
   /** RFC 5545 UID: random, revealing nothing about people or hosts (RFC 7986 §5.3). */
   @TextColumn(64) icalUid!: string;
+  /** Start the trade proposed instead (state date-proposed). */
+  @LocalDateTimeColumn({ nullable: true }) proposedStart!: string | null;
+  /** The maker chose to show the full address and access notes before confirmation. */
+  @Column({ type: "boolean", default: false }) shareAddress!: boolean;
+  /** Why the maker booked despite a clash or a day off. */
+  @Column({ type: "text", nullable: true }) overrideReason!: string | null;
+  /** SHA-256 of the current confirmation link's token (the token itself is never stored). */
+  @Index("uq_bookings_link_token", { unique: true })
+  @TextColumn(64, { nullable: true })
+  linkTokenHash!: string | null;
+  @InstantColumn({ nullable: true }) linkExpiresAt!: Date | null;
+  /** The start the current link was issued for: a link from before a date change cannot confirm. */
+  @LocalDateTimeColumn({ nullable: true }) linkForStart!: string | null;
+  @InstantColumn({ nullable: true }) sentAt!: Date | null;
+  @InstantColumn({ nullable: true }) answeredAt!: Date | null;
+  @InstantColumn({ nullable: true }) reminderSentAt!: Date | null;
+  @InstantColumn({ nullable: true }) chasedAt!: Date | null;
   /** RFC 5546 §2.1.4 SEQUENCE. */
   @Column({ type: "int" }) sequence!: number;
   @CreatedColumn() createdAt!: Date;
@@ -61,4 +82,26 @@ export class Booking {
   @ManyToOne(() => Trade, { onDelete: "RESTRICT" })
   @JoinColumn({ name: "tradeId" })
   trade?: Relation<Trade>;
+}
+
+/** Every change of a booking's state: who, when, how (link, phone, calendar app…) and why. */
+@Entity("booking_events")
+@Index("ix_booking_events_booking", ["bookingId", "createdAt"])
+export class BookingEvent {
+  @IdColumn() id!: string;
+  @RefColumn() workshopId!: string;
+  @RefColumn() bookingId!: string;
+  @Column({ type: "enum", enum: bookingStates, nullable: true })
+  fromState!: BookingState | null;
+  @Column({ type: "enum", enum: bookingStates }) toState!: BookingState;
+  /** A signed-in person, or null when the trade answered by link or from their calendar app. */
+  @RefColumn({ nullable: true }) actorUserId!: string | null;
+  @Column({ type: "enum", enum: bookingChannels }) channel!: BookingChannel;
+  @Column({ type: "text" }) note!: string;
+  @JsonColumn() detail!: Record<string, unknown>;
+  @CreatedColumn() createdAt!: Date;
+
+  @ManyToOne(() => Booking, { onDelete: "CASCADE" })
+  @JoinColumn({ name: "bookingId" })
+  booking?: Relation<Booking>;
 }
