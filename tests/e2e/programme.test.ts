@@ -1,6 +1,7 @@
 // The maker plans a job in the browser (issue 4): a new job from a starter, a link added, a task
 // dragged two working days later (and moved by keyboard), the named knock-on read before saving,
 // then saved, reloaded and seen the same. Chromium against the built client, production CSP.
+import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Locator, Page } from "playwright-core";
 import { workingDaysBetween } from "../../shared/programme";
@@ -10,6 +11,7 @@ import {
   desktop,
   launchBrowser,
   phone,
+  screensDir,
   shot,
   visible,
   watchConsole,
@@ -332,7 +334,64 @@ describe("the maker's programme screen", () => {
     );
     expect(overflow).toBeLessThanOrEqual(1);
     await shot(page, "programme-phone");
+    await page.screenshot({
+      path: path.join(screensDir, "programme-phone-top.png"),
+    });
+    await taskItem(page, "Fix carcasses & scribes").scrollIntoViewIfNeeded();
+    await page.screenshot({
+      path: path.join(screensDir, "programme-phone-task.png"),
+    });
     expect(problems).toEqual([]);
+    await page.context().close();
+  });
+
+  it("shows a stale edit's conflict in words and offers the reload", async () => {
+    const { page, problems } = await signIn();
+    await page.goto(jobUrl);
+    await visible(taskItem(page, "Hang doors"));
+    // Someone else edits the programme after this page loaded it.
+    const jobId = new URL(jobUrl).pathname.split("/")[2];
+    const status = await page.evaluate(async (id) => {
+      const session = await (await fetch("/api/auth/session")).json();
+      const prog = await (await fetch(`/api/jobs/${id}/programme`)).json();
+      const task = prog.tasks.find(
+        (x: { name: string }) => x.name === "Hang doors",
+      );
+      const res = await fetch(`/api/jobs/${id}/tasks/${task.id}`, {
+        method: "PATCH",
+        headers: {
+          "Content-Type": "application/json",
+          "X-CSRF-Token": session.csrfToken,
+        },
+        body: JSON.stringify({
+          version: prog.version,
+          internalNote: "Doors due Thursday.",
+        }),
+      });
+      return res.status;
+    }, jobId);
+    expect(status).toBe(200);
+
+    await taskItem(page, "Hang doors")
+      .getByRole("button", { name: "Edit Hang doors" })
+      .click();
+    const form = page.getByRole("form", { name: "Edit Hang doors" });
+    await form.getByLabel("Duration (working days)").fill("1.5");
+    await form.getByRole("button", { name: "Save task" }).click();
+    const banner = page.getByRole("alert").filter({
+      has: page.getByRole("button", { name: "Reload the programme" }),
+    });
+    await visible(banner);
+    await visible(banner.getByText(/Someone else changed/));
+    await shot(page, "programme-conflict-desktop");
+    await banner.getByRole("button", { name: "Reload the programme" }).click();
+    await banner.waitFor({ state: "detached" });
+    // After the reload the same edit goes through on the new version.
+    await form.getByRole("button", { name: "Save task" }).click();
+    await form.waitFor({ state: "detached" });
+    await visible(taskItem(page, "Hang doors").getByText("1.5 days"));
+    // The browser logs the refused request itself; nothing else may be in the console.
+    expect(problems.filter((p) => !p.includes("409"))).toEqual([]);
     await page.context().close();
   });
 });

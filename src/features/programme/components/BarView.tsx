@@ -1,4 +1,10 @@
-import { useMemo, useRef, type KeyboardEvent, type PointerEvent } from "react";
+import {
+  useEffect,
+  useMemo,
+  useRef,
+  type KeyboardEvent,
+  type PointerEvent,
+} from "react";
 import type { ProgrammeResponse } from "../../../../shared/schemas";
 import type { ProgrammeResult } from "../../../../shared/programme";
 import { cx } from "../../../components/ui";
@@ -98,6 +104,7 @@ export function BarView({
 }: BarViewProps) {
   const input = engineInput(programme);
   const drag = useRef<DragState | null>(null);
+  const scroller = useRef<HTMLDivElement>(null);
   // Rows keep the server's order while a move is previewed, so nothing jumps under the pointer.
   const rows = useMemo(
     () => rowsOf(programme.tasks, programme.result),
@@ -149,6 +156,22 @@ export function BarView({
   const handoverX = programme.handover
     ? (dayNumber(programme.handover) - range.firstDay + 1) * COL
     : null;
+
+  // Open on the work to come: a phone shows a week, so start at today or the first bar.
+  const firstBarX = useMemo(() => {
+    const starts = programme.result.tasks
+      .filter((r) => r.readiness.state !== "done")
+      .map((r) => dayNumber(dateOf(r.plannedStart)));
+    return starts.length ? (Math.min(...starts) - range.firstDay) * COL : 0;
+  }, [programme, range.firstDay]);
+  const opened = useRef(false);
+  useEffect(() => {
+    if (opened.current || !scroller.current) return;
+    opened.current = true;
+    // Today stays in sight when work is near; otherwise open a day before the first bar.
+    const to = firstBarX - todayX > 3 * COL ? firstBarX - COL : todayX - COL;
+    scroller.current.scrollLeft = Math.max(0, to);
+  }, [todayX, firstBarX]);
 
   const baseDateOf = (taskId: string) => {
     if (preview?.taskId === taskId) return preview.notEarlierThan;
@@ -216,7 +239,10 @@ export function BarView({
   };
 
   return (
-    <div className="overflow-x-auto rounded border border-rule bg-card">
+    <div
+      ref={scroller}
+      className="overflow-x-auto rounded border border-rule bg-card"
+    >
       <p id="bar-help" className="sr-only">
         Drag a bar sideways, or use the left and right arrow keys, to move the
         task a working day at a time. Enter reviews the knock-on; Escape

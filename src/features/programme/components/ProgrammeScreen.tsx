@@ -345,7 +345,9 @@ export function ProgrammeScreen({ jobId }: { jobId: string }) {
           role="alert"
           className="flex flex-col gap-2 rounded border border-wait/60 border-l-4 border-l-wait bg-wait-wash px-4 py-3"
         >
-          <p className="font-semibold">Someone else changed this programme</p>
+          <p className="font-semibold">
+            This programme changed since you loaded it
+          </p>
           <p className="text-sm">{conflict}</p>
           <Button size="sm" className="self-start" onClick={reload}>
             Reload the programme
@@ -405,9 +407,11 @@ export function ProgrammeScreen({ jobId }: { jobId: string }) {
         </Section>
       ) : (
         <>
+          {/* On a phone the list comes first; at a desk the bar view leads. */}
           <Section
             title="Bar view"
             id="programme-bars"
+            className="max-md:order-2"
             description="Working days across; hatched days are days off for that task. Drag a bar, or focus it and use ← →, to try a move."
           >
             <BarView
@@ -437,6 +441,7 @@ export function ProgrammeScreen({ jobId }: { jobId: string }) {
           <Section
             title="Tasks"
             id="programme-tasks"
+            className="max-md:order-1"
             description={
               reordering
                 ? "In the stored order: move a task up or down."
