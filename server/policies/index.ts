@@ -51,6 +51,7 @@ export type Action =
   | "trades.create"
   | "trades.update"
   | "trades.delete"
+  | "bookings.manage"
   | "starters.read"
   | "starters.update"
   | "customers.read"
@@ -119,6 +120,7 @@ export function can(actor: Actor, action: Action, resource: Resource): boolean {
     case "trades.read":
     case "trades.create":
     case "trades.update":
+    case "bookings.manage":
     case "starters.read":
     case "starters.update":
     case "customers.read":

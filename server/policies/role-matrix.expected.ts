@@ -119,6 +119,22 @@ export const expected: Record<string, Row> = {
   "POST /jobs/:jobId/programme/preview": jobStaff(200),
   "POST /jobs/:jobId/programme/apply": jobStaff(200),
 
+  // Bookings: the workshop books, sends, records answers; the trade answers by its link.
+  "GET /jobs/:jobId/bookings": jobStaff(200),
+  "GET /jobs/:jobId/tasks/:taskId/booking-options": jobStaff(200),
+  "POST /jobs/:jobId/bookings": jobStaff(201),
+  // The booking sent here is the job's only one and still a draft, so the trade is not on the job yet.
+  "POST /bookings/:bookingId/send": { ...jobStaff(200), tradeOn: 404 },
+  "POST /bookings/:bookingId/answer": jobStaff(200),
+  "POST /bookings/:bookingId/proposal": jobStaff(200),
+  "POST /bookings/:bookingId/cancel": jobStaff(200),
+  "POST /bookings/:bookingId/chase": jobStaff(200),
+  "GET /bookings/:bookingId/link": jobStaff(200),
+  "GET /workshops/:workshopId/bookings/unanswered": staff(200),
+  // The confirmation link works without an account, for that one booking: whoever holds it.
+  "GET /booking-links/:token": all(200),
+  "POST /booking-links/:token/answer": all(200),
+
   "GET /workshops/:workshopId": staff(200),
   "PATCH /workshops/:workshopId": ownerOnly(200),
   "GET /workshops/:workshopId/members": ownerOnly(200),

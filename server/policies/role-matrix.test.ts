@@ -23,6 +23,7 @@ import {
 import { Customer } from "../modules/customers/customers.entity";
 import { Job } from "../modules/jobs/jobs.entity";
 import { Trade } from "../modules/trades/trades.entity";
+import { Booking } from "../modules/bookings/bookings.entity";
 import { Workshop } from "../modules/workshops/workshops.entity";
 import { ProgrammeStarter } from "../modules/starters/starters.entity";
 import { expected, roles, type MatrixRole } from "./role-matrix.expected";
@@ -95,6 +96,8 @@ async function freshProgramme(): Promise<{
   taskId: string;
   otherTaskId: string;
   thirdTaskId: string;
+  covingTaskId: string;
+  bookingId: string;
   linkId: string;
 }> {
   const m = t.db.ds.manager;
@@ -118,7 +121,13 @@ async function freshProgramme(): Promise<{
     party: "workshop",
     durationDays: 1,
   });
-  await buildBooking(m, task, plasterer, {
+  const coving = await buildTask(m, job, {
+    name: "Fit coving & make good",
+    party: "plasterer",
+    durationDays: 1,
+  });
+  await buildLink(m, task, coving, { lag: 2 });
+  const booking = await buildBooking(m, task, plasterer, {
     state: "sent",
     start: "2027-02-01T08:00",
     finish: "2027-02-01T12:00",
@@ -128,8 +137,41 @@ async function freshProgramme(): Promise<{
     taskId: task.id,
     otherTaskId: fix.id,
     thirdTaskId: doors.id,
+    covingTaskId: coving.id,
+    bookingId: booking.id,
     linkId: link.id,
   };
+}
+
+/** A fresh job's booking in a given state (drafts are turned into sent bookings through the API when a link is needed). */
+async function bookingIn(
+  state: "draft" | "sent" | "date-proposed",
+): Promise<string> {
+  const p = await freshProgramme();
+  const m = t.db.ds.manager;
+  await m.update(
+    Booking,
+    { id: p.bookingId },
+    {
+      state,
+      proposedStart: state === "date-proposed" ? "2027-02-02T08:00" : null,
+    },
+  );
+  return p.bookingId;
+}
+
+/** A booking sent through the API as the owner, and its confirmation link's token. */
+async function linkedBooking(): Promise<{ bookingId: string; token: string }> {
+  const bookingId = await bookingIn("draft");
+  const owner = await signIn(t, emails.owner);
+  await owner.agent
+    .post(`/api/bookings/${bookingId}/send`)
+    .set("X-CSRF-Token", owner.csrf)
+    .expect(200);
+  const link = await owner.agent
+    .get(`/api/bookings/${bookingId}/link`)
+    .expect(200);
+  return { bookingId, token: link.body.url.split("/b/")[1] };
 }
 
 const unique = () => randomBytes(4).toString("hex");
@@ -207,7 +249,10 @@ const requests: Record<string, () => Promise<{ path: string; body?: object }>> =
       const p = await freshProgramme();
       return {
         path: `/api/jobs/${p.jobId}/tasks/order`,
-        body: { version: 1, taskIds: [p.thirdTaskId, p.taskId, p.otherTaskId] },
+        body: {
+          version: 1,
+          taskIds: [p.thirdTaskId, p.covingTaskId, p.taskId, p.otherTaskId],
+        },
       };
     },
     "POST /jobs/:jobId/tasks/:taskId/progress": async () => {
@@ -261,6 +306,63 @@ const requests: Record<string, () => Promise<{ path: string; body?: object }>> =
         },
       };
     },
+    "GET /jobs/:jobId/bookings": async () => ({
+      path: `/api/jobs/${await freshJob()}/bookings`,
+    }),
+    "GET /jobs/:jobId/tasks/:taskId/booking-options": async () => {
+      const p = await freshProgramme();
+      return {
+        path: `/api/jobs/${p.jobId}/tasks/${p.covingTaskId}/booking-options`,
+      };
+    },
+    "POST /jobs/:jobId/bookings": async () => {
+      const p = await freshProgramme();
+      return {
+        path: `/api/jobs/${p.jobId}/bookings`,
+        body: {
+          taskId: p.covingTaskId,
+          tradeId: ids.plastererId,
+          start: "2027-02-08",
+          arrivalWindow: "all-day",
+          send: false,
+        },
+      };
+    },
+    "POST /bookings/:bookingId/send": async () => ({
+      path: `/api/bookings/${await bookingIn("draft")}/send`,
+    }),
+    "POST /bookings/:bookingId/answer": async () => ({
+      path: `/api/bookings/${await bookingIn("sent")}/answer`,
+      body: {
+        answer: "confirm",
+        channel: "phone",
+        note: "Said yes on the phone",
+      },
+    }),
+    "POST /bookings/:bookingId/proposal": async () => ({
+      path: `/api/bookings/${await bookingIn("date-proposed")}/proposal`,
+      body: { accept: false, note: "That day is taken" },
+    }),
+    "POST /bookings/:bookingId/cancel": async () => ({
+      path: `/api/bookings/${await bookingIn("sent")}/cancel`,
+      body: { reason: "Customer postponed" },
+    }),
+    "POST /bookings/:bookingId/chase": async () => ({
+      path: `/api/bookings/${await bookingIn("sent")}/chase`,
+    }),
+    "GET /bookings/:bookingId/link": async () => ({
+      path: `/api/bookings/${(await linkedBooking()).bookingId}/link`,
+    }),
+    "GET /workshops/:workshopId/bookings/unanswered": async () => ({
+      path: `/api/workshops/${ids.workshopId}/bookings/unanswered?hours=1`,
+    }),
+    "GET /booking-links/:token": async () => ({
+      path: `/api/booking-links/${(await linkedBooking()).token}`,
+    }),
+    "POST /booking-links/:token/answer": async () => ({
+      path: `/api/booking-links/${(await linkedBooking()).token}/answer`,
+      body: { answer: "confirm" },
+    }),
     "GET /workshops/:workshopId": async () => ({
       path: `/api/workshops/${ids.workshopId}`,
     }),

@@ -8,3 +8,4 @@ export * from "./health";
 export * from "./mail";
 export * from "./programme";
 export * from "./starters";
+export * from "./bookings";

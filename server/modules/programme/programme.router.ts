@@ -27,6 +27,7 @@ import {
   reorderTasks,
   updateLink,
   updateTask,
+  type AfterApply,
 } from "./programme.service";
 
 const job = z.object({ jobId: idSchema });
@@ -34,7 +35,11 @@ const task = job.extend({ taskId: idSchema });
 const link = job.extend({ linkId: idSchema });
 const tag = "programme";
 
-export function registerProgrammeRoutes(api: ApiRoutes, ds: DataSource): void {
+export function registerProgrammeRoutes(
+  api: ApiRoutes,
+  ds: DataSource,
+  afterApply?: AfterApply,
+): void {
   api.add({
     method: "get",
     path: "/jobs/:jobId/programme",
@@ -158,6 +163,13 @@ export function registerProgrammeRoutes(api: ApiRoutes, ds: DataSource): void {
     body: changeBodySchema,
     response: applyResponseSchema,
     handler: async ({ actor, params, body }) =>
-      applyChange(ds, actor, params.jobId, body.version, body.changes),
+      applyChange(
+        ds,
+        actor,
+        params.jobId,
+        body.version,
+        body.changes,
+        afterApply,
+      ),
   });
 }

@@ -513,23 +513,34 @@ export async function previewChange(
   return { impact: impactOf(before, after), result: schedule(after) };
 }
 
-/** Applies a previewed change; the server recomputes the impact itself (a client preview is never trusted). */
+/** Runs inside the apply transaction with the server's own impact: re-confirming moved bookings. */
+export type AfterApply = (
+  m: EntityManager,
+  job: Job,
+  impact: Impact,
+  actorUserId: string,
+) => Promise<void>;
+
+/** Applies a previewed change; the server recomputes its impact itself (a client preview is never trusted). */
 export async function applyChange(
   ds: DataSource,
   actor: Actor | null,
   jobId: string,
   version: number,
   changes: ProgrammeChange[],
+  afterApply?: AfterApply,
 ) {
-  const before = (await getProgramme(ds, actor, jobId))
-    .input as unknown as ProgrammeInput;
-  await editProgramme(
+  const { value: impact } = await editProgramme(
     ds,
     actor,
     jobId,
     version,
     `moved ${changes.length === 1 ? "a task" : `${changes.length} tasks`}`,
     async (m, job) => {
+      const workshop = await m.findOneByOrFail(Workshop, {
+        id: job.workshopId,
+      });
+      const before = (await loadProgramme(m, job, workshop)).input;
       for (const c of changes) {
         const task = await taskOf(m, job, c.taskId);
         await m.update(
@@ -545,11 +556,12 @@ export async function applyChange(
           },
         );
       }
+      const after = (await loadProgramme(m, job, workshop)).input;
+      schedule(after);
+      const impact = impactOf(before, after);
+      if (afterApply) await afterApply(m, job, impact, actor!.userId);
+      return impact;
     },
   );
-  const programme = await getProgramme(ds, actor, jobId);
-  return {
-    impact: impactOf(before, programme.input as unknown as ProgrammeInput),
-    programme,
-  };
+  return { impact, programme: await getProgramme(ds, actor, jobId) };
 }

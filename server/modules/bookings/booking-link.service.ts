@@ -1,0 +1,169 @@
+import type { DataSource, EntityManager } from "typeorm";
+import type { z } from "zod";
+import { firstFreeStart, startWindow } from "../../../shared/programme";
+import type {
+  LinkPageResponse,
+  linkAnswerBodySchema,
+} from "../../../shared/schemas";
+import { HttpError } from "../../http/errors";
+import { loadProgramme } from "../programme/programme-input";
+import { cautionFor } from "../programme/cautions";
+import { schedule } from "../programme/programme.service";
+import { hashLinkToken } from "./booking-links";
+import { Booking, BookingEvent } from "./bookings.entity";
+import {
+  applyAnswer,
+  loadBooking,
+  type BookingDeps,
+  type Loaded,
+} from "./bookings.service";
+
+const invalid = () =>
+  new HttpError(
+    404,
+    "token-invalid",
+    "This booking link is not valid or has expired. Ask the workshop for a new one.",
+  );
+
+/** Finds the booking a link belongs to; also finds links issued for earlier dates (they can show, not confirm). */
+async function resolve(
+  m: EntityManager,
+  token: string,
+): Promise<{ l: Loaded; current: boolean }> {
+  const hash = hashLinkToken(token);
+  let booking = await m.findOneBy(Booking, { linkTokenHash: hash });
+  let current = true;
+  if (!booking) {
+    const event = await m
+      .createQueryBuilder(BookingEvent, "e")
+      .where("JSON_UNQUOTE(JSON_EXTRACT(e.detail, '$.linkHash')) = :h", {
+        h: hash,
+      })
+      .getOne();
+    if (!event) throw invalid();
+    booking = await m.findOneBy(Booking, { id: event.bookingId });
+    if (!booking) throw invalid();
+    current = false;
+  }
+  if (
+    current &&
+    booking.linkExpiresAt &&
+    booking.linkExpiresAt.getTime() < Date.now()
+  )
+    throw invalid();
+  return { l: await loadBooking(m, booking.id), current };
+}
+
+/** Everything the trade's confirmation page shows, scoped to that one booking. */
+export async function linkPage(
+  ds: DataSource,
+  token: string,
+): Promise<LinkPageResponse> {
+  const { l, current } = await resolve(ds.manager, token);
+  const b = l.booking;
+  const data = await loadProgramme(ds.manager, l.job, l.workshop);
+  const result = schedule(data.input);
+  const r = result.tasks.find((t) => t.id === l.task.id)!;
+  const names = new Map(data.tasks.map((t) => [t.id, t]));
+  const waitsOn = data.links
+    .filter((k) => k.toTaskId === l.task.id)
+    .map((k) => {
+      const pred = names.get(k.fromTaskId)!;
+      const pr = result.tasks.find((t) => t.id === pred.id);
+      const waiting = r.readiness.waitingOn.find((w) => w.task === pred.id);
+      return {
+        name: pred.name,
+        state: pred.actualFinish
+          ? "done"
+          : pred.actualStart
+            ? "started"
+            : "planned",
+        plannedFinish: pr?.plannedFinish ?? null,
+        allowsFrom: waiting?.allowsFrom ?? null,
+      };
+    });
+  const unpinned = {
+    ...data.input,
+    tasks: data.input.tasks.map((t) =>
+      t.id === l.task.id ? { ...t, bookedStart: null } : t,
+    ),
+  };
+  const window = startWindow(unpinned, l.task.id);
+  const windowDates = [...new Set(window.starts.map((s) => s.slice(0, 10)))];
+  // The trade's own free days: first free starts found one after another over the next weeks.
+  const freeDates: string[] = [];
+  const resource = data.input.tasks.find((t) => t.id === l.task.id)?.resource;
+  if (resource) {
+    let after = window.earliestStart;
+    for (let i = 0; i < 15; i++) {
+      const free = firstFreeStart(unpinned, l.task.id, { resource, after });
+      if (!free) break;
+      const day = free.start.slice(0, 10);
+      if (!freeDates.includes(day)) freeDates.push(day);
+      const next = new Date(`${day}T12:00:00Z`);
+      next.setUTCDate(next.getUTCDate() + 1);
+      after = next.toISOString().slice(0, 10);
+    }
+  }
+  const showAddress = current && (b.state === "confirmed" || b.shareAddress);
+  const cancelled = b.state === "cancelled";
+  return {
+    status: cancelled ? "cancelled" : current ? "current" : "dates-changed",
+    workshopName: l.workshop.name,
+    tradeBusinessName: l.trade.businessName,
+    taskName: l.task.name,
+    jobArea: l.job.area,
+    siteAddress: showAddress ? `${l.job.siteAddress}, ${l.job.postcode}` : null,
+    accessNotes: showAddress ? l.job.accessNotes : null,
+    state: b.state,
+    start: b.start,
+    finish: b.finish,
+    arrivalWindow: b.arrivalWindow,
+    arrivalFrom: b.arrivalFrom,
+    arrivalTo: b.arrivalTo,
+    proposedStart: b.proposedStart,
+    caution: cautionFor(l.task.party, l.task.hazards),
+    customerNote: l.task.customerNote,
+    waitsOn,
+    windowDates,
+    freeDates,
+    handoverKept: window.keepsHandover,
+    answeredAt: b.answeredAt?.toISOString() ?? null,
+    canAnswer:
+      current &&
+      ["sent", "needs-reconfirming", "date-proposed", "confirmed"].includes(
+        b.state,
+      ),
+  };
+}
+
+/** The trade answers by link: exactly what a recorded answer or a calendar-app reply does. */
+export async function answerByLink(
+  deps: BookingDeps,
+  token: string,
+  body: z.output<typeof linkAnswerBodySchema>,
+): Promise<LinkPageResponse> {
+  await deps.ds.transaction(async (m) => {
+    const { l, current } = await resolve(m, token);
+    if (!current)
+      throw new HttpError(
+        409,
+        "conflict",
+        "The dates of this booking have changed since this link was sent; the new dates are shown. Use the newest e-mail's link to answer.",
+      );
+    const locked = await loadBooking(m, l.booking.id, true);
+    await applyAnswer(
+      m,
+      deps,
+      locked,
+      {
+        answer: body.answer,
+        proposedStart: body.proposedStart,
+        note: body.reason,
+      },
+      "link",
+      null,
+    );
+  });
+  return linkPage(deps.ds, token);
+}

@@ -1,0 +1,1034 @@
+import { randomUUID } from "node:crypto";
+import {
+  In,
+  LessThan,
+  Not,
+  type DataSource,
+  type EntityManager,
+} from "typeorm";
+import type { z } from "zod";
+import {
+  firstFreeStart,
+  startWindow,
+  type Impact,
+  type ProgrammeInput,
+  type ProgrammeResult,
+} from "../../../shared/programme";
+import type {
+  BookingOptionsResponse,
+  BookingResponse,
+  BookingChannel,
+  BookingState,
+  createBookingBodySchema,
+  recordAnswerBodySchema,
+} from "../../../shared/schemas";
+import { newId } from "../../db/columns";
+import { HttpError, notFound } from "../../http/errors";
+import { authorize, requireActor, type Actor } from "../../policies";
+import { audit } from "../audit/audit.service";
+import { Job } from "../jobs/jobs.entity";
+import { jobResource } from "../jobs/job-access";
+import {
+  loadProgramme,
+  PINNING_STATES,
+  type ProgrammeData,
+} from "../programme/programme-input";
+import { Task } from "../programme/programme.entity";
+import { schedule } from "../programme/programme.service";
+import { Trade } from "../trades/trades.entity";
+import { User } from "../users/users.entity";
+import { Workshop } from "../workshops/workshops.entity";
+import { linkExpiry, linkToken, hashLinkToken } from "./booking-links";
+import {
+  dayWords,
+  notifyWorkshop,
+  queueBookingMail,
+  type NoticeContext,
+} from "./booking-notices";
+import { Booking, BookingEvent } from "./bookings.entity";
+
+export interface BookingDeps {
+  ds: DataSource;
+  appUrl: string;
+  /** Signs confirmation links (see booking-links.ts). */
+  linkSecret: string;
+  /** Domain of the per-booking reply addresses the inbound SMTP receiver accepts. */
+  replyDomain: string;
+}
+
+/** The job's programme with one trade put on one task (optionally booked at `start`), for the engine's questions. */
+async function withCandidate(
+  m: EntityManager,
+  data: ProgrammeData,
+  job: Job,
+  trade: Trade,
+  taskId: string,
+  start: string | null,
+): Promise<ProgrammeInput> {
+  const others = await m.find(Booking, {
+    where: {
+      tradeId: trade.id,
+      jobId: Not(job.id),
+      state: In([...PINNING_STATES]),
+    },
+    relations: { job: true },
+  });
+  const sameJob = data.tasks
+    .filter((t) => t.id !== taskId)
+    .map((t) => data.bookingByTask.get(t.id))
+    .filter((b): b is Booking => !!b && b.tradeId === trade.id);
+  const name = trade.businessName;
+  const calId = `trade:${trade.id}`;
+  const input = data.input;
+  return {
+    ...input,
+    calendars: [
+      ...(input.calendars ?? []).filter((c) => c.id !== calId),
+      {
+        id: calId,
+        workingWeekdays: trade.workingWeekdays,
+        dayStart: trade.dayStart,
+        dayEnd: trade.dayEnd,
+        holidayRegion: job.holidayRegion,
+        daysOff: trade.daysOff,
+      },
+    ],
+    tasks: input.tasks.map((t) => {
+      if (t.id === taskId)
+        return {
+          ...t,
+          calendar: [calId, "site"],
+          resource: name,
+          bookedStart: start,
+        };
+      // Other tasks this trade already holds on this job keep their resource name (so clashes show).
+      if (sameJob.some((b) => b.taskId === t.id))
+        return { ...t, resource: name };
+      return t;
+    }),
+    busy: [
+      ...(input.busy ?? []).filter((b) => b.resource !== name),
+      ...others.map((b) => ({
+        resource: name,
+        start: b.start,
+        finish: b.finish,
+        ref: b.job?.title ?? "another job",
+      })),
+    ],
+  };
+}
+
+function taskResult(result: ProgrammeResult, taskId: string) {
+  const r = result.tasks.find((t) => t.id === taskId);
+  if (!r) throw new Error(`task ${taskId} missing from the result`);
+  return r;
+}
+
+interface Loaded {
+  job: Job;
+  workshop: Workshop;
+  booking: Booking;
+  task: Task;
+  trade: Trade;
+}
+
+async function loadBooking(
+  m: EntityManager,
+  bookingId: string,
+  lock = false,
+): Promise<Loaded> {
+  const booking = await m.findOne(Booking, {
+    where: { id: bookingId },
+    ...(lock ? { lock: { mode: "pessimistic_write" as const } } : {}),
+  });
+  if (!booking) throw notFound("That booking");
+  const [job, task, trade] = await Promise.all([
+    m.findOneByOrFail(Job, { id: booking.jobId }),
+    m.findOneByOrFail(Task, { id: booking.taskId }),
+    m.findOneByOrFail(Trade, { id: booking.tradeId }),
+  ]);
+  const workshop = await m.findOneByOrFail(Workshop, { id: job.workshopId });
+  return { job, workshop, booking, task, trade };
+}
+
+async function authorizeBooking(
+  ds: DataSource,
+  actor: Actor | null,
+  l: Loaded,
+) {
+  requireActor(actor);
+  authorize(actor, "bookings.manage", await jobResource(ds, l.job));
+}
+
+/** Adds an entry to the booking's history (who, when, how, why). */
+export async function recordEvent(
+  m: EntityManager,
+  b: Booking,
+  from: BookingState | null,
+  to: BookingState,
+  channel: BookingChannel,
+  actorUserId: string | null,
+  note = "",
+  detail: Record<string, unknown> = {},
+): Promise<void> {
+  await m.insert(BookingEvent, {
+    id: newId(),
+    workshopId: b.workshopId,
+    bookingId: b.id,
+    fromState: from,
+    toState: to,
+    actorUserId,
+    channel,
+    note,
+    detail: detail as never,
+  });
+}
+
+/** Issues the link for the booking's current dates (same dates → same link) and remembers its hash. */
+function issueLink(deps: BookingDeps, b: Booking): string {
+  const expires = linkExpiry(b.finish);
+  const token = linkToken(deps.linkSecret, b.id, b.start, expires);
+  b.linkTokenHash = hashLinkToken(token);
+  b.linkForStart = b.start;
+  b.linkExpiresAt = expires;
+  return `${deps.appUrl}/b/${token}`;
+}
+
+/** The link for the booking as it stands (re-derived, not stored). */
+export function currentLink(deps: BookingDeps, b: Booking): string | null {
+  if (!b.linkExpiresAt || !b.linkForStart) return null;
+  return `${deps.appUrl}/b/${linkToken(deps.linkSecret, b.id, b.linkForStart, b.linkExpiresAt)}`;
+}
+
+/** What the task waits on, in words, from the engine. */
+async function waitsOnWords(m: EntityManager, l: Loaded): Promise<string[]> {
+  const data = await loadProgramme(m, l.job, l.workshop);
+  const result = schedule(data.input);
+  const r = taskResult(result, l.task.id);
+  const names = new Map(data.tasks.map((t) => [t.id, t.name]));
+  return r.readiness.waitingOn.map(
+    (w) =>
+      `${names.get(w.task)} (allows a start from ${dayWords(w.allowsFrom)})`,
+  );
+}
+
+async function noticeContext(
+  m: EntityManager,
+  deps: BookingDeps,
+  l: Loaded,
+  link: string | null,
+): Promise<NoticeContext> {
+  return {
+    appUrl: deps.appUrl,
+    replyDomain: deps.replyDomain,
+    workshop: l.workshop,
+    job: l.job,
+    task: l.task,
+    trade: l.trade,
+    waitsOn: await waitsOnWords(m, l),
+    link,
+    showAddress: l.booking.state === "confirmed" || l.booking.shareAddress,
+  };
+}
+
+async function bumpJob(m: EntityManager, job: Job) {
+  // Bookings pin tasks, so a booking change is a programme change: the job's version moves.
+  await m.update(Job, { id: job.id }, { version: job.version + 1 });
+  job.version += 1;
+}
+
+/** Who the workshop may book for a task: the trades of its kind, each with their first free start, and the start window. */
+export async function bookingOptions(
+  ds: DataSource,
+  actor: Actor | null,
+  jobId: string,
+  taskId: string,
+): Promise<BookingOptionsResponse> {
+  requireActor(actor);
+  const job = await ds.manager.findOneBy(Job, { id: jobId });
+  if (!job) throw notFound("That job");
+  authorize(actor, "bookings.manage", await jobResource(ds, job));
+  const task = await ds.manager.findOneBy(Task, { id: taskId, jobId });
+  if (!task) throw notFound("That task");
+  if (task.party === "workshop")
+    throw new HttpError(
+      422,
+      "unprocessable",
+      "This task is the workshop's own; only trade tasks are booked.",
+    );
+  const workshop = await ds.manager.findOneByOrFail(Workshop, {
+    id: job.workshopId,
+  });
+  const data = await loadProgramme(ds.manager, job, workshop);
+  // The window comes from the task as planned without its current booking pin.
+  const unpinned = {
+    ...data.input,
+    tasks: data.input.tasks.map((t) =>
+      t.id === taskId ? { ...t, bookedStart: null } : t,
+    ),
+  };
+  const window = startWindow(unpinned, taskId);
+  const trades = await ds.manager.find(Trade, {
+    where: { workshopId: job.workshopId, kind: task.party },
+    order: { businessName: "ASC" },
+  });
+  const declined = new Set(
+    (await ds.manager.findBy(Booking, { taskId, state: "declined" })).map(
+      (b) => b.tradeId,
+    ),
+  );
+  const options = [];
+  for (const trade of trades) {
+    const input = await withCandidate(
+      ds.manager,
+      data,
+      job,
+      trade,
+      taskId,
+      null,
+    );
+    const free = firstFreeStart(input, taskId);
+    options.push({
+      tradeId: trade.id,
+      businessName: trade.businessName,
+      kind: trade.kind,
+      firstFree: free
+        ? {
+            start: free.start,
+            finish: free.finish,
+            pastLateStart: free.pastLateStart,
+            message: free.message,
+          }
+        : null,
+      declined: declined.has(trade.id),
+    });
+  }
+  options.sort(
+    (a, b) =>
+      Number(a.declined) - Number(b.declined) ||
+      (a.firstFree?.start ?? "9").localeCompare(b.firstFree?.start ?? "9"),
+  );
+  return {
+    taskId,
+    taskName: task.name,
+    party: task.party,
+    durationDays: Number(task.durationDays),
+    earliestStart: window.earliestStart,
+    latestStart: window.latestStart,
+    keepsHandover: window.keepsHandover,
+    trades: options,
+  };
+}
+
+/** Engine check of a proposed booking: its finish, and any clash or day off with the next free start. */
+async function checkBooking(
+  m: EntityManager,
+  job: Job,
+  workshop: Workshop,
+  trade: Trade,
+  taskId: string,
+  start: string,
+) {
+  const data = await loadProgramme(m, job, workshop);
+  const input = await withCandidate(m, data, job, trade, taskId, start);
+  const result = schedule(input);
+  const r = taskResult(result, taskId);
+  const problems = r.problems
+    .filter((p) => p.code === "clash" || p.code === "non-working-day")
+    .map((p) => p.message);
+  let nextFree: string | null = null;
+  if (problems.length) {
+    const free = firstFreeStart(
+      {
+        ...input,
+        tasks: input.tasks.map((t) =>
+          t.id === taskId ? { ...t, bookedStart: null } : t,
+        ),
+      },
+      taskId,
+      { after: start },
+    );
+    nextFree = free?.start ?? null;
+  }
+  return {
+    finish: r.plannedFinish,
+    problems,
+    nextFree,
+    tooEarly: r.problems
+      .filter((p) => p.code === "booking-too-early")
+      .map((p) => p.message),
+  };
+}
+
+async function presentBooking(
+  m: EntityManager,
+  b: Booking,
+): Promise<BookingResponse> {
+  const [task, trade, events] = await Promise.all([
+    m.findOneByOrFail(Task, { id: b.taskId }),
+    m.findOneByOrFail(Trade, { id: b.tradeId }),
+    m.find(BookingEvent, {
+      where: { bookingId: b.id },
+      order: { createdAt: "ASC" },
+    }),
+  ]);
+  const userIds = [
+    ...new Set(
+      events.map((e) => e.actorUserId).filter((x): x is string => !!x),
+    ),
+  ];
+  const users = userIds.length ? await m.findBy(User, { id: In(userIds) }) : [];
+  const who = (e: BookingEvent) =>
+    e.actorUserId
+      ? (users.find((u) => u.id === e.actorUserId)?.name ?? "Someone")
+      : e.channel === "system"
+        ? "Sitecue"
+        : trade.businessName;
+  return {
+    id: b.id,
+    jobId: b.jobId,
+    taskId: b.taskId,
+    taskName: task.name,
+    tradeId: b.tradeId,
+    tradeBusinessName: trade.businessName,
+    tradeKind: trade.kind,
+    state: b.state,
+    start: b.start,
+    finish: b.finish,
+    arrivalWindow: b.arrivalWindow,
+    arrivalFrom: b.arrivalFrom,
+    arrivalTo: b.arrivalTo,
+    proposedStart: b.proposedStart,
+    shareAddress: b.shareAddress,
+    overrideReason: b.overrideReason,
+    sequence: b.sequence,
+    sentAt: b.sentAt?.toISOString() ?? null,
+    answeredAt: b.answeredAt?.toISOString() ?? null,
+    history: events.map((e) => ({
+      at: e.createdAt.toISOString(),
+      fromState: e.fromState,
+      toState: e.toState,
+      channel: e.channel,
+      who: who(e),
+      note: e.note,
+    })),
+  };
+}
+
+/** The job's bookings with their history (workshop). */
+export async function listJobBookings(
+  ds: DataSource,
+  actor: Actor | null,
+  jobId: string,
+): Promise<BookingResponse[]> {
+  requireActor(actor);
+  const job = await ds.manager.findOneBy(Job, { id: jobId });
+  if (!job) throw notFound("That job");
+  authorize(actor, "bookings.manage", await jobResource(ds, job));
+  const bookings = await ds.manager.find(Booking, {
+    where: { jobId },
+    order: { start: "ASC" },
+  });
+  return Promise.all(bookings.map((b) => presentBooking(ds.manager, b)));
+}
+
+/** Bookings waiting too long for an answer, for the maker's list (each one click from a chase). */
+export async function listUnanswered(
+  deps: BookingDeps,
+  actor: Actor | null,
+  workshopId: string,
+  hours: number,
+): Promise<BookingResponse[]> {
+  authorize(actor, "bookings.manage", { kind: "workshop", workshopId });
+  const before = new Date(Date.now() - hours * 3600_000);
+  const rows = await deps.ds.manager.find(Booking, {
+    where: {
+      workshopId,
+      state: In(["sent", "needs-reconfirming"]),
+      sentAt: LessThan(before),
+    },
+    order: { sentAt: "ASC" },
+  });
+  return Promise.all(rows.map((b) => presentBooking(deps.ds.manager, b)));
+}
+
+/** Books a trade for a task (a draft, or sent with its invitation); a clash or day off needs an override reason. */
+export async function createBooking(
+  deps: BookingDeps,
+  actor: Actor | null,
+  jobId: string,
+  body: z.output<typeof createBookingBodySchema>,
+): Promise<BookingResponse> {
+  requireActor(actor);
+  const { ds } = deps;
+  const id = await ds.transaction(async (m) => {
+    const job = await m.findOne(Job, {
+      where: { id: jobId },
+      lock: { mode: "pessimistic_write" },
+    });
+    if (!job) throw notFound("That job");
+    authorize(actor, "bookings.manage", await jobResource(ds, job));
+    const task = await m.findOneBy(Task, { id: body.taskId, jobId });
+    if (!task)
+      throw new HttpError(
+        422,
+        "unprocessable",
+        "That task is not in this job.",
+        { taskId: ["Choose a task of this job"] },
+      );
+    const trade = await m.findOneBy(Trade, {
+      id: body.tradeId,
+      workshopId: job.workshopId,
+    });
+    if (!trade)
+      throw new HttpError(
+        422,
+        "unprocessable",
+        "That trade is not one of this workshop's.",
+        { tradeId: ["Choose one of the workshop's trades"] },
+      );
+    if (task.party === "workshop")
+      throw new HttpError(
+        422,
+        "unprocessable",
+        "This task is the workshop's own; only trade tasks are booked.",
+        { taskId: ["Choose a trade task"] },
+      );
+    if (trade.kind !== task.party)
+      throw new HttpError(
+        422,
+        "unprocessable",
+        `This task is for a ${task.party}; ${trade.businessName} is a ${trade.kind}.`,
+        { tradeId: ["Choose a trade of the task's kind"] },
+      );
+    const standing = await m.findOneBy(Booking, {
+      taskId: task.id,
+      state: In([...PINNING_STATES, "draft"]),
+    });
+    if (standing)
+      throw new HttpError(
+        409,
+        "conflict",
+        "This task already has a booking; cancel it or move it instead.",
+        { taskId: ["Already booked"] },
+      );
+    const workshop = await m.findOneByOrFail(Workshop, { id: job.workshopId });
+    const start =
+      body.start.length === 10 ? `${body.start}T${trade.dayStart}` : body.start;
+    const check = await checkBooking(m, job, workshop, trade, task.id, start);
+    if (check.problems.length && !body.overrideReason) {
+      const next = check.nextFree
+        ? ` Their next free start is ${dayWords(check.nextFree)}${check.nextFree.endsWith("T12:00") ? " afternoon" : ""}.`
+        : "";
+      throw new HttpError(
+        409,
+        "conflict",
+        `${check.problems.join(" ")}${next} Choose another start, or give a reason to book anyway.`,
+        {
+          start: check.problems,
+          ...(check.nextFree ? { nextFreeStart: [check.nextFree] } : {}),
+        },
+      );
+    }
+    const b = m.create(Booking, {
+      id: newId(),
+      workshopId: job.workshopId,
+      jobId,
+      taskId: task.id,
+      tradeId: trade.id,
+      state: "draft",
+      start,
+      finish: check.finish,
+      arrivalWindow: body.arrivalWindow,
+      arrivalFrom: body.arrivalFrom,
+      arrivalTo: body.arrivalTo,
+      shareAddress: body.shareAddress,
+      overrideReason: check.problems.length ? body.overrideReason : null,
+      icalUid: randomUUID(),
+      sequence: 0,
+      proposedStart: null,
+      linkTokenHash: null,
+      linkExpiresAt: null,
+      linkForStart: null,
+      sentAt: null,
+      answeredAt: null,
+      reminderSentAt: null,
+      chasedAt: null,
+    });
+    await m.insert(Booking, b);
+    await recordEvent(
+      m,
+      b,
+      null,
+      "draft",
+      "app",
+      actor.userId,
+      check.problems.length
+        ? `Booked despite: ${check.problems.join(" ")} Reason: ${body.overrideReason}`
+        : "",
+    );
+    await audit(m, {
+      workshopId: job.workshopId,
+      actorUserId: actor.userId,
+      action: "booking.created",
+      entityType: "booking",
+      entityId: b.id,
+      detail: {
+        jobId,
+        toVersion: job.version + 1,
+        summary: `booked ${trade.businessName} for ${task.name}`,
+      },
+    });
+    if (body.send)
+      await sendInTransaction(
+        m,
+        deps,
+        { job, workshop, booking: b, task, trade },
+        actor.userId,
+        "invitation",
+      );
+    await bumpJob(m, job);
+    return b.id;
+  });
+  return presentBooking(
+    ds.manager,
+    await ds.manager.findOneByOrFail(Booking, { id }),
+  );
+}
+
+async function sendInTransaction(
+  m: EntityManager,
+  deps: BookingDeps,
+  l: Loaded,
+  actorUserId: string | null,
+  kind: "invitation" | "updated",
+) {
+  const from = l.booking.state;
+  const to: BookingState = kind === "updated" ? "needs-reconfirming" : "sent";
+  l.booking.state = to;
+  const link = issueLink(deps, l.booking);
+  l.booking.sentAt = new Date();
+  l.booking.answeredAt = null;
+  await m.save(Booking, l.booking);
+  await recordEvent(
+    m,
+    l.booking,
+    from,
+    to,
+    "system",
+    actorUserId,
+    kind === "updated"
+      ? "Dates changed: sent again to confirm"
+      : "Invitation sent",
+    { linkHash: l.booking.linkTokenHash, forStart: l.booking.start },
+  );
+  await queueBookingMail(
+    m,
+    await noticeContext(m, deps, l, link),
+    l.booking,
+    kind === "updated" ? "updated" : "invitation",
+  );
+}
+
+/** Sends a draft booking: e-mail with the calendar invitation and the confirmation link. */
+export async function sendBooking(
+  deps: BookingDeps,
+  actor: Actor | null,
+  bookingId: string,
+): Promise<BookingResponse> {
+  const { ds } = deps;
+  await ds.transaction(async (m) => {
+    const l = await loadBooking(m, bookingId, true);
+    await authorizeBooking(ds, actor, l);
+    if (l.booking.state !== "draft")
+      throw new HttpError(
+        409,
+        "conflict",
+        `This booking is ${l.booking.state}, not a draft; use chase to send it again.`,
+      );
+    await sendInTransaction(m, deps, l, actor!.userId, "invitation");
+    await bumpJob(m, l.job);
+  });
+  return presentBooking(
+    ds.manager,
+    await ds.manager.findOneByOrFail(Booking, { id: bookingId }),
+  );
+}
+
+const answerable: BookingState[] = [
+  "sent",
+  "needs-reconfirming",
+  "date-proposed",
+  "confirmed",
+];
+
+/**
+ * Applies a trade's answer, however it came (link, phone, text, calendar app): one path, so each
+ * counts the same. Returns the new state.
+ */
+export async function applyAnswer(
+  m: EntityManager,
+  deps: BookingDeps,
+  l: Loaded,
+  answer: {
+    answer: "confirm" | "decline" | "propose";
+    proposedStart: string | null;
+    note: string;
+  },
+  channel: BookingChannel,
+  actorUserId: string | null,
+): Promise<BookingState> {
+  const b = l.booking;
+  if (!answerable.includes(b.state))
+    throw new HttpError(
+      409,
+      "conflict",
+      `This booking is ${b.state}; it cannot be answered now.`,
+    );
+  const from = b.state;
+  let to: BookingState;
+  if (answer.answer === "confirm") {
+    to = "confirmed";
+    b.proposedStart = null;
+  } else if (answer.answer === "decline") {
+    to = "declined";
+  } else {
+    to = "date-proposed";
+    b.proposedStart =
+      answer.proposedStart!.length === 10
+        ? `${answer.proposedStart}T${l.trade.dayStart}`
+        : answer.proposedStart;
+  }
+  if (from === to && to !== "date-proposed") return to; // a repeated answer changes nothing
+  b.state = to;
+  b.answeredAt = new Date();
+  await m.save(Booking, b);
+  await recordEvent(
+    m,
+    b,
+    from,
+    to,
+    channel,
+    actorUserId,
+    answer.note,
+    answer.proposedStart ? { proposedStart: b.proposedStart } : {},
+  );
+  await audit(m, {
+    workshopId: b.workshopId,
+    actorUserId,
+    action: `booking.${to}`,
+    entityType: "booking",
+    entityId: b.id,
+    detail: {
+      jobId: b.jobId,
+      channel,
+      toVersion: l.job.version + 1,
+      summary: `recorded ${l.trade.businessName}: ${to}`,
+    },
+  });
+  await bumpJob(m, l.job);
+  if (channel === "link" || channel === "calendar-reply") {
+    const words =
+      to === "confirmed"
+        ? "confirmed"
+        : to === "declined"
+          ? `can't make it${answer.note ? ` (${answer.note})` : ""}`
+          : `proposes ${dayWords(b.proposedStart!)} instead`;
+    await notifyWorkshop(
+      m,
+      l,
+      `${l.trade.businessName} ${words}: ${l.task.name}, ${l.job.title}.`,
+      `${deps.appUrl}/jobs/${l.job.id}`,
+    );
+  }
+  return to;
+}
+
+/** The maker records an answer given by phone or text, on the trade's behalf. */
+export async function recordAnswer(
+  deps: BookingDeps,
+  actor: Actor | null,
+  bookingId: string,
+  body: z.output<typeof recordAnswerBodySchema>,
+): Promise<BookingResponse> {
+  const { ds } = deps;
+  await ds.transaction(async (m) => {
+    const l = await loadBooking(m, bookingId, true);
+    await authorizeBooking(ds, actor, l);
+    const note = body.note || `Answered by ${body.channel}`;
+    await applyAnswer(
+      m,
+      deps,
+      l,
+      { answer: body.answer, proposedStart: body.proposedStart, note },
+      body.channel,
+      actor!.userId,
+    );
+  });
+  return presentBooking(
+    ds.manager,
+    await ds.manager.findOneByOrFail(Booking, { id: bookingId }),
+  );
+}
+
+/** Accepts a trade's proposed start (the booking moves there, confirmed, with an updated invitation) or rejects it. */
+export async function decideProposal(
+  deps: BookingDeps,
+  actor: Actor | null,
+  bookingId: string,
+  accept: boolean,
+  note: string,
+): Promise<BookingResponse> {
+  const { ds } = deps;
+  await ds.transaction(async (m) => {
+    const l = await loadBooking(m, bookingId, true);
+    await authorizeBooking(ds, actor, l);
+    const b = l.booking;
+    if (b.state !== "date-proposed" || !b.proposedStart)
+      throw new HttpError(
+        409,
+        "conflict",
+        "There is no proposed date to decide on.",
+      );
+    if (accept) {
+      const check = await checkBooking(
+        m,
+        l.job,
+        l.workshop,
+        l.trade,
+        l.task.id,
+        b.proposedStart,
+      );
+      b.start = b.proposedStart;
+      b.finish = check.finish;
+      b.proposedStart = null;
+      b.sequence += 1; // RFC 5546 §2.1.4: the dates changed
+      b.state = "confirmed";
+      const link = issueLink(deps, b);
+      await m.save(Booking, b);
+      await recordEvent(
+        m,
+        b,
+        "date-proposed",
+        "confirmed",
+        "app",
+        actor!.userId,
+        note || "Proposed start accepted",
+        { linkHash: b.linkTokenHash, forStart: b.start },
+      );
+      await queueBookingMail(
+        m,
+        await noticeContext(m, deps, l, link),
+        b,
+        "updated",
+        note || "Your proposed start is accepted.",
+      );
+    } else {
+      b.proposedStart = null;
+      b.state = "sent";
+      await m.save(Booking, b);
+      await recordEvent(
+        m,
+        b,
+        "date-proposed",
+        "sent",
+        "app",
+        actor!.userId,
+        note || "Proposed start rejected",
+      );
+      await queueBookingMail(
+        m,
+        await noticeContext(m, deps, l, currentLink(deps, b)),
+        b,
+        "proposal-rejected",
+        note,
+      );
+    }
+    await audit(m, {
+      workshopId: b.workshopId,
+      actorUserId: actor!.userId,
+      action: accept
+        ? "booking.proposal-accepted"
+        : "booking.proposal-rejected",
+      entityType: "booking",
+      entityId: b.id,
+      detail: {
+        jobId: b.jobId,
+        toVersion: l.job.version + 1,
+        summary: `${accept ? "accepted" : "rejected"} ${l.trade.businessName}'s proposed date`,
+      },
+    });
+    await bumpJob(m, l.job);
+  });
+  return presentBooking(
+    ds.manager,
+    await ds.manager.findOneByOrFail(Booking, { id: bookingId }),
+  );
+}
+
+/** Cancels a booking: METHOD:CANCEL with a higher SEQUENCE goes to the trade. */
+export async function cancelBooking(
+  deps: BookingDeps,
+  actor: Actor | null,
+  bookingId: string,
+  reason: string,
+): Promise<BookingResponse> {
+  const { ds } = deps;
+  await ds.transaction(async (m) => {
+    const l = await loadBooking(m, bookingId, true);
+    await authorizeBooking(ds, actor, l);
+    const b = l.booking;
+    if (b.state === "cancelled") return;
+    const from = b.state;
+    const wasSent = from !== "draft";
+    b.state = "cancelled";
+    if (wasSent) b.sequence += 1; // RFC 5546 §2.1.4: CANCEL bumps the sequence
+    b.linkTokenHash = null;
+    await m.save(Booking, b);
+    await recordEvent(m, b, from, "cancelled", "app", actor!.userId, reason);
+    if (wasSent && from !== "declined")
+      await queueBookingMail(
+        m,
+        await noticeContext(m, deps, l, null),
+        b,
+        "cancel",
+        reason,
+      );
+    await audit(m, {
+      workshopId: b.workshopId,
+      actorUserId: actor!.userId,
+      action: "booking.cancelled",
+      entityType: "booking",
+      entityId: b.id,
+      detail: {
+        jobId: b.jobId,
+        toVersion: l.job.version + 1,
+        summary: `cancelled ${l.trade.businessName} for ${l.task.name}`,
+      },
+    });
+    await bumpJob(m, l.job);
+  });
+  return presentBooking(
+    ds.manager,
+    await ds.manager.findOneByOrFail(Booking, { id: bookingId }),
+  );
+}
+
+/** Sends the invitation again (same UID and SEQUENCE) to a trade who has not answered. */
+export async function chaseBooking(
+  deps: BookingDeps,
+  actor: Actor | null,
+  bookingId: string,
+): Promise<BookingResponse> {
+  const { ds } = deps;
+  await ds.transaction(async (m) => {
+    const l = await loadBooking(m, bookingId, true);
+    await authorizeBooking(ds, actor, l);
+    const b = l.booking;
+    if (!["sent", "needs-reconfirming"].includes(b.state))
+      throw new HttpError(
+        409,
+        "conflict",
+        `This booking is ${b.state}; only an unanswered booking is chased.`,
+      );
+    b.chasedAt = new Date();
+    await m.save(Booking, b);
+    await recordEvent(
+      m,
+      b,
+      b.state,
+      b.state,
+      "app",
+      actor!.userId,
+      "Chased: invitation sent again",
+    );
+    await queueBookingMail(
+      m,
+      await noticeContext(m, deps, l, currentLink(deps, b)),
+      b,
+      "chase",
+    );
+  });
+  return presentBooking(
+    ds.manager,
+    await ds.manager.findOneByOrFail(Booking, { id: bookingId }),
+  );
+}
+
+/** The confirmation link for the booking's current dates, to paste into a text message. */
+export async function copyLink(
+  deps: BookingDeps,
+  actor: Actor | null,
+  bookingId: string,
+): Promise<{ url: string }> {
+  const l = await loadBooking(deps.ds.manager, bookingId);
+  await authorizeBooking(deps.ds, actor, l);
+  const url = currentLink(deps, l.booking);
+  if (!url || !l.booking.linkTokenHash)
+    throw new HttpError(
+      409,
+      "conflict",
+      "Send the booking first; a draft has no link yet.",
+    );
+  return { url };
+}
+
+/**
+ * After a programme change (scenario 4): every booking the engine says must move goes to its
+ * proposed start, needs re-confirming, gets an updated invitation (same UID, higher SEQUENCE)
+ * with a fresh link; bookings whose dates still work stay.
+ */
+export async function reconfirmAfterChange(
+  m: EntityManager,
+  deps: BookingDeps,
+  job: Job,
+  impact: Impact,
+  actorUserId: string,
+): Promise<string[]> {
+  const moved: string[] = [];
+  for (const r of impact.reconfirm) {
+    const booking = await m.findOne(Booking, {
+      where: { taskId: r.task, state: In([...PINNING_STATES]) },
+      lock: { mode: "pessimistic_write" },
+    });
+    if (!booking || booking.start === r.proposedStart) continue;
+    const l = await loadBooking(m, booking.id, true);
+    const check = await checkBooking(
+      m,
+      job,
+      l.workshop,
+      l.trade,
+      l.task.id,
+      r.proposedStart,
+    );
+    const from = l.booking.state;
+    l.booking.start = r.proposedStart;
+    l.booking.finish = check.finish;
+    l.booking.sequence += 1; // RFC 5546 §2.1.4: DTSTART changed
+    l.booking.state = "needs-reconfirming";
+    const link = issueLink(deps, l.booking);
+    l.booking.answeredAt = null;
+    await m.save(Booking, l.booking);
+    await recordEvent(
+      m,
+      l.booking,
+      from,
+      "needs-reconfirming",
+      "system",
+      actorUserId,
+      r.reason,
+      { linkHash: l.booking.linkTokenHash, forStart: l.booking.start },
+    );
+    await queueBookingMail(
+      m,
+      await noticeContext(m, deps, l, link),
+      l.booking,
+      "updated",
+      r.reason,
+    );
+    moved.push(l.booking.id);
+  }
+  return moved;
+}
+
+export { loadBooking, type Loaded };

@@ -1,0 +1,68 @@
+import type { DataSource } from "typeorm";
+import type { InboundMail } from "../../infra/mail/inbound";
+import { Booking } from "./bookings.entity";
+import { applyAnswer, loadBooking, type BookingDeps } from "./bookings.service";
+import { parseItipReply } from "./itip-reply";
+
+/**
+ * An iTIP REPLY mailed to a booking's organizer address (RFC 6047) by the trade's calendar app.
+ * Checked per RFC 6047 §2.2.1 — only the invited attendee may answer for themselves (the mail's
+ * From and the ATTENDEE must both be the trade's address) — and UID and SEQUENCE must match the
+ * booking's current invitation (RFC 5546 §2.1.5: a reply to an older sequence is stale). Then it is
+ * recorded exactly like a click on the confirmation link. Throws (→ SMTP 550) when refused.
+ */
+export async function receiveCalendarReply(
+  deps: BookingDeps,
+  ds: DataSource,
+  mail: InboundMail,
+): Promise<void> {
+  const address = mail.to
+    .map((t) => t.toLowerCase())
+    .find(
+      (t) => t.startsWith("booking-") && t.endsWith(`@${deps.replyDomain}`),
+    );
+  if (!address) throw new Error("No booking reply address in this message");
+  const bookingId = address.slice("booking-".length, address.indexOf("@"));
+  const part =
+    mail.calendarParts.find(
+      (p) => (p.method ?? "").toUpperCase() === "REPLY",
+    ) ?? mail.calendarParts[0];
+  if (!part) throw new Error("No calendar reply in this message");
+  const parsed = parseItipReply(part.content);
+  if (!parsed.ok) throw new Error(parsed.problem);
+  const reply = parsed.reply;
+  await ds.transaction(async (m) => {
+    const booking = await m.findOneBy(Booking, { id: bookingId });
+    if (!booking) throw new Error("Unknown booking");
+    const l = await loadBooking(m, booking.id, true);
+    const trade = l.trade.email.toLowerCase();
+    if (
+      mail.from.toLowerCase() !== trade ||
+      reply.attendeeEmail.toLowerCase() !== trade
+    ) {
+      throw new Error("Only the invited trade may answer this invitation");
+    }
+    if (reply.uid !== booking.icalUid)
+      throw new Error("This reply is for another invitation");
+    if (reply.sequence !== booking.sequence)
+      throw new Error(
+        "This reply is for an older version of the invitation; the dates have changed",
+      );
+    if (reply.partstat === "TENTATIVE") {
+      // Tentative is "maybe": recorded in the history, the booking still waits for a yes or no.
+      return;
+    }
+    await applyAnswer(
+      m,
+      deps,
+      l,
+      {
+        answer: reply.partstat === "ACCEPTED" ? "confirm" : "decline",
+        proposedStart: null,
+        note: reply.comment ?? `Answered from their calendar app`,
+      },
+      "calendar-reply",
+      null,
+    );
+  });
+}
