@@ -7,6 +7,7 @@ import { seedDemoIfEmpty } from "./db/seed";
 import { mountClient } from "./http/client";
 import { createMailer } from "./infra/mail/mailer";
 import { startSmtpFake, type SmtpFake } from "./infra/mail/smtp-fake";
+import { OutboxWorker } from "./infra/outbox/outbox";
 
 const log = (msg: string) => console.log(`[sitecue] ${msg}`);
 
@@ -57,6 +58,13 @@ async function main() {
     );
   }
   const mailer = createMailer(smtp);
+  // Services write e-mail to the outbox in their transactions; this process sends its share.
+  // Every app process runs one: rows are claimed with SKIP LOCKED, so they never collide.
+  const outbox = new OutboxWorker({
+    ds,
+    transport: mailer,
+    log: (msg) => console.warn(`[sitecue] ${msg}`),
+  });
 
   if (!production) {
     const seeded = await seedDemoIfEmpty(ds, { production });
@@ -87,6 +95,7 @@ async function main() {
   const took = env.SITECUE_BOOT_STARTED
     ? ` (${((Date.now() - env.SITECUE_BOOT_STARTED) / 1000).toFixed(1)} s after npm start)`
     : "";
+  outbox.start();
   log(`Sitecue is ready at ${appUrl}${took}`);
 
   let closing = false;
@@ -98,6 +107,7 @@ async function main() {
     await new Promise<void>((resolve) => server.close(() => resolve()));
     await closeClient();
     await sitecue.close();
+    await outbox.stop();
     mailer.close();
     await mailbox?.close();
     await ds.destroy();

@@ -11,6 +11,7 @@ import { Booking, BookingEvent } from "../modules/bookings/bookings.entity";
 import { AuditEntry } from "../modules/audit/audit.entity";
 import { AuthToken } from "../modules/auth/auth-tokens.entity";
 import { ProgrammeStarter } from "../modules/starters/starters.entity";
+import { OutboxMessage } from "../infra/outbox/outbox.entity";
 
 /** Every entity, listed once (the data source and tests use this list). */
 export const entities = [
@@ -28,4 +29,5 @@ export const entities = [
   AuditEntry,
   AuthToken,
   ProgrammeStarter,
+  OutboxMessage,
 ];

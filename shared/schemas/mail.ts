@@ -3,6 +3,8 @@ import { z } from "zod";
 /** A message caught by the local SMTP fake (development and tests only). */
 export const caughtMailSchema = z.object({
   id: z.string(),
+  /** The Message-ID header as sent, angle brackets included (RFC 5322 §3.6.4). */
+  messageId: z.string().nullable(),
   receivedAt: z.string(),
   from: z.string(),
   to: z.array(z.string()),

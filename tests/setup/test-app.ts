@@ -5,6 +5,7 @@ import type TestAgent from "supertest/lib/agent";
 import { createApp, type SitecueApp } from "../../server/app";
 import { mountClient } from "../../server/http/client";
 import { createMailer } from "../../server/infra/mail/mailer";
+import { OutboxWorker } from "../../server/infra/outbox/outbox";
 import {
   startSmtpFake,
   type SmtpFake,
@@ -17,6 +18,8 @@ export interface TestApp {
   sitecue: SitecueApp;
   db: TestDatabase;
   mail: SmtpFake;
+  /** The outbox worker sending this app's e-mail to `mail` (polls every 50 ms). */
+  outbox: OutboxWorker;
   /** Set when `listen` was asked for: the base URL of a real HTTP server (browser tests). */
   url: string | null;
   close(): Promise<void>;
@@ -38,6 +41,14 @@ export async function startTestApp(
     from: "Sitecue <no-reply@sitecue.example.test>",
   });
   if (opts.demo) await loadDemoScenario(db.ds, localToday("Europe/London"));
+  // Services only queue mail; this sends it, fast enough for tests that `waitFor` a message.
+  const outbox = new OutboxWorker({
+    ds: db.ds,
+    transport: mailer,
+    workerId: "test-app",
+    pollMs: 50,
+  });
+  outbox.start();
   let url: string | null = null;
   let server: http.Server | null = null;
   const deps = {
@@ -66,8 +77,10 @@ export async function startTestApp(
     sitecue,
     db,
     mail,
+    outbox,
     url,
     async close() {
+      await outbox.stop();
       if (server) {
         server.closeAllConnections();
         await new Promise<void>((r) => server!.close(() => r()));

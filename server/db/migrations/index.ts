@@ -1,10 +1,12 @@
 import { Initial1764633600000 } from "./1764633600000-initial";
 import { ProgrammeStarters1764720000000 } from "./1764720000000-programme-starters";
 import { BookingAnswers1764806400000 } from "./1764806400000-booking-answers";
+import { Outbox1764892800000 } from "./1764892800000-outbox";
 
 /** Migration classes in order (classes, not a glob, so vitest and tsx load them alike). */
 export const migrations = [
   Initial1764633600000,
   ProgrammeStarters1764720000000,
   BookingAnswers1764806400000,
+  Outbox1764892800000,
 ];

@@ -43,7 +43,9 @@ export async function startSmtpFake(
       .readdirSync(opts.dir)
       .filter((f) => f.endsWith(".json"))
       .sort()) {
-      store.push(JSON.parse(fs.readFileSync(path.join(opts.dir, f), "utf8")));
+      const kept = JSON.parse(fs.readFileSync(path.join(opts.dir, f), "utf8"));
+      // Mailboxes kept before the Message-ID was recorded have none.
+      store.push({ messageId: null, ...kept });
     }
   }
   const server = new SMTPServer({
@@ -57,6 +59,7 @@ export async function startSmtpFake(
           const html = typeof parsed.html === "string" ? parsed.html : null;
           const mail: CaughtMail = {
             id: randomUUID(),
+            messageId: parsed.messageId ?? null,
             receivedAt: new Date().toISOString(),
             from: addresses(parsed.from).join(", "),
             to: addresses(parsed.to),

@@ -2,7 +2,7 @@ import type { DataSource, EntityManager } from "typeorm";
 import { IsNull } from "typeorm";
 import { newId } from "../../db/columns";
 import { HttpError } from "../../http/errors";
-import type { Mailer } from "../../infra/mail/mailer";
+import { enqueueMail } from "../../infra/outbox/outbox";
 import { audit } from "../audit/audit.service";
 import { Customer } from "../customers/customers.entity";
 import { Trade, TradeMember } from "../trades/trades.entity";
@@ -18,7 +18,6 @@ const RESET_HOURS = 1;
 
 export interface AuthDeps {
   ds: DataSource;
-  mailer: Mailer;
   appUrl: string;
 }
 
@@ -84,7 +83,7 @@ export async function invite(
     customerId?: string;
   },
 ) {
-  const { raw, record, workshop } = await deps.ds.transaction(async (m) => {
+  return deps.ds.transaction(async (m) => {
     const workshop = await m.findOneByOrFail(Workshop, { id: workshopId });
     let grant: TokenGrant;
     if (input.role === "trade") {
@@ -155,29 +154,26 @@ export async function invite(
       entityId: user.id,
       detail: { role: input.role, email: input.email },
     });
-    return {
-      raw: token.raw,
-      record: { id: token.id, expiresAt: token.expiresAt, userId: user.id },
-      workshop,
-    };
+    // In the same transaction: no invitation without its e-mail, no e-mail for a rolled-back one.
+    const link = `${deps.appUrl}/invite/${token.raw}`;
+    await enqueueMail(m, {
+      workshopId,
+      to: input.email,
+      subject: `${workshop.name} invites you to Sitecue`,
+      text: [
+        `Hello ${input.name},`,
+        "",
+        `${by.name} of ${workshop.name} has invited you to Sitecue as ${roleWords[input.role]}.`,
+        "Sitecue is where the job's programme, visits and messages are kept.",
+        "",
+        `Choose a password to accept: ${link}`,
+        "",
+        `The link works once and expires in ${INVITATION_DAYS} days.`,
+      ].join("\n"),
+      html: `<p>Hello ${escapeHtml(input.name)},</p><p>${escapeHtml(by.name)} of ${escapeHtml(workshop.name)} has invited you to Sitecue as ${roleWords[input.role]}.</p><p><a href="${link}">Choose a password to accept</a></p><p>The link works once and expires in ${INVITATION_DAYS} days.</p>`,
+    });
+    return { id: token.id, expiresAt: token.expiresAt, userId: user.id };
   });
-  const link = `${deps.appUrl}/invite/${raw}`;
-  await deps.mailer.send({
-    to: input.email,
-    subject: `${workshop.name} invites you to Sitecue`,
-    text: [
-      `Hello ${input.name},`,
-      "",
-      `${by.name} of ${workshop.name} has invited you to Sitecue as ${roleWords[input.role]}.`,
-      "Sitecue is where the job's programme, visits and messages are kept.",
-      "",
-      `Choose a password to accept: ${link}`,
-      "",
-      `The link works once and expires in ${INVITATION_DAYS} days.`,
-    ].join("\n"),
-    html: `<p>Hello ${escapeHtml(input.name)},</p><p>${escapeHtml(by.name)} of ${escapeHtml(workshop.name)} has invited you to Sitecue as ${roleWords[input.role]}.</p><p><a href="${link}">Choose a password to accept</a></p><p>The link works once and expires in ${INVITATION_DAYS} days.</p>`,
-  });
-  return record;
 }
 
 /** E-mails a reset link when the address has an account; says nothing either way. */
@@ -187,22 +183,22 @@ export async function requestPasswordReset(
 ): Promise<void> {
   const user = await deps.ds.getRepository(User).findOneBy({ email });
   if (!user) return;
-  const token = await deps.ds.transaction((m) =>
-    issueToken(
+  await deps.ds.transaction(async (m) => {
+    const token = await issueToken(
       m,
       "password-reset",
       user.id,
       { role: null },
       RESET_HOURS * 3600_000,
       null,
-    ),
-  );
-  const link = `${deps.appUrl}/reset/${token.raw}`;
-  await deps.mailer.send({
-    to: user.email,
-    subject: "Reset your Sitecue password",
-    text: `Hello ${user.name},\n\nSomeone asked to reset the password for this e-mail address on Sitecue.\nChoose a new password: ${link}\n\nThe link works once and expires in ${RESET_HOURS} hour. If it was not you, ignore this e-mail.`,
-    html: `<p>Hello ${escapeHtml(user.name)},</p><p>Someone asked to reset the password for this e-mail address on Sitecue.</p><p><a href="${link}">Choose a new password</a></p><p>The link works once and expires in ${RESET_HOURS} hour. If it was not you, ignore this e-mail.</p>`,
+    );
+    const link = `${deps.appUrl}/reset/${token.raw}`;
+    await enqueueMail(m, {
+      to: user.email,
+      subject: "Reset your Sitecue password",
+      text: `Hello ${user.name},\n\nSomeone asked to reset the password for this e-mail address on Sitecue.\nChoose a new password: ${link}\n\nThe link works once and expires in ${RESET_HOURS} hour. If it was not you, ignore this e-mail.`,
+      html: `<p>Hello ${escapeHtml(user.name)},</p><p>Someone asked to reset the password for this e-mail address on Sitecue.</p><p><a href="${link}">Choose a new password</a></p><p>The link works once and expires in ${RESET_HOURS} hour. If it was not you, ignore this e-mail.</p>`,
+    });
   });
 }
 
