@@ -19,6 +19,11 @@ import { registerHealthRoutes } from "./modules/health/health.router";
 import { registerJobRoutes } from "./modules/jobs/jobs.router";
 import { registerProgrammeRoutes } from "./modules/programme/programme.router";
 import { registerStarterRoutes } from "./modules/starters/starters.router";
+import { registerBookingRoutes } from "./modules/bookings/bookings.router";
+import { reconfirmAfterChange } from "./modules/bookings/bookings.service";
+import { receiveCalendarReply } from "./modules/bookings/calendar-reply";
+import { sendDueReminders } from "./modules/bookings/reminders";
+import type { InboundMail } from "./infra/mail/inbound";
 import { registerDevMailRoutes } from "./modules/mail/mail.router";
 import { registerTradeRoutes } from "./modules/trades/trades.router";
 import { loadSessionUser } from "./modules/users/users.service";
@@ -36,6 +41,10 @@ export interface AppDeps {
   /** The dev client (Vite) needs inline scripts and a websocket; production does not. */
   devClient?: boolean;
   signInLimit?: number;
+  /** Requests per 15 minutes per address to the public booking-link routes. */
+  linkLimit?: number;
+  /** Domain of per-booking reply addresses (iTIP REPLYs come back to booking-<id>@this). */
+  replyDomain?: string;
   signInWindowMs?: number;
   trustProxy?: boolean;
   version?: string;
@@ -44,6 +53,10 @@ export interface AppDeps {
 export interface SitecueApp {
   app: Express;
   routes: ApiRoutes;
+  /** Handles a message the inbound SMTP receiver got (iTIP REPLYs to booking addresses). */
+  receiveMail(mail: InboundMail): Promise<void>;
+  /** Sends the day-before reminders that are due. */
+  sendReminders(now?: Date): Promise<number>;
   close(): Promise<void>;
 }
 
@@ -125,7 +138,17 @@ export function createApp(deps: AppDeps): SitecueApp {
     windowMs: deps.signInWindowMs ?? 15 * 60 * 1000,
   });
   registerJobRoutes(api, deps.ds);
-  registerProgrammeRoutes(api, deps.ds);
+  const bookingDeps = {
+    ds: deps.ds,
+    appUrl: deps.appUrl,
+    linkSecret: deps.sessionSecret,
+    replyDomain: deps.replyDomain ?? "replies.sitecue.example.test",
+  };
+  // Applying a programme change re-books the trades it moves (scenario 4), in the same transaction.
+  registerProgrammeRoutes(api, deps.ds, async (m, job, impact, actorUserId) => {
+    await reconfirmAfterChange(m, bookingDeps, job, impact, actorUserId);
+  });
+  registerBookingRoutes(api, bookingDeps, { linkLimit: deps.linkLimit ?? 120 });
   registerStarterRoutes(api, deps.ds);
   registerWorkshopRoutes(api, authDeps);
   registerTradeRoutes(api, deps.ds);
@@ -167,6 +190,8 @@ export function createApp(deps: AppDeps): SitecueApp {
   return {
     app,
     routes: api,
+    receiveMail: (mail) => receiveCalendarReply(bookingDeps, deps.ds, mail),
+    sendReminders: (now) => sendDueReminders(bookingDeps, now),
     close: () => store.close(),
   };
 }

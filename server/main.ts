@@ -8,6 +8,7 @@ import { mountClient } from "./http/client";
 import { createMailer } from "./infra/mail/mailer";
 import { startSmtpFake, type SmtpFake } from "./infra/mail/smtp-fake";
 import { OutboxWorker } from "./infra/outbox/outbox";
+import { startInboundSmtp } from "./infra/mail/inbound";
 
 const log = (msg: string) => console.log(`[sitecue] ${msg}`);
 
@@ -82,6 +83,7 @@ async function main() {
     production,
     devClient: !production,
     trustProxy: env.TRUST_PROXY === "1",
+    replyDomain: env.REPLY_DOMAIN,
   });
   const server = http.createServer(sitecue.app);
   const closeClient = await mountClient(
@@ -96,6 +98,30 @@ async function main() {
     ? ` (${((Date.now() - env.SITECUE_BOOT_STARTED) / 1000).toFixed(1)} s after npm start)`
     : "";
   outbox.start();
+  // Calendar apps mail their iTIP REPLYs to booking-<id>@REPLY_DOMAIN; point that domain's mail here.
+  const inbound = await startInboundSmtp({
+    host: env.INBOUND_SMTP_HOST,
+    port: env.INBOUND_SMTP_PORT,
+    onMail: (mail) => sitecue.receiveMail(mail),
+    onError: (err) =>
+      console.warn(`[sitecue] inbound mail refused: ${err.message}`),
+  });
+  log(
+    `Inbound SMTP for calendar replies on ${env.INBOUND_SMTP_HOST}:${inbound.port}`,
+  );
+  // Day-before reminders: checked every 15 minutes (each reminder is claimed once, across processes).
+  const reminders = setInterval(
+    () => {
+      sitecue
+        .sendReminders()
+        .catch((err) =>
+          console.warn(
+            `[sitecue] reminders: ${err instanceof Error ? err.message : String(err)}`,
+          ),
+        );
+    },
+    15 * 60 * 1000,
+  );
   log(`Sitecue is ready at ${appUrl}${took}`);
 
   let closing = false;
@@ -107,6 +133,8 @@ async function main() {
     await new Promise<void>((resolve) => server.close(() => resolve()));
     await closeClient();
     await sitecue.close();
+    clearInterval(reminders);
+    await inbound.close();
     await outbox.stop();
     mailer.close();
     await mailbox?.close();

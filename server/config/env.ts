@@ -25,6 +25,10 @@ const envSchema = z.object({
   MAIL_FROM: z.string().default("Sitecue <no-reply@sitecue.example.test>"),
   SITECUE_MAIL_DIR: z.string().optional(),
   SITECUE_BOOT_STARTED: z.coerce.number().optional(),
+  /** Domain of per-booking reply addresses; its mail must reach the inbound SMTP receiver. */
+  REPLY_DOMAIN: z.string().default("replies.sitecue.example.test"),
+  INBOUND_SMTP_HOST: z.string().default("127.0.0.1"),
+  INBOUND_SMTP_PORT: z.coerce.number().int().min(0).max(65535).default(0),
   TRUST_PROXY: z.enum(["0", "1"]).default("0"),
 });
 

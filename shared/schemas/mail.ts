@@ -12,5 +12,9 @@ export const caughtMailSchema = z.object({
   text: z.string(),
   html: z.string().nullable(),
   links: z.array(z.string()),
+  /** Each distinct iCalendar object attached (text/calendar or .ics), with its METHOD. */
+  calendars: z.array(
+    z.object({ method: z.string().nullable(), content: z.string() }),
+  ),
 });
 export type CaughtMail = z.infer<typeof caughtMailSchema>;

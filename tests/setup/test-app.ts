@@ -6,6 +6,7 @@ import { createApp, type SitecueApp } from "../../server/app";
 import { mountClient } from "../../server/http/client";
 import { createMailer } from "../../server/infra/mail/mailer";
 import { OutboxWorker } from "../../server/infra/outbox/outbox";
+import { startInboundSmtp } from "../../server/infra/mail/inbound";
 import {
   startSmtpFake,
   type SmtpFake,
@@ -20,6 +21,8 @@ export interface TestApp {
   mail: SmtpFake;
   /** The outbox worker sending this app's e-mail to `mail` (polls every 50 ms). */
   outbox: OutboxWorker;
+  /** The inbound SMTP receiver for iTIP REPLYs (booking-<id>@replies.sitecue.example.test). */
+  inbound: { port: number; close(): Promise<void> };
   /** Set when `listen` was asked for: the base URL of a real HTTP server (browser tests). */
   url: string | null;
   close(): Promise<void>;
@@ -73,14 +76,19 @@ export async function startTestApp(
   } else {
     sitecue = createApp(deps);
   }
+  const inbound = await startInboundSmtp({
+    onMail: (m) => sitecue.receiveMail(m),
+  });
   return {
     sitecue,
     db,
     mail,
     outbox,
+    inbound,
     url,
     async close() {
       await outbox.stop();
+      await inbound.close();
       if (server) {
         server.closeAllConnections();
         await new Promise<void>((r) => server!.close(() => r()));

@@ -22,6 +22,26 @@ const addresses = (a: AddressObject | AddressObject[] | undefined) =>
     .flatMap((x) => x.value.map((v) => v.address ?? ""))
     .filter(Boolean);
 
+/** The distinct iCalendar objects in a message: the inline text/calendar part and the .ics file are often the same one. */
+function calendarsOf(
+  attachments: { contentType: string; filename?: string; content: Buffer }[],
+): CaughtMail["calendars"] {
+  const seen = new Map<string, string | null>();
+  for (const a of attachments) {
+    const type = a.contentType.toLowerCase();
+    if (
+      type !== "text/calendar" &&
+      type !== "application/ics" &&
+      !a.filename?.endsWith(".ics")
+    )
+      continue;
+    const content = a.content.toString("utf8");
+    if (!seen.has(content))
+      seen.set(content, /^METHOD:(\w+)/im.exec(content)?.[1] ?? null);
+  }
+  return [...seen].map(([content, method]) => ({ method, content }));
+}
+
 const linkPattern = /https?:\/\/[^\s"'<>)]+/g;
 
 /**
@@ -45,7 +65,7 @@ export async function startSmtpFake(
       .sort()) {
       const kept = JSON.parse(fs.readFileSync(path.join(opts.dir, f), "utf8"));
       // Mailboxes kept before the Message-ID was recorded have none.
-      store.push({ messageId: null, ...kept });
+      store.push({ messageId: null, calendars: [], ...kept });
     }
   }
   const server = new SMTPServer({
@@ -67,6 +87,7 @@ export async function startSmtpFake(
             text,
             html,
             links: [...new Set(text.match(linkPattern) ?? [])],
+            calendars: calendarsOf(parsed.attachments ?? []),
           };
           store.push(mail);
           if (opts.dir)

@@ -115,9 +115,12 @@ export function bookingIcs(
     url: ctx.link ?? undefined,
     timeZone: ctx.job.timeZone,
     allDay,
+    // The arrival time opens the event, unless it would leave none of the booked time.
     start: allDay
       ? b.start.slice(0, 10)
-      : `${b.start.slice(0, 10)}T${arrivalStart}`,
+      : `${b.start.slice(0, 10)}T${arrivalStart}` < b.finish
+        ? `${b.start.slice(0, 10)}T${arrivalStart}`
+        : b.start,
     end: allDay ? b.finish.slice(0, 10) : b.finish,
     alarmEveningBefore: method === "REQUEST",
   });

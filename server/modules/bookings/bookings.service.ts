@@ -513,8 +513,13 @@ export async function createBooking(
         { taskId: ["Already booked"] },
       );
     const workshop = await m.findOneByOrFail(Workshop, { id: job.workshopId });
+    // An afternoon arrival is the afternoon slot; otherwise a bare date means that morning.
     const start =
-      body.start.length === 10 ? `${body.start}T${trade.dayStart}` : body.start;
+      body.arrivalWindow === "afternoon"
+        ? `${body.start.slice(0, 10)}T12:00`
+        : body.start.length === 10
+          ? `${body.start}T${trade.dayStart}`
+          : body.start;
     const check = await checkBooking(m, job, workshop, trade, task.id, start);
     if (check.problems.length && !body.overrideReason) {
       const next = check.nextFree
