@@ -25,7 +25,8 @@ export async function mountClient(
     app.use(vite.middlewares);
     return () => vite.close();
   }
-  const dist = path.join(root, "dist", "client");
+  // `npm test` builds each run's client into its own folder and says where.
+  const dist = process.env.SITECUE_CLIENT_DIR ?? path.join(root, "dist", "client");
   const index = path.join(dist, "index.html");
   if (!fs.existsSync(index))
     throw new Error(

@@ -373,9 +373,12 @@ async function main() {
       "GRANT ALL PRIVILEGES ON `sitecue\\_t\\_%`.* TO 'sitecue_test'@'127.0.0.1';",
     ].join(" "),
   );
+  // Each run builds into its own folder, so a run never serves another run's half-built client.
+  const clientDir = path.join(dir, "client");
   say("Building the client for the browser tests (vite build)");
-  run("npx", ["vite", "build", "--logLevel", "warn"]);
+  run("npx", ["vite", "build", "--logLevel", "warn", "--outDir", clientDir, "--emptyOutDir"]);
   Object.assign(env, {
+    SITECUE_CLIENT_DIR: clientDir,
     NODE_ENV: "test",
     DB_ADMIN_USER: "sitecue_test",
     DB_ADMIN_PASSWORD: adminPassword,
