@@ -9,6 +9,7 @@ import { SignInRoute } from "./routes/sign-in";
 import { ForgotPasswordRoute } from "./routes/forgot-password";
 import { InviteRoute, ResetRoute } from "./routes/set-password";
 import { DevMailRoute } from "./routes/dev-mail";
+import { BookingLinkRoute } from "./routes/booking-link";
 import { HomeRoute } from "./routes/home";
 import { JobRoute } from "./routes/job";
 import { ProgrammeRoute } from "./routes/programme";
@@ -39,6 +40,8 @@ export function createAppRouter() {
             { path: "invite/:token", element: <InviteRoute /> },
             { path: "reset/:token", element: <ResetRoute /> },
             { path: "dev/mail/:messageId?", element: <DevMailRoute /> },
+            // A booking's confirmation link works without an account (brief, "Who uses it").
+            { path: "b/:token", element: <BookingLinkRoute /> },
           ],
         },
         {

@@ -1,6 +1,9 @@
 import { useState } from "react";
+import { useQueryClient } from "@tanstack/react-query";
 import { Link, useNavigate, useParams } from "react-router-dom";
 import { useJob } from "../../features/jobs/api/get-job";
+import { jobKeys } from "../../features/jobs/api/keys";
+import { JobBookings } from "../../features/bookings/components/JobBookings";
 import { DeleteJobButton } from "../../features/jobs/components/DeleteJobButton";
 import { EditJobForm } from "../../features/jobs/components/EditJobForm";
 import {
@@ -33,6 +36,7 @@ export function JobRoute() {
   const { jobId = "" } = useParams();
   const navigate = useNavigate();
   const job = useJob(jobId);
+  const queryClient = useQueryClient();
   const [editing, setEditing] = useState(false);
 
   if (job.isPending) {
@@ -107,7 +111,26 @@ export function JobRoute() {
           ) : (
             <>
               <JobTasksSection job={j} />
-              <JobBookingsSection job={j} />
+              {isWorkshop ? (
+                // The workshop books and answers here; others see the bookings read-only.
+                <JobBookings
+                  jobId={j.id}
+                  workshopId={j.workshopId}
+                  tasks={j.tasks.map((t) => ({
+                    id: t.id,
+                    name: t.name,
+                    party: t.party,
+                    caution: t.detail?.caution ?? null,
+                  }))}
+                  onChanged={() =>
+                    void queryClient.invalidateQueries({
+                      queryKey: jobKeys.detail(j.id),
+                    })
+                  }
+                />
+              ) : (
+                <JobBookingsSection job={j} />
+              )}
             </>
           )}
         </div>

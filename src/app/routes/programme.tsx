@@ -1,5 +1,7 @@
 import { Link, useParams } from "react-router-dom";
 import { useJob } from "../../features/jobs/api/get-job";
+import { useRefreshJobBookings } from "../../features/bookings/api/booking-mutation";
+import { TaskBookingControl } from "../../features/bookings/components/TaskBookingControl";
 import { ProgrammeScreen } from "../../features/programme/components/ProgrammeScreen";
 import { ErrorState, LoadingState, PageHeader } from "../../components/ui";
 import { isApiError } from "../../lib/api-client";
@@ -8,6 +10,7 @@ import { isApiError } from "../../lib/api-client";
 export function ProgrammeRoute() {
   const { jobId = "" } = useParams();
   const job = useJob(jobId);
+  const refreshBookings = useRefreshJobBookings(jobId);
   const back = (
     <p className="mb-3 text-sm">
       <Link
@@ -50,7 +53,13 @@ export function ProgrammeRoute() {
         title={`Programme: ${job.data.title}`}
         eyebrow={`${job.data.workshopName} · ${job.data.area}`}
       />
-      <ProgrammeScreen jobId={jobId} />
+      <ProgrammeScreen
+        jobId={jobId}
+        onChanged={() => void refreshBookings()}
+        renderBooking={(task, refresh) => (
+          <TaskBookingControl jobId={jobId} task={task} onChanged={refresh} />
+        )}
+      />
     </>
   );
 }

@@ -1,5 +1,8 @@
-import { useMemo, useRef, useState } from "react";
-import type { ProgrammeResponse } from "../../../../shared/schemas";
+import { useMemo, useRef, useState, type ReactNode } from "react";
+import type {
+  ProgrammeResponse,
+  ProgrammeTask,
+} from "../../../../shared/schemas";
 import { ProgrammeInputError } from "../../../../shared/programme";
 import {
   Button,
@@ -74,8 +77,23 @@ function Summary({ programme }: { programme: ProgrammeResponse }) {
   );
 }
 
+interface ProgrammeScreenProps {
+  jobId: string;
+  /**
+   * A trade task's booking control, supplied by the route (bookings are another feature);
+   * `refresh` re-reads the programme after a booking pins or frees the task.
+   */
+  renderBooking?: (task: ProgrammeTask, refresh: () => void) => ReactNode;
+  /** After any saved change: a move may re-book tasks on the server (needs re-confirming). */
+  onChanged?: () => void;
+}
+
 /** The maker's programme screen: list, bar view, instant knock-on, forms. */
-export function ProgrammeScreen({ jobId }: { jobId: string }) {
+export function ProgrammeScreen({
+  jobId,
+  renderBooking,
+  onChanged,
+}: ProgrammeScreenProps) {
   const programme = useProgramme(jobId);
   const createTask = useCreateTask(jobId);
   const updateTask = useUpdateTask(jobId);
@@ -129,6 +147,7 @@ export function ProgrammeScreen({ jobId }: { jobId: string }) {
     setActionError(null);
     try {
       const answer = await fn();
+      onChanged?.();
       setSaved(text ? { text } : null);
       setUndo(makeUndo ? makeUndo(answer) : null);
       return answer;
@@ -512,6 +531,12 @@ export function ProgrammeScreen({ jobId }: { jobId: string }) {
               onOpen={setOpen}
               actions={actions}
               busy={busy}
+              renderBooking={
+                renderBooking
+                  ? (task) =>
+                      renderBooking(task, () => void programme.refetch())
+                  : undefined
+              }
             />
           </Section>
         </>

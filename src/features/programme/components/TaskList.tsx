@@ -1,4 +1,8 @@
-import type { ProgrammeResponse } from "../../../../shared/schemas";
+import type { ReactNode } from "react";
+import type {
+  ProgrammeResponse,
+  ProgrammeTask,
+} from "../../../../shared/schemas";
 import {
   Button,
   CautionNote,
@@ -68,6 +72,8 @@ interface TaskListProps {
   onOpen: (open: OpenForm | null) => void;
   actions: TaskActions;
   busy: boolean;
+  /** The booking status and "Book a …" control for a trade task (from the bookings feature). */
+  renderBooking?: (task: ProgrammeTask) => ReactNode;
 }
 
 /** The programme as a list: the main view on a phone, and the keyboard's way to everything. */
@@ -79,6 +85,7 @@ export function TaskList({
   onOpen,
   actions,
   busy,
+  renderBooking,
 }: TaskListProps) {
   const name = (id: string) =>
     programme.tasks.find((t) => t.id === id)?.name ?? "a removed task";
@@ -146,7 +153,7 @@ export function TaskList({
                   </span>
                 </span>
               ) : null}
-              {task.booking ? (
+              {task.booking && !renderBooking ? (
                 <span className="text-ink-soft">
                   Booked: {task.booking.tradeName}
                 </span>
@@ -242,6 +249,9 @@ export function TaskList({
               </ul>
             ) : null}
             {task.caution ? <CautionNote>{task.caution}</CautionNote> : null}
+            {renderBooking && task.party !== "workshop" && !reordering
+              ? renderBooking(task)
+              : null}
             <div className="flex flex-wrap gap-x-1 gap-y-1">
               {reordering ? (
                 <>

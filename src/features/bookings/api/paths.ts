@@ -1,0 +1,2 @@
+export const bookingPath = (bookingId: string) =>
+  `/api/bookings/${encodeURIComponent(bookingId)}`;
