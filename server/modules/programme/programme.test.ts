@@ -338,7 +338,7 @@ describe("editing a programme", () => {
       .set("X-CSRF-Token", owner.csrf)
       .send({ version: p.version, taskIds: reversed.slice(1) });
     expect(missing.status).toBe(422);
-    const link = p.links[0];
+    const link = p.links.find((l) => l.lagUnit === "workingDays")!;
     p = (
       await owner.agent
         .patch(`/api/jobs/${jobId}/links/${link.id}`)
