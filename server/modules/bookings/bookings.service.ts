@@ -635,16 +635,32 @@ async function sendInTransaction(
   );
 }
 
+/** One change to one booking: locked, authorised, applied in a transaction, then presented. */
+async function changeBooking(
+  deps: BookingDeps,
+  actor: Actor | null,
+  bookingId: string,
+  change: (m: EntityManager, l: Loaded) => Promise<void>,
+): Promise<BookingResponse> {
+  const { ds } = deps;
+  await ds.transaction(async (m) => {
+    const l = await loadBooking(m, bookingId, true);
+    await authorizeBooking(ds, actor, l);
+    await change(m, l);
+  });
+  return presentBooking(
+    ds.manager,
+    await ds.manager.findOneByOrFail(Booking, { id: bookingId }),
+  );
+}
+
 /** Sends a draft booking: e-mail with the calendar invitation and the confirmation link. */
 export async function sendBooking(
   deps: BookingDeps,
   actor: Actor | null,
   bookingId: string,
 ): Promise<BookingResponse> {
-  const { ds } = deps;
-  await ds.transaction(async (m) => {
-    const l = await loadBooking(m, bookingId, true);
-    await authorizeBooking(ds, actor, l);
+  return changeBooking(deps, actor, bookingId, async (m, l) => {
     if (l.booking.state !== "draft")
       throw new HttpError(
         409,
@@ -654,10 +670,6 @@ export async function sendBooking(
     await sendInTransaction(m, deps, l, actor!.userId, "invitation");
     await bumpJob(m, l.job);
   });
-  return presentBooking(
-    ds.manager,
-    await ds.manager.findOneByOrFail(Booking, { id: bookingId }),
-  );
 }
 
 const answerable: BookingState[] = [
@@ -756,10 +768,7 @@ export async function recordAnswer(
   bookingId: string,
   body: z.output<typeof recordAnswerBodySchema>,
 ): Promise<BookingResponse> {
-  const { ds } = deps;
-  await ds.transaction(async (m) => {
-    const l = await loadBooking(m, bookingId, true);
-    await authorizeBooking(ds, actor, l);
+  return changeBooking(deps, actor, bookingId, async (m, l) => {
     const note = body.note || `Answered by ${body.channel}`;
     await applyAnswer(
       m,
@@ -770,10 +779,6 @@ export async function recordAnswer(
       actor!.userId,
     );
   });
-  return presentBooking(
-    ds.manager,
-    await ds.manager.findOneByOrFail(Booking, { id: bookingId }),
-  );
 }
 
 /** Accepts a trade's proposed start (the booking moves there, confirmed, with an updated invitation) or rejects it. */
@@ -784,10 +789,7 @@ export async function decideProposal(
   accept: boolean,
   note: string,
 ): Promise<BookingResponse> {
-  const { ds } = deps;
-  await ds.transaction(async (m) => {
-    const l = await loadBooking(m, bookingId, true);
-    await authorizeBooking(ds, actor, l);
+  return changeBooking(deps, actor, bookingId, async (m, l) => {
     const b = l.booking;
     if (b.state !== "date-proposed" || !b.proposedStart)
       throw new HttpError(
@@ -865,10 +867,6 @@ export async function decideProposal(
     });
     await bumpJob(m, l.job);
   });
-  return presentBooking(
-    ds.manager,
-    await ds.manager.findOneByOrFail(Booking, { id: bookingId }),
-  );
 }
 
 /** Cancels a booking: METHOD:CANCEL with a higher SEQUENCE goes to the trade. */
@@ -878,10 +876,7 @@ export async function cancelBooking(
   bookingId: string,
   reason: string,
 ): Promise<BookingResponse> {
-  const { ds } = deps;
-  await ds.transaction(async (m) => {
-    const l = await loadBooking(m, bookingId, true);
-    await authorizeBooking(ds, actor, l);
+  return changeBooking(deps, actor, bookingId, async (m, l) => {
     const b = l.booking;
     if (b.state === "cancelled") return;
     const from = b.state;
@@ -913,10 +908,6 @@ export async function cancelBooking(
     });
     await bumpJob(m, l.job);
   });
-  return presentBooking(
-    ds.manager,
-    await ds.manager.findOneByOrFail(Booking, { id: bookingId }),
-  );
 }
 
 /** Sends the invitation again (same UID and SEQUENCE) to a trade who has not answered. */
@@ -925,10 +916,7 @@ export async function chaseBooking(
   actor: Actor | null,
   bookingId: string,
 ): Promise<BookingResponse> {
-  const { ds } = deps;
-  await ds.transaction(async (m) => {
-    const l = await loadBooking(m, bookingId, true);
-    await authorizeBooking(ds, actor, l);
+  return changeBooking(deps, actor, bookingId, async (m, l) => {
     const b = l.booking;
     if (!["sent", "needs-reconfirming"].includes(b.state))
       throw new HttpError(
@@ -954,10 +942,6 @@ export async function chaseBooking(
       "chase",
     );
   });
-  return presentBooking(
-    ds.manager,
-    await ds.manager.findOneByOrFail(Booking, { id: bookingId }),
-  );
 }
 
 /** The confirmation link for the booking's current dates, to paste into a text message. */
