@@ -15,6 +15,7 @@ import type { SmtpFake } from "./infra/mail/smtp-fake";
 import { registerAuthRoutes } from "./modules/auth/auth.router";
 import { checkCredentials } from "./modules/auth/auth.service";
 import { registerCustomerRoutes } from "./modules/customers/customers.router";
+import { registerFeedRoutes } from "./modules/feeds/feeds.router";
 import { registerHealthRoutes } from "./modules/health/health.router";
 import { registerJobRoutes } from "./modules/jobs/jobs.router";
 import { registerProgrammeRoutes } from "./modules/programme/programme.router";
@@ -153,6 +154,7 @@ export function createApp(deps: AppDeps): SitecueApp {
   registerWorkshopRoutes(api, authDeps);
   registerTradeRoutes(api, deps.ds);
   registerCustomerRoutes(api, deps.ds);
+  registerFeedRoutes(api, bookingDeps);
   if (deps.mailbox) registerDevMailRoutes(api, deps.mailbox);
   api.add({
     method: "get",

@@ -12,6 +12,7 @@ import { AuditEntry } from "../modules/audit/audit.entity";
 import { AuthToken } from "../modules/auth/auth-tokens.entity";
 import { ProgrammeStarter } from "../modules/starters/starters.entity";
 import { OutboxMessage } from "../infra/outbox/outbox.entity";
+import { CalendarFeed } from "../modules/feeds/feeds.entity";
 
 /** Every entity, listed once (the data source and tests use this list). */
 export const entities = [
@@ -30,4 +31,5 @@ export const entities = [
   AuthToken,
   ProgrammeStarter,
   OutboxMessage,
+  CalendarFeed,
 ];

@@ -42,7 +42,16 @@ export interface TradeResource {
   tradeId: string;
 }
 
+/** A person's own data (their feed, their days off): theirs alone. */
+export interface PersonResource {
+  kind: "person";
+  userId: string;
+}
+
 export type Action =
+  | "feed.manage"
+  | "daysOff.read"
+  | "daysOff.update"
   | "workshop.read"
   | "workshop.update"
   | "members.read"
@@ -64,7 +73,7 @@ export type Action =
   | "job.update"
   | "job.delete";
 
-type Resource = WorkshopResource | JobResource | TradeResource;
+type Resource = WorkshopResource | JobResource | TradeResource | PersonResource;
 
 const roleIn = (actor: Actor, workshopId: string, ...roles: MemberRole[]) => {
   const role = actor.memberships.get(workshopId);
@@ -102,13 +111,34 @@ export function canSee(actor: Actor, resource: Resource): boolean {
         isMember(actor, resource.workshopId) ||
         actor.trades.has(resource.tradeId)
       );
+    case "person":
+      return actor.userId === resource.userId;
+  }
+}
+
+/** Own-data rules: any signed-in person for their own feed; days off only for someone who speaks for a trade. */
+function canOwn(actor: Actor, action: Action, person: PersonResource): boolean {
+  if (actor.userId !== person.userId) return false;
+  switch (action) {
+    case "feed.manage":
+    case "daysOff.read":
+      return true;
+    case "daysOff.update":
+      return actor.trades.size > 0;
+    default:
+      return false;
   }
 }
 
 /** The rule table: may this actor do this action on this resource? */
 export function can(actor: Actor, action: Action, resource: Resource): boolean {
+  if (resource.kind === "person") return canOwn(actor, action, resource);
   const ws = resource.workshopId;
   switch (action) {
+    case "feed.manage":
+    case "daysOff.read":
+    case "daysOff.update":
+      return false;
     case "workshop.read":
       return isMember(actor, ws);
     case "workshop.update":

@@ -168,4 +168,22 @@ export const expected: Record<string, Row> = {
 
   "GET /workshops/:workshopId/customers": staff(200),
   "POST /workshops/:workshopId/customers": staff(201),
+
+  // Own data: everyone signed in has their own calendar feed (the brief: a customer subscribes to one).
+  "GET /me/feed": signedIn(200),
+  "POST /me/feed": signedIn(201),
+  "DELETE /me/feed": signedIn(204),
+  // The feed URL is the credential, like a confirmation link: whoever holds it gets the calendar.
+  "GET /feeds/:token": all(200),
+  "GET /me/days-off": signedIn(200),
+  // A trade enters days off once for every workshop; nobody else has trade days off to enter.
+  "PUT /me/days-off": {
+    owner: 403,
+    fitter: 403,
+    tradeOn: 200,
+    tradeOff: 200,
+    customer: 403,
+    other: 403,
+    anon: 401,
+  },
 };

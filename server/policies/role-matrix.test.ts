@@ -26,6 +26,8 @@ import { Trade } from "../modules/trades/trades.entity";
 import { Booking } from "../modules/bookings/bookings.entity";
 import { Workshop } from "../modules/workshops/workshops.entity";
 import { ProgrammeStarter } from "../modules/starters/starters.entity";
+import { issueFeed } from "../modules/feeds/feeds.service";
+import { User } from "../modules/users/users.entity";
 import { expected, roles, type MatrixRole } from "./role-matrix.expected";
 
 let t: TestApp;
@@ -433,6 +435,23 @@ const requests: Record<string, () => Promise<{ path: string; body?: object }>> =
     "POST /workshops/:workshopId/customers": async () => ({
       path: `/api/workshops/${ids.workshopId}/customers`,
       body: { name: "New Customer", email: `c-${unique()}@example.test` },
+    }),
+    "GET /me/feed": async () => ({ path: "/api/me/feed" }),
+    "POST /me/feed": async () => ({ path: "/api/me/feed" }),
+    "DELETE /me/feed": async () => ({ path: "/api/me/feed" }),
+    // A token made here for the customer: the URL works for whoever holds it.
+    "GET /feeds/:token": async () => {
+      const rosa = await t.db.ds.manager.findOneByOrFail(User, {
+        email: emails.customer,
+      });
+      const { url } = await issueFeed(t.db.ds, "http://localhost", rosa.id);
+      return { path: new URL(url).pathname };
+    },
+    "GET /me/days-off": async () => ({ path: "/api/me/days-off" }),
+    // A day far beyond the demo's bookings, so no other row's booking options change.
+    "PUT /me/days-off": async () => ({
+      path: "/api/me/days-off",
+      body: { daysOff: ["2031-01-06"] },
     }),
   };
 

@@ -9,3 +9,4 @@ export * from "./mail";
 export * from "./programme";
 export * from "./starters";
 export * from "./bookings";
+export * from "./feeds";

@@ -2,6 +2,7 @@ import { Initial1764633600000 } from "./1764633600000-initial";
 import { ProgrammeStarters1764720000000 } from "./1764720000000-programme-starters";
 import { BookingAnswers1764806400000 } from "./1764806400000-booking-answers";
 import { Outbox1764892800000 } from "./1764892800000-outbox";
+import { CalendarFeeds1764979200000 } from "./1764979200000-calendar-feeds";
 
 /** Migration classes in order (classes, not a glob, so vitest and tsx load them alike). */
 export const migrations = [
@@ -9,4 +10,5 @@ export const migrations = [
   ProgrammeStarters1764720000000,
   BookingAnswers1764806400000,
   Outbox1764892800000,
+  CalendarFeeds1764979200000,
 ];
