@@ -276,6 +276,22 @@ describe("booking a trade and their answer by link", () => {
       path: path.join(screensDir, "booking-confirmed-detail-desktop.png"),
     });
 
+    // Copy link: onto the clipboard, to paste into a text message.
+    await page
+      .context()
+      .grantPermissions(["clipboard-read", "clipboard-write"], {
+        origin: t.url!,
+      });
+    await item
+      .getByRole("button", {
+        name: `Copy the confirmation link for ${plasterer}`,
+      })
+      .click();
+    await visible(item.getByText("Link copied", { exact: false }));
+    expect(await page.evaluate(() => navigator.clipboard.readText())).toMatch(
+      new RegExp(`^${t.url}/b/`),
+    );
+
     const list = await apiGet<{ bookings: BookingResponse[] }>(
       page,
       `/api/jobs/${jobId}/bookings`,
@@ -349,4 +365,86 @@ describe("booking a trade and their answer by link", () => {
     await shot(p, "booking-link-invalid-phone");
     await context.close();
   }, 30_000);
+});
+
+describe("the maker's actions on the demo job's bookings", () => {
+  it("records a proposal by phone and accepts it, records a decline by text and offers the next trade", async () => {
+    const { page, problems } = await signIn();
+    const jobs = await apiGet<{ jobs: { id: string; title: string }[] }>(
+      page,
+      `/api/jobs`,
+    );
+    const demo = jobs.jobs.find((j) => j.title === demoJobTitles.alcoves)!;
+    await page.goto(`${t.url}/jobs/${demo.id}`);
+    const bookings = page.getByRole("list", { name: "Bookings" });
+    const template = bookings.getByRole("listitem", {
+      name: `${plasterer}, Template coving`,
+    });
+    await visible(template.getByText("Sent", { exact: true }));
+
+    // The plasterer rang to propose a start two days later.
+    const before = (
+      await apiGet<{ bookings: BookingResponse[] }>(
+        page,
+        `/api/jobs/${demo.id}/bookings`,
+      )
+    ).bookings.find((b) => b.taskName === "Template coving")!;
+    const d = new Date(`${before.start.slice(0, 10)}T12:00:00Z`);
+    do d.setUTCDate(d.getUTCDate() + 1);
+    while (d.getUTCDay() === 0 || d.getUTCDay() === 6);
+    const proposed = d.toISOString().slice(0, 10);
+    await template.getByRole("button", { name: "Record answer" }).click();
+    const form = template.getByRole("form", {
+      name: `Record ${plasterer}'s answer`,
+    });
+    await form.getByLabel("By phone").check();
+    await form.getByLabel("Proposes another start").check();
+    await form.getByLabel("The start they propose").fill(proposed);
+    await form.getByLabel("Note").fill("Rang: the morning after suits better");
+    await form.getByRole("button", { name: "Record answer" }).click();
+    await visible(template.getByText("Date proposed", { exact: true }));
+    await visible(
+      template.getByText(`proposes to start ${dayText(proposed)} instead`, {
+        exact: false,
+      }),
+    );
+    await template.getByText(/^History/).click();
+    await visible(
+      template.getByText(
+        `${plasterer}, by phone (recorded by ${demoAccounts.owner.name})`,
+      ),
+    );
+    await shot(page, "booking-proposed-job-desktop");
+    await template
+      .getByRole("button", { name: `Accept ${dayText(proposed)}` })
+      .click();
+    await visible(template.getByText(new RegExp(`^${dayText(proposed)}, `)));
+    await visible(template.getByText("Confirmed", { exact: true }));
+
+    // The electrician texted that they can't make the second fix: declined, book another.
+    const second = bookings.getByRole("listitem", {
+      name: "Brightwire Electrical, Electrician second fix",
+    });
+    await second.getByRole("button", { name: "Record answer" }).click();
+    const f2 = second.getByRole("form", {
+      name: "Record Brightwire Electrical's answer",
+    });
+    await f2.getByLabel("By text message").check();
+    await f2.getByLabel("Can't make it").check();
+    await f2.getByLabel("Note").fill("Away that week");
+    await f2.getByRole("button", { name: "Record answer" }).click();
+    await visible(second.getByText("Declined", { exact: true }));
+    await second
+      .getByRole("button", { name: "Book another electrician" })
+      .click();
+    const panel = second.getByRole("form", {
+      name: "Book an electrician for Electrician second fix",
+    });
+    await visible(panel);
+    // The only electrician declined: listed (last), and flagged.
+    await visible(panel.getByText("Declined this task before"));
+    await shot(page, "booking-declined-job-desktop");
+    await panel.getByRole("button", { name: "Cancel" }).click();
+    expect(problems).toEqual([]);
+  }, 90_000);
 });

@@ -239,7 +239,14 @@ export function CopyLinkButton({ booking }: { booking: BookingResponse }) {
     }
     try {
       if (!navigator.clipboard) throw new Error("no clipboard");
-      await navigator.clipboard.writeText(url);
+      // A browser that neither allows nor refuses (no permission prompt) would leave this
+      // pending for ever: after a moment the link is shown to copy by hand instead.
+      await Promise.race([
+        navigator.clipboard.writeText(url),
+        new Promise((_, reject) =>
+          setTimeout(() => reject(new Error("clipboard timeout")), 1500),
+        ),
+      ]);
       setState({ kind: "copied" });
     } catch {
       setState({ kind: "shown", url });

@@ -58,6 +58,23 @@ export const isStanding = (b: BookingResponse) => STANDING.includes(b.state);
 /** How long a sent booking waits for an answer before it is flagged to chase. */
 const UNANSWERED_HOURS = 48;
 
+/**
+ * Who and how, for one history entry. An answer by phone or text is the trade's, recorded by a
+ * member: both are named. A member sending through Sitecue needs no "how".
+ */
+function historyWho(
+  b: BookingResponse,
+  e: BookingResponse["history"][number],
+): string {
+  if (
+    (e.channel === "phone" || e.channel === "text") &&
+    e.who !== b.tradeBusinessName
+  )
+    return `${b.tradeBusinessName}, ${channelWords[e.channel]} (recorded by ${e.who})`;
+  if (e.channel === "system" && e.who !== "Sitecue") return e.who;
+  return `${e.who}, ${channelWords[e.channel]}`;
+}
+
 function History({ booking }: { booking: BookingResponse }) {
   if (booking.history.length === 0) return null;
   return (
@@ -72,7 +89,7 @@ function History({ booking }: { booking: BookingResponse }) {
               <span className="font-medium">
                 {bookingStateLabels[e.toState]}
               </span>{" "}
-              — {e.who}, {channelWords[e.channel]}
+              — {historyWho(booking, e)}
             </span>
             <span className="font-mono text-xs text-ink-soft">
               {whenWords(e.at)}
