@@ -304,10 +304,21 @@ async function main() {
     removeStaleTestRuns();
     testDir = dir;
   }
-  const dbPort = await freePort(
+  // Another program may take a free port between the check and MariaDB's bind: then try the next.
+  let dbPort = await freePort(
     Number(process.env.SITECUE_DB_PORT ?? (mode === "start" ? 3406 : 3456)),
   );
-  mariadb = await startMariaDB(dir, dbPort);
+  for (let attempt = 1; ; attempt++) {
+    try {
+      mariadb = await startMariaDB(dir, dbPort);
+      break;
+    } catch (err) {
+      if (attempt >= 5 || !/Address already in use/.test(err.message))
+        throw err;
+      say(`Port ${dbPort} was taken meanwhile; trying another`);
+      dbPort = await freePort(dbPort + 1);
+    }
+  }
   const creds = credentials(dir);
   const esc = (s) => s.replace(/'/g, "''");
   const env = {
@@ -376,7 +387,15 @@ async function main() {
   // Each run builds into its own folder, so a run never serves another run's half-built client.
   const clientDir = path.join(dir, "client");
   say("Building the client for the browser tests (vite build)");
-  run("npx", ["vite", "build", "--logLevel", "warn", "--outDir", clientDir, "--emptyOutDir"]);
+  run("npx", [
+    "vite",
+    "build",
+    "--logLevel",
+    "warn",
+    "--outDir",
+    clientDir,
+    "--emptyOutDir",
+  ]);
   Object.assign(env, {
     SITECUE_CLIENT_DIR: clientDir,
     NODE_ENV: "test",
