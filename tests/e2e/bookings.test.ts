@@ -434,6 +434,14 @@ describe("the maker's actions on the demo job's bookings", () => {
     await f2.getByLabel("Note").fill("Away that week");
     await f2.getByRole("button", { name: "Record answer" }).click();
     await visible(second.getByText("Declined", { exact: true }));
+    // Offered once, on the declined booking, not again under "Not booked yet".
+    expect(
+      await page
+        .getByRole("button", {
+          name: "Book an electrician for Electrician second fix",
+        })
+        .count(),
+    ).toBe(0);
     await second
       .getByRole("button", { name: "Book another electrician" })
       .click();

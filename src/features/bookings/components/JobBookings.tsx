@@ -365,9 +365,14 @@ export function JobBookings({
   else {
     const list = bookings.data;
     const standingTask = new Set(list.filter(isStanding).map((b) => b.taskId));
-    // A declined booking offers "Book another" only while nothing else holds the task.
+    // A declined booking offers "Book another" on its own line while nothing else holds the
+    // task; "Not booked yet" lists the trade tasks nobody has been asked for.
+    const asked = new Set(
+      list.filter((b) => b.state === "declined").map((b) => b.taskId),
+    );
     const unbooked = tasks.filter(
-      (t) => t.party !== "workshop" && !standingTask.has(t.id),
+      (t) =>
+        t.party !== "workshop" && !standingTask.has(t.id) && !asked.has(t.id),
     );
     const taskOf = (id: string) => tasks.find((t) => t.id === id);
     body = (
