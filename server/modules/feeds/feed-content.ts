@@ -5,6 +5,7 @@ import ical, { ICalCalendarMethod } from "ical-generator";
 import { tzlib_get_ical_block } from "timezones-ical-library";
 import { In, Not, type EntityManager } from "typeorm";
 import type { TradeKind } from "../../../shared/schemas";
+import { HttpError } from "../../http/errors";
 import type { Actor } from "../../policies";
 import { Booking } from "../bookings/bookings.entity";
 import { organizerAddress, whenWords } from "../bookings/booking-notices";
@@ -200,7 +201,25 @@ export async function feedContent(
       const data = await loadProgramme(m, job, ws, now);
       const own = data.tasks.filter((t) => t.party === "workshop");
       if (own.length === 0) continue;
-      const result = schedule(data.input);
+      let result;
+      try {
+        result = schedule(data.input);
+      } catch (err) {
+        // A programme the engine refuses (a loop saved before the check existed…) must not take
+        // the whole feed down: that job's tasks are left out until it is fixed.
+        if (err instanceof HttpError && err.status === 422) continue;
+        throw err;
+      }
+      // Planned dates move with "today" (the engine's data date), so the feed changes daily too.
+      out.lastModified = later(
+        out.lastModified,
+        new Date(
+          Math.min(
+            now.getTime(),
+            Date.parse(`${data.input.dataDate}T00:00:00Z`),
+          ),
+        ),
+      );
       const planned = new Map(result.tasks.map((r) => [r.id, r]));
       for (const t of own) {
         const r = planned.get(t.id);

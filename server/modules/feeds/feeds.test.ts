@@ -14,6 +14,7 @@ import {
   buildBooking,
   buildCustomer,
   buildJob,
+  buildLink,
   buildTask,
   buildTrade,
   buildUser,
@@ -300,6 +301,32 @@ describe("a workshop member's feed", () => {
     expect(taskEventUid(doors.id)).toMatch(
       /^[0-9a-f]{8}-[0-9a-f]{4}-5[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/,
     );
+  });
+});
+
+describe("a programme the engine refuses", () => {
+  it("leaves that job's tasks out and keeps the rest of the feed", async () => {
+    const m = t.db.ds.manager;
+    const rosa = await m.findOneByOrFail(Customer, {
+      email: demoAccounts.customer.email,
+    });
+    const job = await buildJob(m, workshopA, rosa, { title: "Looped job" });
+    const a = await buildTask(m, job, { name: "Loop A", party: "workshop" });
+    const b = await buildTask(m, job, { name: "Loop B", party: "workshop" });
+    await buildLink(m, a, b);
+    await buildLink(m, b, a);
+    const martha = await signIn(t, demoAccounts.owner.email);
+    const { events } = await fetchFeed(await feedPath(martha));
+    expect(uids(events)).not.toContain(taskEventUid(a.id));
+    const alcoves = await m.findOneByOrFail(Job, {
+      title: demoJobTitles.alcoves,
+    });
+    const doors = await m.findOneByOrFail(Task, {
+      jobId: alcoves.id,
+      name: "Hang doors",
+    });
+    expect(uids(events)).toContain(taskEventUid(doors.id));
+    await m.delete(Job, { id: job.id });
   });
 });
 
