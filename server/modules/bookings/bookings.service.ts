@@ -845,7 +845,7 @@ export async function decideProposal(
       );
       await queueBookingMail(
         m,
-        await noticeContext(m, deps, l, currentLink(deps, b)),
+        await noticeContext(m, deps, l, await ensureLink(m, deps, b)),
         b,
         "proposal-rejected",
         note,
@@ -937,7 +937,7 @@ export async function chaseBooking(
     );
     await queueBookingMail(
       m,
-      await noticeContext(m, deps, l, currentLink(deps, b)),
+      await noticeContext(m, deps, l, await ensureLink(m, deps, b)),
       b,
       "chase",
     );
@@ -952,14 +952,54 @@ export async function copyLink(
 ): Promise<{ url: string }> {
   const l = await loadBooking(deps.ds.manager, bookingId);
   await authorizeBooking(deps.ds, actor, l);
-  const url = currentLink(deps, l.booking);
-  if (!url || !l.booking.linkTokenHash)
+  if (l.booking.state === "draft")
     throw new HttpError(
       409,
       "conflict",
       "Send the booking first; a draft has no link yet.",
     );
+  if (l.booking.state === "cancelled")
+    throw new HttpError(
+      409,
+      "conflict",
+      "This booking is cancelled; its link no longer works.",
+    );
+  const url = await deps.ds.transaction((m) => ensureLink(m, deps, l.booking));
   return { url };
+}
+
+/**
+ * The link for a sent booking, issuing one if it has none yet (bookings sent before links
+ * existed, such as the demo's); recorded in the history like any issued link.
+ */
+export async function ensureLink(
+  m: EntityManager,
+  deps: BookingDeps,
+  b: Booking,
+): Promise<string> {
+  const existing = b.linkTokenHash ? currentLink(deps, b) : null;
+  if (existing) return existing;
+  const url = issueLink(deps, b);
+  await m.update(
+    Booking,
+    { id: b.id },
+    {
+      linkTokenHash: b.linkTokenHash,
+      linkForStart: b.linkForStart,
+      linkExpiresAt: b.linkExpiresAt,
+    },
+  );
+  await recordEvent(
+    m,
+    b,
+    b.state,
+    b.state,
+    "system",
+    null,
+    "Confirmation link issued",
+    { linkHash: b.linkTokenHash, forStart: b.start },
+  );
+  return url;
 }
 
 /**

@@ -660,3 +660,27 @@ describe("cancelling", () => {
     expect(event.getFirstPropertyValue("sequence")).toBe(1);
   });
 });
+
+describe("links for bookings sent before links existed", () => {
+  it("copy link issues one for the demo's sent booking, and it opens the confirmation page", async () => {
+    const plasterer = await trade("Ashby Plaster & Coving");
+    const demo = await t.db.ds.manager.findOneByOrFail(Booking, {
+      jobId: alcoves.id,
+      tradeId: plasterer.id,
+      state: "sent",
+    });
+    expect(demo.linkTokenHash).toBeNull();
+    const first = (
+      await owner.agent.get(`/api/bookings/${demo.id}/link`).expect(200)
+    ).body.url;
+    const again = (
+      await owner.agent.get(`/api/bookings/${demo.id}/link`).expect(200)
+    ).body.url;
+    expect(again).toBe(first); // the same link each time, for pasting into a text
+    const page = await request(t.sitecue.app).get(
+      `/api/booking-links/${first.split("/b/")[1]}`,
+    );
+    expect(page.status).toBe(200);
+    expect(page.body.taskName).toBe("Template coving");
+  });
+});

@@ -5,7 +5,7 @@ import { loadProgramme } from "../programme/programme-input";
 import { Booking } from "./bookings.entity";
 import { queueBookingMail, type NoticeContext } from "./booking-notices";
 import {
-  currentLink,
+  ensureLink,
   loadBooking,
   recordEvent,
   type BookingDeps,
@@ -68,7 +68,7 @@ export async function sendDueReminders(
         task: l.task,
         trade: l.trade,
         waitsOn: [],
-        link: currentLink(deps, l.booking),
+        link: await ensureLink(m, deps, l.booking),
         showAddress: true,
       };
       await queueBookingMail(m, ctx, l.booking, "reminder");
