@@ -1,3 +1,4 @@
+import crypto from "node:crypto";
 import express, { type Express } from "express";
 import session from "express-session";
 import MySQLStoreFactory from "express-mysql-session";
@@ -68,6 +69,12 @@ export function createApp(deps: AppDeps): SitecueApp {
   app.disable("x-powered-by");
   if (deps.trustProxy) app.set("trust proxy", 1);
 
+  // A fresh nonce per response: FullCalendar injects its CSS at run time and reads the nonce
+  // from <meta name="csp-nonce"> (server/http/client.ts writes it into index.html).
+  app.use((_req, res, next) => {
+    res.locals.cspNonce = crypto.randomBytes(16).toString("base64");
+    next();
+  });
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -79,9 +86,14 @@ export function createApp(deps: AppDeps): SitecueApp {
           "script-src": deps.devClient
             ? ["'self'", "'unsafe-inline'"]
             : ["'self'"],
+          // A nonce would switch 'unsafe-inline' off, so development keeps only the latter.
           "style-src": deps.devClient
             ? ["'self'", "'unsafe-inline'"]
-            : ["'self'"],
+            : [
+                "'self'",
+                (_req, res) =>
+                  `'nonce-${(res as express.Response).locals.cspNonce}'`,
+              ],
           "connect-src": deps.devClient ? ["'self'", "ws:"] : ["'self'"],
           "img-src": ["'self'", "data:", "blob:"],
           "font-src": ["'self'", "data:"],

@@ -3,6 +3,9 @@ import fs from "node:fs";
 import type { Server } from "node:http";
 import express, { type Express } from "express";
 
+/** In index.html's <meta name="csp-nonce">; replaced per response in production. */
+export const CSP_NONCE_PLACEHOLDER = "__SITECUE_CSP_NONCE__";
+
 const root = path.resolve(import.meta.dirname, "../..");
 
 /** Serves the React client: Vite middleware in development, the built files in production. */
@@ -26,7 +29,8 @@ export async function mountClient(
     return () => vite.close();
   }
   // `npm test` builds each run's client into its own folder and says where.
-  const dist = process.env.SITECUE_CLIENT_DIR ?? path.join(root, "dist", "client");
+  const dist =
+    process.env.SITECUE_CLIENT_DIR ?? path.join(root, "dist", "client");
   const index = path.join(dist, "index.html");
   if (!fs.existsSync(index))
     throw new Error(
@@ -41,9 +45,12 @@ export async function mountClient(
     }),
   );
   app.use(express.static(dist, { index: false }));
+  // Read once; each response gets its own CSP nonce in place of the placeholder (index.html).
+  const html = fs.readFileSync(index, "utf8");
   app.get("/{*splat}", (_req, res) => {
+    const nonce = String(res.locals.cspNonce ?? "");
     res.setHeader("Cache-Control", "no-cache");
-    res.sendFile(index);
+    res.type("html").send(html.replaceAll(CSP_NONCE_PLACEHOLDER, nonce));
   });
   return async () => {};
 }

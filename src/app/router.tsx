@@ -52,6 +52,9 @@ export function createAppRouter() {
             { path: "jobs/:jobId/programme", element: <ProgrammeRoute /> },
             { path: "trades", element: <TradesRoute /> },
             { path: "members", element: <MembersRoute /> },
+            // FullCalendar (~80 KB gzip) loads with these routes only.
+            { path: "calendar", lazy: () => import("./routes/calendar") },
+            { path: "my-calendar", lazy: () => import("./routes/my-calendar") },
           ],
         },
         { path: "*", element: <NotFoundRoute /> },

@@ -14,9 +14,16 @@ interface NavItem {
 }
 
 function navItems(viewer: Viewer, isOwnerOfActive: boolean): NavItem[] {
-  if (!viewer.isMember) return [{ to: "/", label: "Jobs" }];
+  if (!viewer.isMember)
+    return viewer.user.trades.length > 0
+      ? [
+          { to: "/", label: "Jobs" },
+          { to: "/my-calendar", label: "My calendar" },
+        ]
+      : [{ to: "/", label: "Jobs" }];
   const items: NavItem[] = [
     { to: "/", label: "Jobs" },
+    { to: "/calendar", label: "Calendar" },
     { to: "/trades", label: "Trades" },
   ];
   if (isOwnerOfActive) items.push({ to: "/members", label: "Members" });

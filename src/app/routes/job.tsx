@@ -1,4 +1,4 @@
-import { useState } from "react";
+import { lazy, Suspense, useState } from "react";
 import { useQueryClient } from "@tanstack/react-query";
 import { Link, useNavigate, useParams } from "react-router-dom";
 import { useJob } from "../../features/jobs/api/get-job";
@@ -21,6 +21,11 @@ import {
   Section,
 } from "../../components/ui";
 import { isApiError } from "../../lib/api-client";
+
+// FullCalendar loads only when a member opens a job, not with the main bundle.
+const JobCalendar = lazy(
+  () => import("../../features/calendar/components/JobCalendar"),
+);
 
 function BackLink() {
   return (
@@ -146,6 +151,13 @@ export function JobRoute() {
           ) : null}
         </div>
       </div>
+      {isWorkshop ? (
+        <div className="mt-6">
+          <Suspense fallback={<LoadingState label="Loading the calendar…" />}>
+            <JobCalendar jobId={j.id} title={j.title} />
+          </Suspense>
+        </div>
+      ) : null}
     </>
   );
 }

@@ -1,11 +1,8 @@
 // Pure helpers for the programme screen: words for links and dates, bar geometry, and the
 // instant what-if that re-runs the shared engine on the exact input the server scheduled.
 import {
-  impactOf,
   isWorkingDay,
-  scheduleProgramme,
   type CalendarInput,
-  type Impact,
   type LagUnit,
   type LinkKind,
   type ProgrammeInput,
@@ -13,49 +10,27 @@ import {
   type TaskResult,
 } from "../../../shared/programme";
 import type { ProgrammeResponse, ProgrammeTask } from "../../../shared/schemas";
-import { formatDateShort } from "../../lib/format";
 import { partyLabels } from "../../lib/labels";
 
+export {
+  dateOf,
+  dayText,
+  engineInput,
+  finishText,
+  previewMove,
+  startText,
+  timeOf,
+  workingDaysText,
+  type Preview,
+} from "../../lib/knock-on";
+import { dateOf, timeOf, workingDaysText } from "../../lib/knock-on";
+
 export type ProgrammeLink = ProgrammeResponse["links"][number];
-
-/** The engine input the server scheduled (the API types it loosely; it is the engine's shape). */
-export function engineInput(p: ProgrammeResponse): ProgrammeInput {
-  return p.input as unknown as ProgrammeInput;
-}
-
-/** The date part of a local instant ("2026-03-05T12:00" → "2026-03-05"). */
-export const dateOf = (instant: string) => instant.slice(0, 10);
-const timeOf = (instant: string) =>
-  instant.length > 10 ? instant.slice(11, 16) : null;
-
-/** "Thu 14 Jan" (the year only when it is not this year). */
-export const dayText = (instant: string) => formatDateShort(dateOf(instant));
-
-/** A planned start in words: "Thu 14 Jan", or "Thu 14 Jan, afternoon" from midday. */
-export function startText(instant: string): string {
-  const t = timeOf(instant);
-  if (t && t >= "12:00" && t < "14:00") return `${dayText(instant)}, afternoon`;
-  if (t && t >= "14:00") return `${dayText(instant)}, end of day`;
-  return dayText(instant);
-}
-
-/** A planned finish in words: "Fri 15 Jan", or "Fri 15 Jan, midday" when it ends at 12:00. */
-export function finishText(instant: string): string {
-  const t = timeOf(instant);
-  if (t === "12:00") return `${dayText(instant)}, midday`;
-  if (t && t < "12:00") return `${dayText(instant)}, start of day`;
-  return dayText(instant);
-}
 
 /** "2 days", "0.5 days", "1 day". */
 export function daysText(n: number): string {
   const v = Number.isInteger(n) ? String(n) : n.toFixed(1).replace(/\.0$/, "");
   return `${v} ${Math.abs(n) === 1 ? "day" : "days"}`;
-}
-
-export function workingDaysText(n: number): string {
-  const v = Number.isInteger(n) ? String(n) : n.toFixed(1).replace(/\.0$/, "");
-  return `${v} working ${Math.abs(n) === 1 ? "day" : "days"}`;
 }
 
 /** The link kinds in the form's words: what the waiting task waits for. */
@@ -112,38 +87,6 @@ export function rowsOf(tasks: ProgrammeTask[], result: ProgrammeResult): Row[] {
         a.result.plannedFinish.localeCompare(b.result.plannedFinish) ||
         a.task.sortOrder - b.task.sortOrder,
     );
-}
-
-export interface Preview {
-  taskId: string;
-  notEarlierThan: string;
-  result: ProgrammeResult;
-  impact: Impact;
-}
-
-/**
- * The knock-on of starting `taskId` no earlier than `date`: the same engine the server runs, on
- * the exact input it scheduled, with that one field changed. No round trip, so it keeps up with
- * a drag.
- */
-export function previewMove(
-  p: ProgrammeResponse,
-  taskId: string,
-  date: string,
-): Preview {
-  const before = engineInput(p);
-  const after: ProgrammeInput = {
-    ...before,
-    tasks: before.tasks.map((t) =>
-      t.id === taskId ? { ...t, notEarlierThan: date } : t,
-    ),
-  };
-  return {
-    taskId,
-    notEarlierThan: date,
-    result: scheduleProgramme(after),
-    impact: impactOf(before, after),
-  };
 }
 
 // ---- days and the bar view ----------------------------------------------------------------

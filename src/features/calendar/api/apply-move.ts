@@ -1,0 +1,33 @@
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import type { z } from "zod";
+import type {
+  applyResponseSchema,
+  changeBodySchema,
+} from "../../../../shared/schemas";
+import { api } from "../../../lib/api-client";
+import { jobPath } from "./get-programmes";
+import { calendarKeys } from "./keys";
+
+export type MoveBody = z.output<typeof changeBodySchema>;
+export type MoveAnswer = z.output<typeof applyResponseSchema>;
+
+/**
+ * POST /api/jobs/:jobId/programme/apply — the programme screen's Save: the server recomputes the
+ * knock-on, re-books the trades it moves and re-sends their invitations.
+ */
+export function applyMove(jobId: string, body: MoveBody): Promise<MoveAnswer> {
+  return api.post<MoveAnswer>(`${jobPath(jobId)}/programme/apply`, body);
+}
+
+export function useApplyMove() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ jobId, body }: { jobId: string; body: MoveBody }) =>
+      applyMove(jobId, body),
+    onSuccess: (answer, { jobId }) => {
+      // The server's answer, never the preview; other jobs may share a trade, so re-read them.
+      queryClient.setQueryData(calendarKeys.programme(jobId), answer.programme);
+      void queryClient.invalidateQueries({ queryKey: calendarKeys.all });
+    },
+  });
+}

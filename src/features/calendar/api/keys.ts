@@ -1,0 +1,10 @@
+// Query keys for the calendars; mutations write and invalidate through these.
+export const calendarKeys = {
+  all: ["calendar"] as const,
+  jobs: () => [...calendarKeys.all, "jobs"] as const,
+  programme: (jobId: string) =>
+    [...calendarKeys.all, "programme", jobId] as const,
+  jobDetail: (jobId: string) => [...calendarKeys.all, "job", jobId] as const,
+  daysOff: () => [...calendarKeys.all, "days-off"] as const,
+  feed: () => [...calendarKeys.all, "feed"] as const,
+};

@@ -1,0 +1,291 @@
+import { useMemo, useState, useSyncExternalStore, type ReactNode } from "react";
+import FullCalendar from "@fullcalendar/react";
+import type {
+  DatesSetArg,
+  EventContentArg,
+  EventDropArg,
+  EventInput,
+} from "@fullcalendar/core";
+import enGbLocale from "@fullcalendar/core/locales/en-gb";
+import dayGridPlugin from "@fullcalendar/daygrid";
+import interactionPlugin from "@fullcalendar/interaction";
+import { Button, cx } from "../../../components/ui";
+import { formatDateShort } from "../../../lib/format";
+import {
+  addDays,
+  entryDetail,
+  entryLabel,
+  mondayOf,
+  todayDate,
+  type DayMark,
+  type Entry,
+} from "../model";
+
+/** Left rule per trade kind (a token): decoration beside the text label, never alone. */
+export const partyRule: Record<Entry["party"], string> = {
+  workshop: "border-l-trade-workshop",
+  plasterer: "border-l-trade-plasterer",
+  decorator: "border-l-trade-decorator",
+  electrician: "border-l-trade-electrician",
+  flooring: "border-l-trade-flooring",
+  plumber: "border-l-trade-plumber",
+  other: "border-l-trade-other",
+};
+
+const wide = "(min-width: 768px)";
+function subscribe(onChange: () => void) {
+  const m = window.matchMedia(wide);
+  m.addEventListener("change", onChange);
+  return () => m.removeEventListener("change", onChange);
+}
+/** FullCalendar at a desk; on a phone a plain list (listWeek is not installed). */
+function useWide(): boolean {
+  return useSyncExternalStore(
+    subscribe,
+    () => window.matchMedia(wide).matches,
+    () => true,
+  );
+}
+
+function EventBox({ entry }: { entry: Entry }) {
+  return (
+    <div
+      className={cx(
+        "w-full overflow-hidden rounded-sm border border-rule border-l-4 bg-card px-1.5 py-0.5 text-xs leading-snug text-ink",
+        partyRule[entry.party],
+        entry.previewed && "outline-2 outline-dashed outline-accent",
+      )}
+      title={`${entryLabel(entry)} — ${entryDetail(entry)}`}
+      data-testid="calendar-event"
+    >
+      <span className="block truncate font-medium">{entryLabel(entry)}</span>
+      <span className="block truncate text-ink-soft">
+        {entry.who ?? entryDetail(entry)}
+      </span>
+    </div>
+  );
+}
+
+interface CalendarViewProps {
+  entries: Entry[];
+  marks: DayMark[];
+  /** Dragging (and the per-entry Move control) only when given. */
+  onMove?: (entry: Entry, date: string) => void;
+  /** The Move control's form, rendered under the entry it belongs to. */
+  renderMove?: (entry: Entry) => ReactNode;
+  initialDate?: string;
+  emptyText: string;
+}
+
+/**
+ * Month and week views (FullCalendar day grids) above a day-by-day list of what is in view. The
+ * list is the keyboard and phone way in: every entry's text and, when allowed, its Move control.
+ */
+export function CalendarView({
+  entries,
+  marks,
+  onMove,
+  renderMove,
+  initialDate,
+  emptyText,
+}: CalendarViewProps) {
+  const isWide = useWide();
+  const [range, setRange] = useState<{ from: string; to: string }>(() => {
+    const from = mondayOf(initialDate ?? todayDate());
+    return { from, to: addDays(from, 13) };
+  });
+
+  // One array per change of data: a new array for the same data would snap a drop back.
+  const events = useMemo<EventInput[]>(
+    () => [
+      ...entries.map((e) => ({
+        id: e.id,
+        title: entryLabel(e),
+        start: e.start,
+        end: addDays(e.last, 1),
+        allDay: true,
+        startEditable: !!onMove && e.movable,
+        durationEditable: false,
+        extendedProps: { entry: e },
+      })),
+      ...marks.map((m) => ({
+        id: `mark:${m.date}:${m.label}`,
+        title: m.label,
+        start: m.date,
+        allDay: true,
+        display: "background",
+        classNames: [`sitecue-mark-${m.kind}`],
+        extendedProps: { mark: m },
+      })),
+    ],
+    [entries, marks, onMove],
+  );
+
+  const shown = entries
+    .filter((e) => e.last >= range.from && e.start <= range.to)
+    .sort((a, b) => a.start.localeCompare(b.start) || a.id.localeCompare(b.id));
+  const shownMarks = marks.filter(
+    (m) => m.date >= range.from && m.date <= range.to,
+  );
+  const days = [
+    ...new Set([
+      ...shown.map((e) => (e.start < range.from ? range.from : e.start)),
+      ...shownMarks.map((m) => m.date),
+    ]),
+  ].sort();
+
+  const onDrop = (info: EventDropArg) => {
+    const entry = info.event.extendedProps.entry as Entry | undefined;
+    if (!entry || !onMove) return info.revert();
+    onMove(entry, info.event.startStr.slice(0, 10));
+  };
+
+  return (
+    <div className="flex flex-col gap-4">
+      {isWide ? (
+        <div className="sitecue-calendar rounded border border-rule bg-card p-3">
+          <FullCalendar
+            plugins={[dayGridPlugin, interactionPlugin]}
+            locale={enGbLocale}
+            initialView="dayGridMonth"
+            initialDate={initialDate}
+            firstDay={1}
+            height="auto"
+            headerToolbar={{
+              left: "prev,next today",
+              center: "title",
+              right: "dayGridMonth,dayGridWeek",
+            }}
+            buttonText={{ today: "Today", month: "Month", week: "Week" }}
+            dayHeaderFormat={{ weekday: "short" }}
+            views={{
+              dayGridWeek: {
+                dayHeaderFormat: {
+                  weekday: "short",
+                  day: "numeric",
+                  month: "short",
+                },
+              },
+            }}
+            dayMaxEvents={false}
+            events={events}
+            eventContent={(arg: EventContentArg) => {
+              const mark = arg.event.extendedProps.mark as DayMark | undefined;
+              if (mark)
+                return (
+                  <span className="block px-1 pt-5 text-[0.7rem] font-medium text-ink-soft">
+                    {mark.label}
+                  </span>
+                );
+              return (
+                <EventBox entry={arg.event.extendedProps.entry as Entry} />
+              );
+            }}
+            eventDrop={onDrop}
+            datesSet={(arg: DatesSetArg) => {
+              const from = arg.startStr.slice(0, 10);
+              const to = addDays(arg.endStr.slice(0, 10), -1);
+              setRange((r) =>
+                r.from === from && r.to === to ? r : { from, to },
+              );
+            }}
+          />
+        </div>
+      ) : (
+        <div className="flex items-center justify-between gap-2">
+          <Button
+            size="sm"
+            variant="secondary"
+            onClick={() =>
+              setRange((r) => ({
+                from: addDays(r.from, -14),
+                to: addDays(r.from, -1),
+              }))
+            }
+          >
+            ← Earlier
+          </Button>
+          <span className="font-mono text-sm">
+            {formatDateShort(range.from)} – {formatDateShort(range.to)}
+          </span>
+          <Button
+            size="sm"
+            variant="secondary"
+            onClick={() =>
+              setRange((r) => ({
+                from: addDays(r.to, 1),
+                to: addDays(r.to, 14),
+              }))
+            }
+          >
+            Later →
+          </Button>
+        </div>
+      )}
+
+      <section aria-label="In view, day by day" className="flex flex-col gap-3">
+        {isWide ? (
+          <h3 className="text-sm font-semibold">
+            In view, day by day{" "}
+            <span className="font-normal text-ink-soft">
+              {onMove ? "— move a task from here with the keyboard" : ""}
+            </span>
+          </h3>
+        ) : null}
+        {days.length === 0 ? (
+          <p className="rounded border border-rule bg-card px-4 py-3 text-sm text-ink-soft">
+            {emptyText}
+          </p>
+        ) : (
+          <ol className="flex flex-col gap-3">
+            {days.map((d) => (
+              <li key={d} className="rounded border border-rule bg-card">
+                <h4 className="border-b border-rule px-3 py-1.5 font-mono text-sm font-medium">
+                  {formatDateShort(d)}
+                  {shownMarks
+                    .filter((m) => m.date === d)
+                    .map((m) => (
+                      <span
+                        key={m.label}
+                        className="ml-2 font-sans text-xs font-normal text-ink-soft"
+                      >
+                        {m.label}
+                      </span>
+                    ))}
+                </h4>
+                <ul className="flex flex-col divide-y divide-rule">
+                  {shown
+                    .filter(
+                      (e) =>
+                        (e.start < range.from ? range.from : e.start) === d,
+                    )
+                    .map((e) => (
+                      <li
+                        key={e.id}
+                        className={cx(
+                          "flex flex-col gap-1 border-l-4 px-3 py-2 text-sm",
+                          partyRule[e.party],
+                        )}
+                        data-testid="calendar-list-entry"
+                      >
+                        <div className="flex flex-wrap items-baseline justify-between gap-x-3">
+                          <span className="font-medium">{entryLabel(e)}</span>
+                          <span className="font-mono text-xs text-ink-soft">
+                            {e.last !== e.start
+                              ? `${formatDateShort(e.start)} – ${formatDateShort(e.last)}`
+                              : formatDateShort(e.start)}
+                          </span>
+                        </div>
+                        <span className="text-ink-soft">{entryDetail(e)}</span>
+                        {renderMove && e.movable ? renderMove(e) : null}
+                      </li>
+                    ))}
+                </ul>
+              </li>
+            ))}
+          </ol>
+        )}
+      </section>
+    </div>
+  );
+}

@@ -1,0 +1,278 @@
+// The calendars of issue 6 in the browser: the workshop calendar in month and week views with
+// bank holidays, a drag whose knock-on is read before saving, Save and the result after a reload;
+// FullCalendar's run-time CSS applied under the production CSP (nonce) with no console errors;
+// the demo plasterer's own calendar. Chromium against the built client.
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Browser, Page } from "playwright-core";
+import { startTestApp, type TestApp } from "../setup/test-app";
+import { demoAccounts, DEMO_PASSWORD } from "../factories/demo-scenario";
+import {
+  desktop,
+  launchBrowser,
+  phone,
+  shot,
+  visible,
+  watchConsole,
+} from "./browser";
+
+let t: TestApp;
+let browser: Browser;
+
+beforeAll(async () => {
+  t = await startTestApp({ demo: true, listen: true });
+  browser = await launchBrowser();
+}, 120_000);
+afterAll(async () => {
+  await browser?.close();
+  await t?.close();
+});
+
+async function signIn(
+  email: string,
+  viewport = desktop,
+): Promise<{ page: Page; problems: string[] }> {
+  const context = await browser.newContext({ viewport });
+  const page = await context.newPage();
+  const problems = watchConsole(page);
+  await page.goto(`${t.url}/sign-in`);
+  await page.getByLabel("E-mail").fill(email);
+  await page.getByLabel("Password").fill(DEMO_PASSWORD);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"));
+  return { page, problems };
+}
+
+/** A calendar event (FullCalendar's harness) by the task name in its label. */
+const fcEvent = (page: Page, name: string) =>
+  page.locator(".fc .fc-event", { hasText: name }).first();
+
+/** Go to the month holding `yyyyMm` ("2026-12") with the calendar's own buttons. */
+async function goToMonth(page: Page, yyyyMm: string): Promise<void> {
+  for (let i = 0; i < 24; i++) {
+    const date = await page
+      .locator(".fc-daygrid-day:not(.fc-day-other)")
+      .first()
+      .getAttribute("data-date");
+    if (!date) throw new Error("no day cells");
+    if (date.slice(0, 7) === yyyyMm) return;
+    await page
+      .getByRole("button", {
+        name: date.slice(0, 7) < yyyyMm ? "Next month" : "Previous month",
+      })
+      .click();
+  }
+  throw new Error(`could not reach ${yyyyMm}`);
+}
+
+describe("workshop calendar", () => {
+  it("renders month and week, shows the drag's knock-on before saving, saves it, keeps it after a reload", async () => {
+    const { page, problems } = await signIn(demoAccounts.owner.email);
+    // The calendar sits in the members' navigation and loads lazily.
+    await page
+      .getByRole("navigation", { name: "Main" })
+      .getByRole("link", { name: "Calendar" })
+      .click();
+    await page.waitForURL(/\/calendar$/);
+    await visible(fcEvent(page, "Template coving"));
+
+    // FullCalendar's injected stylesheet applied: production CSP allows it by nonce only.
+    const csp = await page.evaluate(async () => {
+      const r = await fetch(location.href);
+      return r.headers.get("content-security-policy") ?? "";
+    });
+    expect(csp).toMatch(/style-src 'self' 'nonce-[A-Za-z0-9+/=]+'/);
+    expect(csp).toMatch(/script-src 'self'(;|$)/);
+    const style = await page.evaluate(() => {
+      const fc = document.querySelector(".fc")!;
+      const frame = document.querySelector(".fc .fc-daygrid-day-frame")!;
+      const meta = document.querySelector('meta[name="csp-nonce"]');
+      return {
+        display: getComputedStyle(fc).display,
+        direction: getComputedStyle(fc).flexDirection,
+        framePosition: getComputedStyle(frame).position,
+        // The injected <style> carries the page's nonce (read from the meta by FullCalendar).
+        nonced: (() => {
+          const el = document.querySelector<HTMLStyleElement>(
+            "style[data-fullcalendar]",
+          );
+          return !!el?.nonce && (el.sheet?.cssRules.length ?? 0) > 50;
+        })(),
+        metaFilled:
+          !!meta && !/__SITECUE/.test(meta.getAttribute("content") ?? ""),
+      };
+    });
+    expect(style).toEqual({
+      display: "flex",
+      direction: "column",
+      framePosition: "relative",
+      nonced: true,
+      metaFilled: true,
+    });
+
+    // Month: demo events by name with their trade-kind labels.
+    await visible(fcEvent(page, "Fill, caulk & paint"));
+    expect(await fcEvent(page, "Template coving").innerText()).toContain(
+      "Plasterer",
+    );
+    expect(await fcEvent(page, "Fill, caulk & paint").innerText()).toContain(
+      "Decorator",
+    );
+    // December 2026 holds two bank holidays (25 and 28 Dec).
+    await goToMonth(page, "2026-12");
+    for (const d of ["2026-12-25", "2026-12-28"])
+      expect(
+        await page.locator(`.fc-daygrid-day[data-date="${d}"]`).innerText(),
+      ).toContain("Bank holiday");
+    await shot(page, "calendar-month-desktop");
+
+    // Week view.
+    await page.getByRole("button", { name: "Week", exact: true }).click();
+    await visible(page.locator(".fc-dayGridWeek-view"));
+    await visible(fcEvent(page, "Template coving"));
+    await shot(page, "calendar-week-desktop");
+    await page.getByRole("button", { name: "Month", exact: true }).click();
+    await visible(page.locator(".fc-dayGridMonth-view"));
+
+    // Drag "Hang doors" a week later: the knock-on shows before anything is saved.
+    const doors = fcEvent(page, "Hang doors");
+    const from = await doors.evaluate((el) =>
+      el.closest("td[data-date]")!.getAttribute("data-date")!,
+    );
+    const target = new Date(`${from}T00:00:00Z`);
+    target.setUTCDate(target.getUTCDate() + 7);
+    const to = target.toISOString().slice(0, 10);
+    if (to.slice(0, 7) !== from.slice(0, 7))
+      throw new Error("pick another day");
+    const a = (await doors.boundingBox())!;
+    const b = (await page
+      .locator(`.fc-daygrid-day[data-date="${to}"]`)
+      .boundingBox())!;
+    await page.mouse.move(a.x + 10, a.y + a.height / 2);
+    await page.mouse.down();
+    await page.mouse.move(a.x + 20, a.y + a.height / 2 + 10, { steps: 5 });
+    await page.mouse.move(b.x + b.width / 2, b.y + b.height / 2, { steps: 15 });
+    await page.mouse.up();
+
+    const panel = page.locator("section", {
+      has: page.getByRole("heading", { name: "Knock-on of moving Hang doors" }),
+    });
+    await visible(panel);
+    const moved = panel.getByRole("list", { name: "Tasks that move" });
+    await visible(moved);
+    expect(await moved.innerText()).toContain("Hang doors");
+    // Second fix is booked (a pin), so its booking must be re-confirmed rather than moved.
+    const panelText = await panel.innerText();
+    expect(panelText).toContain("Bookings to re-confirm");
+    expect(panelText).toMatch(
+      /Electrician second fix \(Brightwire Electrical\)/,
+    );
+    expect(await panel.getByTestId("handover-change").innerText()).toMatch(
+      /^Handover (moves|stays)/,
+    );
+    await expect(panel.innerText()).resolves.toContain("Not saved yet");
+    await shot(page, "calendar-drag-preview-desktop");
+
+    // Nothing saved yet: the server still has the old date.
+    const before = await page.evaluate(async () => {
+      const jobs = (await (await fetch("/api/jobs")).json()) as {
+        jobs: { id: string; title: string }[];
+      };
+      return jobs.jobs.map((j) => j.id);
+    });
+    expect(before.length).toBeGreaterThan(0);
+
+    await panel.getByRole("button", { name: "Save the move" }).click();
+    await visible(
+      page.getByRole("status").filter({ hasText: "Hang doors moved." }),
+    );
+
+    await page.reload();
+    await visible(fcEvent(page, "Hang doors"));
+    const after = await fcEvent(page, "Hang doors").evaluate((el) =>
+      el.closest("td[data-date]")!.getAttribute("data-date")!,
+    );
+    expect(after).toBe(to);
+    expect(problems).toEqual([]);
+    await page.context().close();
+  }, 90_000);
+
+  it("works at 375 px as a day-by-day list with a keyboard Move control", async () => {
+    const { page, problems } = await signIn(demoAccounts.fitter.email, phone);
+    await page.goto(`${t.url}/calendar`);
+    const entry = page
+      .getByTestId("calendar-list-entry")
+      .filter({ hasText: "Template coving" });
+    await visible(entry);
+    expect(await page.locator(".fc").count()).toBe(0);
+    await shot(page, "calendar-phone");
+    const wide = await page.evaluate(
+      () => document.documentElement.scrollWidth,
+    );
+    expect(wide).toBeLessThanOrEqual(375);
+
+    const paint = page
+      .getByTestId("calendar-list-entry")
+      .filter({ hasText: "Fill, caulk & paint" })
+      .first();
+    await paint
+      .getByRole("button", { name: /^Move Fill, caulk & paint/ })
+      .click();
+    await paint.getByLabel("Not earlier than").press("ArrowUp");
+    await paint.getByRole("button", { name: "Show the knock-on" }).click();
+    await visible(
+      page.getByRole("heading", {
+        name: "Knock-on of moving Fill, caulk & paint",
+      }),
+    );
+    await page.getByRole("button", { name: "Cancel" }).click();
+    expect(
+      await page.getByRole("heading", { name: /Knock-on of moving/ }).count(),
+    ).toBe(0);
+    expect(problems).toEqual([]);
+    await page.context().close();
+  }, 60_000);
+});
+
+describe("trade calendar", () => {
+  it("shows the demo plasterer their own visits", async () => {
+    const { page, problems } = await signIn(demoAccounts.trade.email);
+    await page
+      .getByRole("navigation", { name: "Main" })
+      .getByRole("link", { name: "My calendar" })
+      .click();
+    await page.waitForURL(/\/my-calendar$/);
+    await visible(fcEvent(page, "Template coving"));
+    await visible(fcEvent(page, "Fit coving & make good"));
+    expect(await page.locator(".fc").innerText()).not.toContain(
+      "Fill, caulk & paint",
+    );
+    expect(await page.locator("body").innerText()).toContain(
+      "Hollin & Vane Joinery",
+    );
+    // Days off, entered once for every workshop: added here, shown on the calendar.
+    const off = await page.evaluate(() => {
+      const d = new Date();
+      d.setDate(d.getDate() + 14);
+      const p = (n: number) => String(n).padStart(2, "0");
+      return `${d.getFullYear()}-${p(d.getMonth() + 1)}-${p(d.getDate())}`;
+    });
+    await page.getByLabel("Day off", { exact: true }).fill(off);
+    await page.getByRole("button", { name: "Add day off" }).click();
+    await visible(page.getByRole("list", { name: "Your days off" }));
+    await visible(page.getByRole("heading", { name: "Calendar feed" }));
+    await shot(page, "my-calendar-desktop");
+    expect(problems).toEqual([]);
+    await page.context().close();
+
+    const p = await signIn(demoAccounts.trade.email, phone);
+    await p.page.goto(`${t.url}/my-calendar`);
+    await visible(
+      p.page
+        .getByTestId("calendar-list-entry")
+        .filter({ hasText: "Template coving" }),
+    );
+    await shot(p.page, "my-calendar-phone");
+    expect(p.problems).toEqual([]);
+    await p.page.context().close();
+  }, 60_000);
+});
