@@ -129,7 +129,17 @@ describe("workshop calendar", () => {
     await page.getByRole("button", { name: "Week", exact: true }).click();
     await visible(page.locator(".fc-dayGridWeek-view"));
     await visible(fcEvent(page, "Template coving"));
+    await page.waitForTimeout(300);
+    // Still the week after the re-render datesSet causes.
+    expect(await page.locator(".fc-dayGridMonth-view").count()).toBe(0);
+    expect(await page.locator(".fc-daygrid-day").count()).toBe(7);
     await shot(page, "calendar-week-desktop");
+    // A resize (the full-page shot makes one) keeps the week: FullCalendar re-initialises then.
+    expect(await page.locator(".fc-daygrid-day").count()).toBe(7);
+    await page.setViewportSize({ width: 1200, height: 800 });
+    await page.waitForTimeout(300);
+    expect(await page.locator(".fc-daygrid-day").count()).toBe(7);
+    await page.setViewportSize(desktop);
     await page.getByRole("button", { name: "Month", exact: true }).click();
     await visible(page.locator(".fc-dayGridMonth-view"));
 
@@ -260,6 +270,10 @@ describe("trade calendar", () => {
     await page.getByRole("button", { name: "Add day off" }).click();
     await visible(page.getByRole("list", { name: "Your days off" }));
     await visible(page.getByRole("heading", { name: "Calendar feed" }));
+    await visible(page.locator(".fc-daygrid-day", { hasText: "Your day off" }));
+    expect(
+      await page.locator('.fc-daygrid-day[data-date="2026-12-25"]').innerText(),
+    ).toContain("Bank holiday");
     await shot(page, "my-calendar-desktop");
     expect(problems).toEqual([]);
     await page.context().close();

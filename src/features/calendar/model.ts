@@ -184,7 +184,18 @@ export function dayMarks(
       }
     }
   }
-  for (const region of regions) {
+  for (const m of holidayMarks([...regions], from, to)) put(m);
+  return [...marks.values()].sort((a, b) => a.date.localeCompare(b.date));
+}
+
+/** The bank holidays of each region between `from` and `to` (inclusive), once per day. */
+export function holidayMarks(
+  regions: string[],
+  from: string,
+  to: string,
+): DayMark[] {
+  const days = new Set<string>();
+  for (const region of new Set(regions)) {
     // Every weekday working, so only the region's bank holidays are days off.
     const cal = {
       id: "holidays",
@@ -192,10 +203,11 @@ export function dayMarks(
       holidayRegion: region as never,
     };
     for (let d = from; d <= to; d = addDays(d, 1))
-      if (!isWorkingDay([cal], d))
-        put({ date: d, kind: "holiday", label: "Bank holiday" });
+      if (!isWorkingDay([cal], d)) days.add(d);
   }
-  return [...marks.values()].sort((a, b) => a.date.localeCompare(b.date));
+  return [...days]
+    .sort()
+    .map((date) => ({ date, kind: "holiday", label: "Bank holiday" }));
 }
 
 /** Monday of the week holding `date`. */

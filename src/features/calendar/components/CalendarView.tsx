@@ -32,7 +32,25 @@ export const partyRule: Record<Entry["party"], string> = {
   other: "border-l-trade-other",
 };
 
+// Options live outside the component: FullCalendar re-initialises on a new object (a re-render
+// would otherwise throw the week view back to the month).
+const plugins = [dayGridPlugin, interactionPlugin];
+const headerToolbar = {
+  left: "prev,next today",
+  center: "title",
+  right: "dayGridMonth,dayGridWeek",
+};
+const buttonText = { today: "Today", month: "Month", week: "Week" };
+const monthDayHeader = { weekday: "short" } as const;
+const views = {
+  dayGridWeek: {
+    dayHeaderFormat: { weekday: "short", day: "numeric", month: "short" },
+  },
+} as const;
+
 const wide = "(min-width: 768px)";
+const localDate = (d: Date) =>
+  `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, "0")}-${String(d.getDate()).padStart(2, "0")}`;
 function subscribe(onChange: () => void) {
   const m = window.matchMedia(wide);
   m.addEventListener("change", onChange);
@@ -95,6 +113,13 @@ export function CalendarView({
     return { from, to: addDays(from, 13) };
   });
 
+  // Where the person is (view and date), fed back as the initial ones: when FullCalendar
+  // re-initialises (seen on a window resize) it stays there instead of jumping to the month.
+  const [nav, setNav] = useState<{ view: string; date: string | undefined }>({
+    view: "dayGridMonth",
+    date: initialDate,
+  });
+
   // One array per change of data: a new array for the same data would snap a drop back.
   const events = useMemo<EventInput[]>(
     () => [
@@ -145,28 +170,16 @@ export function CalendarView({
       {isWide ? (
         <div className="sitecue-calendar rounded border border-rule bg-card p-3">
           <FullCalendar
-            plugins={[dayGridPlugin, interactionPlugin]}
+            plugins={plugins}
             locale={enGbLocale}
-            initialView="dayGridMonth"
-            initialDate={initialDate}
+            initialView={nav.view}
+            initialDate={nav.date}
             firstDay={1}
             height="auto"
-            headerToolbar={{
-              left: "prev,next today",
-              center: "title",
-              right: "dayGridMonth,dayGridWeek",
-            }}
-            buttonText={{ today: "Today", month: "Month", week: "Week" }}
-            dayHeaderFormat={{ weekday: "short" }}
-            views={{
-              dayGridWeek: {
-                dayHeaderFormat: {
-                  weekday: "short",
-                  day: "numeric",
-                  month: "short",
-                },
-              },
-            }}
+            headerToolbar={headerToolbar}
+            buttonText={buttonText}
+            dayHeaderFormat={monthDayHeader}
+            views={views}
             dayMaxEvents={false}
             events={events}
             eventContent={(arg: EventContentArg) => {
@@ -185,6 +198,11 @@ export function CalendarView({
             datesSet={(arg: DatesSetArg) => {
               const from = arg.startStr.slice(0, 10);
               const to = addDays(arg.endStr.slice(0, 10), -1);
+              const view = arg.view.type;
+              const date = localDate(arg.view.currentStart);
+              setNav((n) =>
+                n.view === view && n.date === date ? n : { view, date },
+              );
               setRange((r) =>
                 r.from === from && r.to === to ? r : { from, to },
               );

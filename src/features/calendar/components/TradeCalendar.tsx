@@ -4,7 +4,13 @@ import { EmptyState, ErrorState, LoadingState } from "../../../components/ui";
 import { useJobDetails } from "../api/get-job-details";
 import { useCalendarJobs } from "../api/list-jobs";
 import { useMyDaysOff } from "../api/my-days-off";
-import { entriesOfJobBookings, type DayMark } from "../model";
+import {
+  addDays,
+  entriesOfJobBookings,
+  holidayMarks,
+  todayDate,
+  type DayMark,
+} from "../model";
 import { CalendarView } from "./CalendarView";
 
 /** A trade's own visits from every workshop they work for, in one view (read-only). */
@@ -23,15 +29,21 @@ export function TradeCalendar() {
     [dataKey],
   );
   const daysOff = useMyDaysOff();
-  const marks = useMemo<DayMark[]>(
-    () =>
-      (daysOff.data?.daysOff ?? []).map((date) => ({
+  const marks = useMemo<DayMark[]>(() => {
+    const today = todayDate();
+    const regions = details
+      .map((q) => q.data?.holidayRegion)
+      .filter((r): r is NonNullable<typeof r> => !!r);
+    return [
+      ...holidayMarks(regions, addDays(today, -60), addDays(today, 400)),
+      ...(daysOff.data?.daysOff ?? []).map((date): DayMark => ({
         date,
         kind: "day-off",
         label: "Your day off",
       })),
-    [daysOff.data],
-  );
+    ];
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [daysOff.data, dataKey]);
 
   if (jobs.isPending || details.some((q) => q.isPending))
     return <LoadingState label="Loading your visits…" />;
