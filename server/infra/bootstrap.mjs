@@ -406,17 +406,30 @@ async function main() {
   say(
     `Set-up took ${((Date.now() - t0) / 1000).toFixed(1)} s; running the tests`,
   );
-  const vitest = spawn("npx", ["vitest", "run", ...extraArgs], {
-    cwd: root,
-    env,
-    stdio: "inherit",
-    detached: true,
-  });
-  app = vitest;
-  const code = await new Promise((r) =>
-    vitest.once("exit", (c, s) => r(c ?? (s ? 1 : 0))),
-  );
-  app = null;
+  // Without arguments: unit and API tests first, then the browser tests on their own, so the
+  // browser never competes with a dozen API test files for this machine's two cores.
+  const phases = extraArgs.length
+    ? [extraArgs]
+    : [
+        ["--project", "shared", "--project", "server"],
+        ["--project", "e2e"],
+      ];
+  let code = 0;
+  for (const args of phases) {
+    const vitest = spawn("npx", ["vitest", "run", ...args], {
+      cwd: root,
+      env,
+      stdio: "inherit",
+      detached: true,
+    });
+    app = vitest;
+    const phaseCode = await new Promise((r) =>
+      vitest.once("exit", (c, s) => r(c ?? (s ? 1 : 0))),
+    );
+    app = null;
+    if (phaseCode !== 0) code = phaseCode;
+    if (stopping) break;
+  }
   say(
     `Tests finished in ${((Date.now() - t0) / 1000).toFixed(1)} s with exit code ${code}`,
   );
