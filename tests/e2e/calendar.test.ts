@@ -10,6 +10,7 @@ import {
   desktop,
   launchBrowser,
   phone,
+  screensDir,
   shot,
   visible,
   watchConsole,
@@ -238,6 +239,29 @@ describe("workshop calendar", () => {
     expect(
       await page.getByRole("heading", { name: /Knock-on of moving/ }).count(),
     ).toBe(0);
+    expect(problems).toEqual([]);
+    await page.context().close();
+  }, 60_000);
+});
+
+describe("job calendar", () => {
+  it("shows one job's tasks on the job page, loaded lazily", async () => {
+    const { page, problems } = await signIn(demoAccounts.owner.email);
+    await page
+      .getByRole("link", { name: "Alcove cabinets, front room" })
+      .first()
+      .click();
+    await page.waitForURL(/\/jobs\//);
+    const section = page.locator("#job-calendar");
+    await visible(
+      section.locator(".fc .fc-event", { hasText: "Template coving" }),
+    );
+    expect(await section.locator(".fc").innerText()).not.toContain(
+      "Fit wardrobe carcasses",
+    );
+    await section.screenshot({
+      path: `${screensDir}/job-calendar-desktop.png`,
+    });
     expect(problems).toEqual([]);
     await page.context().close();
   }, 60_000);

@@ -199,7 +199,7 @@ export function CalendarView({
               const from = arg.startStr.slice(0, 10);
               const to = addDays(arg.endStr.slice(0, 10), -1);
               const view = arg.view.type;
-              const date = localDate(arg.view.currentStart);
+              const date = localDate(arg.view.calendar.getDate());
               setNav((n) =>
                 n.view === view && n.date === date ? n : { view, date },
               );
