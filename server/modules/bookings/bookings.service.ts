@@ -1,11 +1,5 @@
 import { randomUUID } from "node:crypto";
-import {
-  In,
-  LessThan,
-  Not,
-  type DataSource,
-  type EntityManager,
-} from "typeorm";
+import { In, LessThan, type DataSource, type EntityManager } from "typeorm";
 import type { z } from "zod";
 import {
   firstFreeStart,
@@ -31,6 +25,7 @@ import { jobResource } from "../jobs/job-access";
 import {
   loadProgramme,
   PINNING_STATES,
+  tradeBusy,
   type ProgrammeData,
 } from "../programme/programme-input";
 import { Task } from "../programme/programme.entity";
@@ -65,14 +60,6 @@ async function withCandidate(
   taskId: string,
   start: string | null,
 ): Promise<ProgrammeInput> {
-  const others = await m.find(Booking, {
-    where: {
-      tradeId: trade.id,
-      jobId: Not(job.id),
-      state: In([...PINNING_STATES]),
-    },
-    relations: { job: true },
-  });
   const sameJob = data.tasks
     .filter((t) => t.id !== taskId)
     .map((t) => data.bookingByTask.get(t.id))
@@ -108,12 +95,7 @@ async function withCandidate(
     }),
     busy: [
       ...(input.busy ?? []).filter((b) => b.resource !== name),
-      ...others.map((b) => ({
-        resource: name,
-        start: b.start,
-        finish: b.finish,
-        ref: b.job?.title ?? "another job",
-      })),
+      ...(await tradeBusy(m, trade, job.id, name)),
     ],
   };
 }

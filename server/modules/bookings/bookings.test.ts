@@ -684,3 +684,79 @@ describe("links for bookings sent before links existed", () => {
     expect(page.body.taskName).toBe("Template coving");
   });
 });
+
+describe("a trade who works for two workshops", () => {
+  it("is busy here on a day booked by another workshop, shown only as busy", async () => {
+    const m = t.db.ds.manager;
+    const {
+      buildWorkshop,
+      buildTrade,
+      buildCustomer,
+      buildJob,
+      buildTask,
+      buildBooking,
+      linkTradeUser,
+    } = await import("../../../tests/factories/builders");
+    const { User } = await import("../users/users.entity");
+    const dev = await m.findOneByOrFail(User, {
+      email: demoAccounts.trade.email,
+    });
+    const other = await buildWorkshop(m, { name: "Other Joinery" });
+    const theirRecord = await buildTrade(m, other, {
+      kind: "plasterer",
+      businessName: "Ashby Plaster & Coving",
+      email: demoAccounts.trade.email,
+    });
+    await linkTradeUser(m, theirRecord, dev);
+    const theirJob = await buildJob(m, other, await buildCustomer(m, other), {
+      title: "A secret job elsewhere",
+    });
+    const theirTask = await buildTask(m, theirJob, {
+      name: "Run cornice",
+      party: "plasterer",
+      durationDays: 1,
+    });
+
+    const { jobId, p } = await readyJob("Booking: two workshops");
+    const template = taskNamed(p, "Template coving");
+    const before = ashby(
+      (
+        await owner.agent.get(
+          `/api/jobs/${jobId}/tasks/${template.id}/booking-options`,
+        )
+      ).body,
+    ).firstFree.start;
+    // The other workshop books the plasterer for that whole day.
+    await buildBooking(m, theirTask, theirRecord, {
+      state: "confirmed",
+      start: `${before.slice(0, 10)}T08:00`,
+      finish: `${before.slice(0, 10)}T16:30`,
+    });
+    const after = ashby(
+      (
+        await owner.agent.get(
+          `/api/jobs/${jobId}/tasks/${template.id}/booking-options`,
+        )
+      ).body,
+    ).firstFree.start;
+    expect(after.slice(0, 10) > before.slice(0, 10)).toBe(true);
+    const clash = await owner.agent
+      .post(`/api/jobs/${jobId}/bookings`)
+      .set("X-CSRF-Token", owner.csrf)
+      .send({
+        taskId: template.id,
+        tradeId: ashby(
+          (
+            await owner.agent.get(
+              `/api/jobs/${jobId}/tasks/${template.id}/booking-options`,
+            )
+          ).body,
+        ).tradeId,
+        start: before,
+        arrivalWindow: "morning",
+      });
+    expect(clash.status).toBe(409);
+    expect(clash.body.error.message).toMatch(/busy for another workshop/);
+    expect(clash.body.error.message).not.toMatch(/secret job/);
+  });
+});

@@ -8,7 +8,7 @@ import type {
 import { Booking } from "../bookings/bookings.entity";
 import type { Job } from "../jobs/jobs.entity";
 import { localToday } from "../jobs/jobs.presenter";
-import { Trade } from "../trades/trades.entity";
+import { Trade, TradeMember } from "../trades/trades.entity";
 import type { Workshop } from "../workshops/workshops.entity";
 import { Task, TaskLink } from "./programme.entity";
 
@@ -56,17 +56,6 @@ export async function loadProgramme(
     ? await m.findBy(Trade, { id: In(tradeIds) })
     : [];
   const trades = new Map(tradeList.map((t) => [t.id, t]));
-  const others = tradeIds.length
-    ? await m.find(Booking, {
-        where: {
-          tradeId: In(tradeIds),
-          jobId: Not(job.id),
-          state: In([...PINNING_STATES]),
-        },
-        relations: { job: true },
-      })
-    : [];
-
   // Resource ids double as the name in clash messages ("Ashby Plaster & Coving is already booked …").
   const resourceOf = new Map<string, string>();
   const used = new Set<string>();
@@ -125,12 +114,9 @@ export async function loadProgramme(
     };
   });
 
-  const busy: BusyInput[] = others.map((b) => ({
-    resource: resourceOf.get(b.tradeId)!,
-    start: b.start,
-    finish: b.finish,
-    ref: b.job?.title ?? "another job",
-  }));
+  const busy: BusyInput[] = [];
+  for (const t of tradeList)
+    busy.push(...(await tradeBusy(m, t, job.id, resourceOf.get(t.id)!)));
 
   const input: ProgrammeInput = {
     timeZone: job.timeZone,
@@ -148,4 +134,58 @@ export async function loadProgramme(
     busy,
   };
   return { tasks, links, bookingByTask, trades, input };
+}
+
+/**
+ * A trade's other bookings, as `busy` for the engine: on this workshop's other jobs (named by
+ * job), and — when the person who speaks for the trade also works for other workshops — their
+ * bookings there, shown only as "busy" (another workshop's job, customer and address stay theirs).
+ */
+export async function tradeBusy(
+  m: EntityManager,
+  trade: Trade,
+  excludeJobId: string,
+  resource: string,
+): Promise<BusyInput[]> {
+  const own = await m.find(Booking, {
+    where: {
+      tradeId: trade.id,
+      jobId: Not(excludeJobId),
+      state: In([...PINNING_STATES]),
+    },
+    relations: { job: true },
+  });
+  const busy: BusyInput[] = own.map((b) => ({
+    resource,
+    start: b.start,
+    finish: b.finish,
+    ref: b.job?.title ?? "another job",
+  }));
+  const people = await m.find(TradeMember, {
+    where: { tradeId: trade.id },
+    select: { userId: true },
+  });
+  if (people.length) {
+    const links = await m.find(TradeMember, {
+      where: {
+        userId: In(people.map((p) => p.userId)),
+        workshopId: Not(trade.workshopId),
+      },
+      select: { tradeId: true },
+    });
+    const elsewhere = [...new Set(links.map((l) => l.tradeId))];
+    if (elsewhere.length) {
+      const theirs = await m.find(Booking, {
+        where: { tradeId: In(elsewhere), state: In([...PINNING_STATES]) },
+      });
+      for (const b of theirs)
+        busy.push({
+          resource,
+          start: b.start,
+          finish: b.finish,
+          ref: "busy for another workshop",
+        });
+    }
+  }
+  return busy;
 }
