@@ -314,3 +314,75 @@ describe("trade calendar", () => {
     await p.page.context().close();
   }, 60_000);
 });
+
+describe("trade calendar across two workshops", () => {
+  it("shows the plasterer their visits for both workshops in one view", async () => {
+    const m = t.db.ds.manager;
+    const {
+      buildWorkshop,
+      buildTrade,
+      buildCustomer,
+      buildJob,
+      buildTask,
+      buildBooking,
+      linkTradeUser,
+    } = await import("../factories/builders");
+    const { User } = await import("../../server/modules/users/users.entity");
+    const { Booking } =
+      await import("../../server/modules/bookings/bookings.entity");
+    const { Trade } = await import("../../server/modules/trades/trades.entity");
+    const dev = await m.findOneByOrFail(User, {
+      email: demoAccounts.trade.email,
+    });
+    const other = await buildWorkshop(m, { name: "Fenwold Fitted Interiors" });
+    const record = await buildTrade(m, other, {
+      kind: "plasterer",
+      businessName: "Ashby Plaster & Coving",
+      email: demoAccounts.trade.email,
+    });
+    await linkTradeUser(m, record, dev);
+    const job = await buildJob(m, other, await buildCustomer(m, other), {
+      title: "Hall panelling",
+      area: "Fenwold",
+    });
+    const task = await buildTask(m, job, {
+      name: "Run cornice returns",
+      party: "plasterer",
+      durationDays: 1,
+    });
+    // On the same day as one of the demo plasterer's visits, so both are in the month on screen.
+    const { Workshop } =
+      await import("../../server/modules/workshops/workshops.entity");
+    const hollin = await m.findOneByOrFail(Workshop, {
+      name: "Hollin & Vane Joinery",
+    });
+    const demoTrade = await m.findOneByOrFail(Trade, {
+      workshopId: hollin.id,
+      businessName: "Ashby Plaster & Coving",
+    });
+    const demoVisit = await m.findOneOrFail(Booking, {
+      where: { tradeId: demoTrade.id },
+      order: { start: "ASC" },
+    });
+    const day = demoVisit.start.slice(0, 10);
+    await buildBooking(m, task, record, {
+      state: "sent",
+      start: `${day}T08:00`,
+      finish: `${day}T16:30`,
+    });
+
+    const { page, problems } = await signIn(demoAccounts.trade.email);
+    await page.goto(`${t.url}/my-calendar`);
+    const { Task } =
+      await import("../../server/modules/programme/programme.entity");
+    const demoTask = await m.findOneByOrFail(Task, { id: demoVisit.taskId });
+    await visible(fcEvent(page, demoTask.name));
+    await visible(fcEvent(page, "Run cornice returns"));
+    const body = await page.locator("body").innerText();
+    expect(body).toContain("Hollin & Vane Joinery");
+    expect(body).toContain("Fenwold Fitted Interiors");
+    await shot(page, "my-calendar-two-workshops-desktop");
+    expect(problems).toEqual([]);
+    await page.context().close();
+  }, 60_000);
+});
