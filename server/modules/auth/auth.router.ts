@@ -1,6 +1,6 @@
 import type { Authenticator } from "passport";
 import type { Request, Response } from "express";
-import rateLimit from "express-rate-limit";
+import { limitRequests } from "../../http/rate-limit";
 import { z } from "zod";
 import {
   passwordResetBodySchema,
@@ -31,21 +31,11 @@ function limiter(
   opts: AuthRouteOptions,
   extra: { limit?: number; skipSuccessfulRequests?: boolean } = {},
 ) {
-  return rateLimit({
+  return limitRequests({
     windowMs: opts.windowMs,
     limit: extra.limit ?? opts.signInLimit,
-    // Only failed sign-ins count against an address, so an office behind one IP is not locked out.
-    skipSuccessfulRequests: extra.skipSuccessfulRequests ?? false,
-    standardHeaders: "draft-8",
-    legacyHeaders: false,
-    handler: (_req, _res, next) =>
-      next(
-        new HttpError(
-          429,
-          "rate-limited",
-          "Too many attempts. Wait a few minutes and try again.",
-        ),
-      ),
+    onlyFailures: extra.skipSuccessfulRequests,
+    message: "Too many attempts. Wait a few minutes and try again.",
   });
 }
 

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import rateLimit from "express-rate-limit";
+import { limitRequests } from "../../http/rate-limit";
 import {
   bookingOptionsResponseSchema,
   bookingResponseSchema,
@@ -12,7 +12,6 @@ import {
   proposalDecisionBodySchema,
   recordAnswerBodySchema,
 } from "../../../shared/schemas";
-import { HttpError } from "../../http/errors";
 import type { ApiRoutes } from "../../http/routes";
 import { answerByLink, linkPage } from "./booking-link.service";
 import {
@@ -39,19 +38,10 @@ export function registerBookingRoutes(
   opts: { linkLimit: number },
 ): void {
   // The public link routes carry their own limit: tokens are unguessable, but nobody gets to try.
-  const linkLimiter = rateLimit({
+  const linkLimiter = limitRequests({
     windowMs: 15 * 60 * 1000,
     limit: opts.linkLimit,
-    standardHeaders: "draft-8",
-    legacyHeaders: false,
-    handler: (_req, _res, next) =>
-      next(
-        new HttpError(
-          429,
-          "rate-limited",
-          "Too many tries with booking links. Wait a few minutes.",
-        ),
-      ),
+    message: "Too many tries with booking links. Wait a few minutes.",
   });
 
   api.add({
