@@ -153,6 +153,15 @@ export const expected: Record<string, Row> = {
     other: 404,
     anon: 401,
   },
+  "GET /trades/:tradeId/busy": {
+    owner: 200,
+    fitter: 200,
+    tradeOn: 404,
+    tradeOff: 404,
+    customer: 404,
+    other: 404,
+    anon: 401,
+  },
   "DELETE /trades/:tradeId": {
     owner: 204,
     fitter: 403,

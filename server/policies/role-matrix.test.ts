@@ -403,6 +403,9 @@ const requests: Record<string, () => Promise<{ path: string; body?: object }>> =
       path: `/api/trades/${ids.decoratorId}`,
       body: { phone: "01632 960 272" },
     }),
+    "GET /trades/:tradeId/busy": async () => ({
+      path: `/api/trades/${ids.decoratorId}/busy?from=2026-01-01&to=2027-12-31`,
+    }),
     "DELETE /trades/:tradeId": async () => {
       const workshop = await t.db.ds.manager.findOneByOrFail(Workshop, {
         id: ids.workshopId,

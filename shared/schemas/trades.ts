@@ -64,3 +64,24 @@ export const tradeResponseSchema = z.object({
   hasAccount: z.boolean(),
 });
 export type TradeResponse = z.infer<typeof tradeResponseSchema>;
+
+/** A trade's other commitments in a date range: this workshop's bookings by name, other workshops' only as busy. */
+export const tradeBusyQuerySchema = z
+  .object({ from: isoDateSchema, to: isoDateSchema })
+  .refine((q) => q.from <= q.to, {
+    message: "The range must end after it starts",
+    path: ["to"],
+  });
+
+export const tradeBusyResponseSchema = z.object({
+  busy: z.array(
+    z.object({
+      start: z.string(),
+      finish: z.string(),
+      /** "Template coving — Alcove cabinets, front room", or "Busy (another workshop)". */
+      label: z.string(),
+      ownWorkshop: z.boolean(),
+    }),
+  ),
+});
+export type TradeBusyResponse = z.infer<typeof tradeBusyResponseSchema>;

@@ -384,5 +384,23 @@ describe("trade calendar across two workshops", () => {
     await shot(page, "my-calendar-two-workshops-desktop");
     expect(problems).toEqual([]);
     await page.context().close();
+
+    // The first workshop sees the plasterer's time for the other only as "busy".
+    const owner = await signIn(demoAccounts.owner.email);
+    await owner.page.goto(`${t.url}/calendar`);
+    await owner.page
+      .getByLabel("Business")
+      .selectOption({ label: "Ashby Plaster & Coving" });
+    await visible(
+      owner.page.locator(`.fc-daygrid-day[data-date="${day}"]`, {
+        hasText: "Busy (another workshop)",
+      }),
+    );
+    const ownerText = await owner.page.locator("body").innerText();
+    expect(ownerText).not.toContain("Run cornice returns");
+    expect(ownerText).not.toContain("Hall panelling");
+    await shot(owner.page, "calendar-busy-elsewhere-desktop");
+    expect(owner.problems).toEqual([]);
+    await owner.page.context().close();
   }, 60_000);
 });

@@ -758,5 +758,36 @@ describe("a trade who works for two workshops", () => {
     expect(clash.status).toBe(409);
     expect(clash.body.error.message).toMatch(/busy for another workshop/);
     expect(clash.body.error.message).not.toMatch(/secret job/);
+    // The workshop's view of the plasterer's time: its own bookings by name, the other's as busy.
+    const ashbyHere = await trade("Ashby Plaster & Coving");
+    const day = before.slice(0, 10);
+    const busy = (
+      await owner.agent
+        .get(`/api/trades/${ashbyHere.id}/busy?from=${day}&to=${day}`)
+        .expect(200)
+    ).body.busy;
+    expect(busy).toContainEqual({
+      start: `${day}T08:00`,
+      finish: `${day}T16:30`,
+      label: "Busy (another workshop)",
+      ownWorkshop: false,
+    });
+    expect(JSON.stringify(busy)).not.toMatch(/secret job|Run cornice/);
+    const wide = (
+      await owner.agent
+        .get(`/api/trades/${ashbyHere.id}/busy?from=2026-01-01&to=2027-12-31`)
+        .expect(200)
+    ).body.busy;
+    expect(
+      wide.some(
+        (b: { label: string; ownWorkshop: boolean }) =>
+          b.ownWorkshop &&
+          b.label === `Template coving — ${demoJobTitles.alcoves}`,
+      ),
+    ).toBe(true);
+    const backwards = await owner.agent.get(
+      `/api/trades/${ashbyHere.id}/busy?from=2027-01-02&to=2027-01-01`,
+    );
+    expect(backwards.status).toBe(400);
   });
 });

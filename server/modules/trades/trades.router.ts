@@ -3,6 +3,8 @@ import type { DataSource } from "typeorm";
 import {
   idSchema,
   tradeBodySchema,
+  tradeBusyQuerySchema,
+  tradeBusyResponseSchema,
   tradeResponseSchema,
   updateTradeBodySchema,
 } from "../../../shared/schemas";
@@ -11,6 +13,7 @@ import {
   createTrade,
   deleteTrade,
   listTrades,
+  tradeBusy,
   updateTrade,
 } from "./trades.service";
 
@@ -18,6 +21,19 @@ const workshopParams = z.object({ workshopId: idSchema });
 const tradeParams = z.object({ tradeId: idSchema });
 
 export function registerTradeRoutes(api: ApiRoutes, ds: DataSource): void {
+  api.add({
+    method: "get",
+    path: "/trades/:tradeId/busy",
+    tag: "trades",
+    summary:
+      "A trade's commitments in a date range: this workshop's by name, other workshops' only as busy",
+    params: tradeParams,
+    query: tradeBusyQuerySchema,
+    response: tradeBusyResponseSchema,
+    handler: async ({ actor, params, query }) => ({
+      busy: await tradeBusy(ds, actor, params.tradeId, query.from, query.to),
+    }),
+  });
   api.add({
     method: "get",
     path: "/workshops/:workshopId/trades",

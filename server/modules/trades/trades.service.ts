@@ -1,4 +1,4 @@
-import { In, type DataSource } from "typeorm";
+import { In, Not, type DataSource } from "typeorm";
 import type { z } from "zod";
 import type { Actor } from "../../policies";
 import { authorize, requireActor } from "../../policies";
@@ -8,6 +8,7 @@ import { audit } from "../audit/audit.service";
 import { Booking } from "../bookings/bookings.entity";
 import { Trade, TradeMember } from "./trades.entity";
 import type {
+  TradeBusyResponse,
   TradeResponse,
   tradeBodySchema,
   updateTradeBodySchema,
@@ -35,12 +36,10 @@ async function withAccounts(
   trades: Trade[],
 ): Promise<TradeResponse[]> {
   if (!trades.length) return [];
-  const links = await ds
-    .getRepository(TradeMember)
-    .find({
-      where: { tradeId: In(trades.map((t) => t.id)) },
-      select: { tradeId: true },
-    });
+  const links = await ds.getRepository(TradeMember).find({
+    where: { tradeId: In(trades.map((t) => t.id)) },
+    select: { tradeId: true },
+  });
   const linked = new Set(links.map((l) => l.tradeId));
   return trades.map((t) => presentTrade(t, linked.has(t.id)));
 }
@@ -52,12 +51,10 @@ export async function listTrades(
   workshopId: string,
 ): Promise<TradeResponse[]> {
   authorize(actor, "trades.read", { kind: "workshop", workshopId });
-  const trades = await ds
-    .getRepository(Trade)
-    .find({
-      where: { workshopId },
-      order: { kind: "ASC", businessName: "ASC" },
-    });
+  const trades = await ds.getRepository(Trade).find({
+    where: { workshopId },
+    order: { kind: "ASC", businessName: "ASC" },
+  });
   return withAccounts(ds, trades);
 }
 
@@ -155,4 +152,77 @@ export async function deleteTrade(
       detail: { businessName: trade.businessName },
     });
   });
+}
+
+/**
+ * A trade's bookings that hold their time (sent or later) overlapping a range: this workshop's
+ * with the task and job named; those for other workshops the same person works for, only as
+ * busy — another workshop's jobs, customers and addresses are not this workshop's to see.
+ */
+export async function tradeBusy(
+  ds: DataSource,
+  actor: Actor | null,
+  tradeId: string,
+  from: string,
+  to: string,
+): Promise<TradeBusyResponse["busy"]> {
+  const trade = await load(ds, actor, tradeId);
+  authorize(actor, "trades.read", {
+    kind: "trade",
+    workshopId: trade.workshopId,
+    tradeId,
+  });
+  const holding = In([
+    "sent",
+    "confirmed",
+    "date-proposed",
+    "needs-reconfirming",
+  ] as const);
+  const inRange = (b: Booking) =>
+    b.start.slice(0, 10) <= to && b.finish.slice(0, 10) >= from;
+  const own = (
+    await ds
+      .getRepository(Booking)
+      .find({
+        where: { tradeId, state: holding },
+        relations: { job: true, task: true },
+      })
+  ).filter(inRange);
+  const people = await ds
+    .getRepository(TradeMember)
+    .find({ where: { tradeId }, select: { userId: true } });
+  const elsewhere = people.length
+    ? (
+        await ds
+          .getRepository(TradeMember)
+          .find({
+            where: {
+              userId: In(people.map((p) => p.userId)),
+              workshopId: Not(trade.workshopId),
+            },
+            select: { tradeId: true },
+          })
+      ).map((l) => l.tradeId)
+    : [];
+  const theirs = elsewhere.length
+    ? (
+        await ds
+          .getRepository(Booking)
+          .find({ where: { tradeId: In(elsewhere), state: holding } })
+      ).filter(inRange)
+    : [];
+  return [
+    ...own.map((b) => ({
+      start: b.start,
+      finish: b.finish,
+      label: `${b.task?.name ?? "Booking"} — ${b.job?.title ?? "a job"}`,
+      ownWorkshop: true,
+    })),
+    ...theirs.map((b) => ({
+      start: b.start,
+      finish: b.finish,
+      label: "Busy (another workshop)",
+      ownWorkshop: false,
+    })),
+  ].sort((a, b) => a.start.localeCompare(b.start));
 }

@@ -43,7 +43,7 @@ export interface Entry {
 
 export interface DayMark {
   date: string;
-  kind: "holiday" | "closed" | "day-off";
+  kind: "holiday" | "closed" | "day-off" | "busy";
   label: string;
 }
 

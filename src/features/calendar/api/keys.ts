@@ -7,4 +7,6 @@ export const calendarKeys = {
   jobDetail: (jobId: string) => [...calendarKeys.all, "job", jobId] as const,
   daysOff: () => [...calendarKeys.all, "days-off"] as const,
   feed: () => [...calendarKeys.all, "feed"] as const,
+  tradeBusy: (tradeId: string, from: string, to: string) =>
+    [...calendarKeys.all, "trade-busy", tradeId, from, to] as const,
 };

@@ -15,11 +15,13 @@ import { previewMove, type Preview } from "../../../lib/knock-on";
 import { partyLabels } from "../../../lib/labels";
 import { useApplyMove, type MoveAnswer } from "../api/apply-move";
 import { useProgrammes } from "../api/get-programmes";
+import { useTradeBusy } from "../api/trade-busy";
 import {
   addDays,
   dayMarks,
   entriesOfProgramme,
   entryStateLabels,
+  lastDayOf,
   todayDate,
   type Entry,
   type EntryState,
@@ -98,6 +100,7 @@ export function PlanCalendar({
   const queries = useProgrammes(jobs.map((j) => j.id));
   const apply = useApplyMove();
   const [party, setParty] = useState("");
+  const [business, setBusiness] = useState("");
   const [jobFilter, setJobFilter] = useState("");
   const [state, setState] = useState("");
   const [pending, setPending] = useState<Pending | null>(null);
@@ -112,6 +115,19 @@ export function PlanCalendar({
   const programmes = queries
     .map((q) => q.data)
     .filter((p): p is ProgrammeResponse => !!p);
+  const businesses = [
+    ...new Map(
+      programmes.flatMap((p) =>
+        p.tasks.flatMap((t) =>
+          t.booking ? [[t.booking.tradeId, t.booking.tradeName] as const] : [],
+        ),
+      ),
+    ),
+  ].sort((a, b) => a[1].localeCompare(b[1]));
+  function businessName(tradeId: string) {
+    return businesses.find(([id]) => id === tradeId)?.[1] ?? null;
+  }
+
   // Rebuilt only when a programme, the preview or a filter changes (see CalendarView).
   const dataKey = queries.map((q) => q.dataUpdatedAt).join(",");
   const entries = useMemo(() => {
@@ -127,16 +143,30 @@ export function PlanCalendar({
       .filter(
         (e) =>
           (!party || e.party === party) &&
+          (!business || e.who === businessName(business)) &&
           (!jobFilter || e.jobId === jobFilter) &&
           (!state || e.state === state),
       );
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [dataKey, pending, party, jobFilter, state, jobs]);
+  }, [dataKey, pending, party, business, jobFilter, state, jobs]);
+  // A chosen business's time booked by other workshops shows only as "busy" days.
+  const busyFrom = addDays(todayDate(), -60);
+  const busyTo = addDays(todayDate(), 400);
+  const busy = useTradeBusy(business || null, busyFrom, busyTo);
   const marks = useMemo(() => {
-    const today = todayDate();
-    return dayMarks(programmes, addDays(today, -60), addDays(today, 400));
+    const days = dayMarks(programmes, busyFrom, busyTo);
+    for (const b of busy.data ?? []) {
+      if (b.ownWorkshop) continue;
+      for (
+        let d = b.start.slice(0, 10);
+        d <= lastDayOf(b.finish);
+        d = addDays(d, 1)
+      )
+        days.push({ date: d, kind: "busy", label: b.label });
+    }
+    return days;
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [dataKey]);
+  }, [dataKey, busy.data]);
 
   if (queries.some((q) => q.isPending))
     return <LoadingState label="Loading the calendar…" />;
@@ -222,6 +252,18 @@ export function PlanCalendar({
           {Object.entries(partyLabels).map(([k, v]) => (
             <option key={k} value={k}>
               {v}
+            </option>
+          ))}
+        </Select>
+        <Select
+          label="Business"
+          value={business}
+          onChange={(e) => setBusiness(e.target.value)}
+        >
+          <option value="">Every business</option>
+          {businesses.map(([id, name]) => (
+            <option key={id} value={id}>
+              {name}
             </option>
           ))}
         </Select>
