@@ -18,6 +18,9 @@ export const jobBookingsQueryOptions = (jobId: string) =>
     queryKey: bookingKeys.list(jobId),
     queryFn: ({ signal }) => listJobBookings(jobId, signal),
     select: (d) => d.bookings,
+    // A trade answers by link or from their calendar app at any moment: the maker sees it
+    // within a few seconds without reloading (polling the database, so any app process will do).
+    refetchInterval: 10_000,
   });
 
 export function useJobBookings(jobId: string) {
