@@ -5,6 +5,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
 import { startTestApp, type TestApp } from "../setup/test-app";
+import { bankHolidayDays } from "../../shared/programme";
 import { demoAccounts, DEMO_PASSWORD } from "../factories/demo-scenario";
 import {
   desktop,
@@ -46,6 +47,19 @@ async function signIn(
 /** A calendar event (FullCalendar's harness) by the task name in its label. */
 const fcEvent = (page: Page, name: string) =>
   page.locator(".fc .fc-event", { hasText: name }).first();
+
+/** The December bank holidays (England & Wales) of the current year, from the engine's calendar. */
+function decemberBankHolidays(): string[] {
+  return bankHolidayDays("GB-ENG", new Date().getFullYear())
+    .map((d) => new Date(d * 86_400_000).toISOString().slice(0, 10))
+    .filter((d) => d.slice(5, 7) === "12");
+}
+
+/** FullCalendar's Today button (disabled while today is in view). */
+async function backToToday(page: Page): Promise<void> {
+  const today = page.getByRole("button", { name: "Today" });
+  if (await today.isEnabled()) await today.click();
+}
 
 /** Go to the month holding `yyyyMm` ("2026-12") with the calendar's own buttons. */
 async function goToMonth(page: Page, yyyyMm: string): Promise<void> {
@@ -118,13 +132,15 @@ describe("workshop calendar", () => {
     expect(await fcEvent(page, "Fill, caulk & paint").innerText()).toContain(
       "Decorator",
     );
-    // December 2026 holds two bank holidays (25 and 28 Dec).
-    await goToMonth(page, "2026-12");
-    for (const d of ["2026-12-25", "2026-12-28"])
+    // This year's December bank holidays (GOV.UK: 25 and 28 Dec in 2026), then back to today.
+    const december = decemberBankHolidays();
+    await goToMonth(page, december[0].slice(0, 7));
+    for (const d of december)
       expect(
         await page.locator(`.fc-daygrid-day[data-date="${d}"]`).innerText(),
       ).toContain("Bank holiday");
     await shot(page, "calendar-month-desktop");
+    await backToToday(page);
 
     // Week view.
     await page.getByRole("button", { name: "Week", exact: true }).click();
@@ -295,9 +311,14 @@ describe("trade calendar", () => {
     await visible(page.getByRole("list", { name: "Your days off" }));
     await visible(page.getByRole("heading", { name: "Calendar feed" }));
     await visible(page.locator(".fc-daygrid-day", { hasText: "Your day off" }));
+    const december = decemberBankHolidays();
+    await goToMonth(page, december[0].slice(0, 7));
     expect(
-      await page.locator('.fc-daygrid-day[data-date="2026-12-25"]').innerText(),
+      await page
+        .locator(`.fc-daygrid-day[data-date="${december[0]}"]`)
+        .innerText(),
     ).toContain("Bank holiday");
+    await backToToday(page);
     await shot(page, "my-calendar-desktop");
     expect(problems).toEqual([]);
     await page.context().close();
