@@ -10,3 +10,4 @@ export * from "./programme";
 export * from "./starters";
 export * from "./bookings";
 export * from "./feeds";
+export * from "./thread";
