@@ -10,4 +10,5 @@ export * from "./programme";
 export * from "./starters";
 export * from "./bookings";
 export * from "./feeds";
+export * from "./drawings";
 export * from "./thread";
