@@ -37,6 +37,11 @@ export function setCsrfToken(token: string | null): void {
   csrfToken = token;
 }
 
+/** The current CSRF token, for the one request that cannot go through fetch (upload progress). */
+export function getCsrfToken(): string | null {
+  return csrfToken;
+}
+
 type Method = "GET" | "POST" | "PATCH" | "PUT" | "DELETE";
 
 export interface RequestOptions {

@@ -18,4 +18,5 @@ export {
   CautionNote,
 } from "./States";
 export { PageHeader } from "./PageHeader";
+export { ProgressBar } from "./ProgressBar";
 export { cx } from "./cx";
