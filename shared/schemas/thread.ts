@@ -45,7 +45,8 @@ export const threadQuerySchema = z.object({
   before: cursorSchema.optional(),
   limit: z.coerce.number().int().min(1).max(200).default(100),
 });
-export type ThreadQuery = z.input<typeof threadQuerySchema>;
+/** What a client sends (z.input of a coerced field is `unknown`, so spelled out). */
+export type ThreadQuery = { after?: number; before?: number; limit?: number };
 
 /** `GET /jobs/:jobId/thread/attachments/:fileId` — `variant=thumbnail` for an image's preview, `inline=1` to view in the browser. */
 export const threadAttachmentQuerySchema = z.object({
