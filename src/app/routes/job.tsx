@@ -4,8 +4,10 @@ import { Link, useNavigate, useParams } from "react-router-dom";
 import { useJob } from "../../features/jobs/api/get-job";
 import { jobKeys } from "../../features/jobs/api/keys";
 import { JobBookings } from "../../features/bookings/components/JobBookings";
+import { JobDrawings } from "../../features/drawings/components/JobDrawings";
 import { DeleteJobButton } from "../../features/jobs/components/DeleteJobButton";
 import { EditJobForm } from "../../features/jobs/components/EditJobForm";
+import { JobThread } from "../../features/thread/components/JobThread";
 import {
   JobBookingsSection,
   JobDetailsSection,
@@ -21,6 +23,7 @@ import {
   Section,
 } from "../../components/ui";
 import { isApiError } from "../../lib/api-client";
+import { shareOptionsOf } from "./drawing";
 
 // FullCalendar loads only when a member opens a job, not with the main bundle.
 const JobCalendar = lazy(
@@ -112,6 +115,7 @@ export function JobRoute() {
             <>
               <JobBookingsSection job={j} />
               <JobTasksSection job={j} />
+              <JobDrawings jobId={j.id} shareOptions={shareOptionsOf(j)} />
             </>
           ) : (
             <>
@@ -136,8 +140,11 @@ export function JobRoute() {
               ) : (
                 <JobBookingsSection job={j} />
               )}
+              <JobDrawings jobId={j.id} shareOptions={shareOptionsOf(j)} />
             </>
           )}
+          {/* Every role who sees the job has its thread (their audiences only). */}
+          <JobThread jobId={j.id} />
         </div>
         <div className="flex min-w-0 flex-col gap-6">
           <JobDetailsSection job={j} />
