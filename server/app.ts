@@ -13,6 +13,8 @@ import { openApiDocument } from "./http/openapi";
 import { ApiRoutes } from "./http/routes";
 import type { Mailer } from "./infra/mail/mailer";
 import type { SmtpFake } from "./infra/mail/smtp-fake";
+import type { Storage } from "./infra/storage/storage";
+import type { FilesDeps } from "./modules/files/files.service";
 import { registerAuthRoutes } from "./modules/auth/auth.router";
 import { checkCredentials } from "./modules/auth/auth.service";
 import { registerCustomerRoutes } from "./modules/customers/customers.router";
@@ -37,6 +39,10 @@ export interface AppDeps {
   mailer: Mailer;
   /** The local SMTP fake, when one runs (development and tests): enables /api/dev/mail. */
   mailbox: SmtpFake | null;
+  /** The bucket for uploaded files (S3; s3rver in development and tests). */
+  storage: Storage;
+  /** The largest upload accepted, in bytes (25 MB unless set). */
+  uploadMaxBytes?: number;
   appUrl: string;
   sessionSecret: string;
   production: boolean;
@@ -151,6 +157,13 @@ export function createApp(deps: AppDeps): SitecueApp {
     windowMs: deps.signInWindowMs ?? 15 * 60 * 1000,
   });
   registerJobRoutes(api, deps.ds);
+  // Uploads (drawings, templates, site photos, thread attachments) go through server/modules/files.
+  const files: FilesDeps = {
+    ds: deps.ds,
+    storage: deps.storage,
+    maxBytes: deps.uploadMaxBytes ?? 25 * 1024 * 1024,
+  };
+  void files; // the drawings and thread routes take it
   const bookingDeps = {
     ds: deps.ds,
     appUrl: deps.appUrl,

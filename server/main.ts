@@ -9,6 +9,8 @@ import { createMailer } from "./infra/mail/mailer";
 import { startSmtpFake, type SmtpFake } from "./infra/mail/smtp-fake";
 import { OutboxWorker } from "./infra/outbox/outbox";
 import { startInboundSmtp } from "./infra/mail/inbound";
+import { startS3Fake, type S3Fake } from "./infra/storage/s3-fake";
+import { createStorage } from "./infra/storage/storage";
 
 const log = (msg: string) => console.log(`[sitecue] ${msg}`);
 
@@ -59,6 +61,37 @@ async function main() {
     );
   }
   const mailer = createMailer(smtp);
+
+  // Uploaded files live in an S3 bucket; development runs a local S3 fake on loopback.
+  let s3Fake: S3Fake | null = null;
+  let s3 = {
+    endpoint: env.S3_ENDPOINT,
+    region: env.S3_REGION,
+    bucket: env.S3_BUCKET,
+    accessKeyId: env.S3_ACCESS_KEY_ID,
+    secretAccessKey: env.S3_SECRET_ACCESS_KEY,
+    forcePathStyle: env.S3_FORCE_PATH_STYLE === "1",
+  };
+  if (env.S3_FAKE === "1") {
+    if (production)
+      throw new Error(
+        "S3_FAKE=1 is for development only; set S3_ENDPOINT, S3_BUCKET and the S3_ credentials in production.",
+      );
+    s3Fake = await startS3Fake({
+      dir: env.SITECUE_S3_DIR,
+      bucket: env.S3_BUCKET,
+    });
+    s3 = {
+      ...s3,
+      endpoint: s3Fake.endpoint,
+      accessKeyId: "S3RVER",
+      secretAccessKey: "S3RVER",
+      forcePathStyle: true,
+    };
+    log(`Local S3 fake listening on ${s3Fake.endpoint} (bucket ${s3.bucket})`);
+  }
+  const storage = createStorage(s3);
+  if (!production) await storage.ensureBucket();
   // Services write e-mail to the outbox in their transactions; this process sends its share.
   // Every app process runs one: rows are claimed with SKIP LOCKED, so they never collide.
   const outbox = new OutboxWorker({
@@ -78,6 +111,8 @@ async function main() {
     db,
     mailer,
     mailbox,
+    storage,
+    uploadMaxBytes: env.UPLOAD_MAX_BYTES,
     appUrl,
     sessionSecret: env.SESSION_SECRET,
     production,
@@ -138,6 +173,8 @@ async function main() {
     await outbox.stop();
     mailer.close();
     await mailbox?.close();
+    storage.close();
+    await s3Fake?.close();
     await ds.destroy();
     process.exit(0);
   };

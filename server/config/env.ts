@@ -30,6 +30,23 @@ const envSchema = z.object({
   INBOUND_SMTP_HOST: z.string().default("127.0.0.1"),
   INBOUND_SMTP_PORT: z.coerce.number().int().min(0).max(65535).default(0),
   TRUST_PROXY: z.enum(["0", "1"]).default("0"),
+  /** 1 = start the local S3 fake (s3rver) on loopback, for development only. */
+  S3_FAKE: z.enum(["0", "1"]).default("0"),
+  /** Folder the S3 fake keeps its objects in. */
+  SITECUE_S3_DIR: z.string().optional(),
+  S3_ENDPOINT: z.url().optional(),
+  S3_REGION: z.string().default("eu-west-2"),
+  S3_BUCKET: z.string().min(3).default("sitecue"),
+  S3_ACCESS_KEY_ID: z.string().optional(),
+  S3_SECRET_ACCESS_KEY: z.string().optional(),
+  /** Path-style URLs (bucket in the path): needed by most S3-compatible services and the fake. */
+  S3_FORCE_PATH_STYLE: z.enum(["0", "1"]).default("1"),
+  /** The largest upload accepted, in bytes (25 MB unless set). */
+  UPLOAD_MAX_BYTES: z.coerce
+    .number()
+    .int()
+    .min(1024)
+    .default(25 * 1024 * 1024),
 });
 
 export type Env = z.infer<typeof envSchema>;

@@ -13,6 +13,13 @@ import { AuthToken } from "../modules/auth/auth-tokens.entity";
 import { ProgrammeStarter } from "../modules/starters/starters.entity";
 import { OutboxMessage } from "../infra/outbox/outbox.entity";
 import { CalendarFeed } from "../modules/feeds/feeds.entity";
+import {
+  ThreadAttachment,
+  ThreadMessage,
+  ThreadNotice,
+  ThreadRead,
+} from "../modules/thread/thread.entity";
+import { StoredFile } from "../modules/files/files.entity";
 
 /** Every entity, listed once (the data source and tests use this list). */
 export const entities = [
@@ -32,4 +39,9 @@ export const entities = [
   ProgrammeStarter,
   OutboxMessage,
   CalendarFeed,
+  ThreadMessage,
+  ThreadAttachment,
+  ThreadRead,
+  ThreadNotice,
+  StoredFile,
 ];

@@ -13,6 +13,10 @@ export type ErrorCode =
   | "version-conflict"
   | "conflict"
   | "too-large"
+  | "file-too-large"
+  | "file-type-refused"
+  | "file-missing"
+  | "too-many-files"
   | "rate-limited"
   | "unprocessable"
   | "internal";
@@ -61,27 +65,23 @@ export function errorHandler(log: (err: unknown) => void): ErrorRequestHandler {
   return (err, _req, res, _next) => {
     if (res.headersSent) return;
     if (err instanceof HttpError) {
-      res
-        .status(err.status)
-        .json({
-          error: {
-            code: err.code,
-            message: err.message,
-            ...(err.fields ? { fields: err.fields } : {}),
-          },
-        });
+      res.status(err.status).json({
+        error: {
+          code: err.code,
+          message: err.message,
+          ...(err.fields ? { fields: err.fields } : {}),
+        },
+      });
       return;
     }
     if (err instanceof ZodError) {
-      res
-        .status(400)
-        .json({
-          error: {
-            code: "validation",
-            message: "Some fields need attention.",
-            fields: zodFields(err),
-          },
-        });
+      res.status(400).json({
+        error: {
+          code: "validation",
+          message: "Some fields need attention.",
+          fields: zodFields(err),
+        },
+      });
       return;
     }
     // body-parser / multer errors carry a status and a type.
@@ -92,43 +92,35 @@ export function errorHandler(log: (err: unknown) => void): ErrorRequestHandler {
       message?: string;
     };
     if (e?.type === "entity.too.large" || e?.code === "LIMIT_FILE_SIZE") {
-      res
-        .status(413)
-        .json({
-          error: { code: "too-large", message: "That request is too large." },
-        });
+      res.status(413).json({
+        error: { code: "too-large", message: "That request is too large." },
+      });
       return;
     }
     if (e?.type === "entity.parse.failed") {
-      res
-        .status(400)
-        .json({
-          error: {
-            code: "validation",
-            message: "The request body is not valid JSON.",
-          },
-        });
+      res.status(400).json({
+        error: {
+          code: "validation",
+          message: "The request body is not valid JSON.",
+        },
+      });
       return;
     }
     if (typeof e?.status === "number" && e.status >= 400 && e.status < 500) {
-      res
-        .status(e.status)
-        .json({
-          error: {
-            code: "validation",
-            message: "The request could not be read.",
-          },
-        });
+      res.status(e.status).json({
+        error: {
+          code: "validation",
+          message: "The request could not be read.",
+        },
+      });
       return;
     }
     log(err);
-    res
-      .status(500)
-      .json({
-        error: {
-          code: "internal",
-          message: "Something went wrong on our side. Please try again.",
-        },
-      });
+    res.status(500).json({
+      error: {
+        code: "internal",
+        message: "Something went wrong on our side. Please try again.",
+      },
+    });
   };
 }

@@ -21,10 +21,27 @@ export function openApiDocument(specs: RouteSpec[], version: string) {
         ...(spec.params ? { path: spec.params as z.ZodObject } : {}),
         ...(spec.query ? { query: spec.query as z.ZodObject } : {}),
       },
-      ...(spec.body
+      ...(spec.body || spec.multipart
         ? {
             requestBody: {
-              content: { "application/json": { schema: spec.body } },
+              content: {
+                ...(spec.body
+                  ? { "application/json": { schema: spec.body } }
+                  : {}),
+                // Uploads: one or more binary "file" parts beside the text fields.
+                ...(spec.multipart
+                  ? {
+                      "multipart/form-data": {
+                        schema: spec.multipart.extend({
+                          file: z
+                            .string()
+                            .meta({ format: "binary" })
+                            .describe("the file (repeat the part for several)"),
+                        }),
+                      },
+                    }
+                  : {}),
+              },
             },
           }
         : {}),

@@ -34,6 +34,11 @@ export interface RouteSpec<
   query?: Q;
   body?: B;
   response?: z.ZodType;
+  /**
+   * An upload's text fields, for the OpenAPI document only: the handler authorises first and then
+   * reads the multipart body with `receiveUploads` (server/modules/files), which parses these.
+   */
+  multipart?: z.ZodObject;
   /** Runs before validation (e.g. a rate limiter). */
   before?: RequestHandler[];
   /** Success status; 204 sends no body. */

@@ -12,3 +12,4 @@ export * from "./bookings";
 export * from "./feeds";
 export * from "./drawings";
 export * from "./thread";
+export * from "./files";

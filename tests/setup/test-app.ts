@@ -11,6 +11,11 @@ import {
   startSmtpFake,
   type SmtpFake,
 } from "../../server/infra/mail/smtp-fake";
+import { startS3Fake, type S3Fake } from "../../server/infra/storage/s3-fake";
+import {
+  createStorage,
+  type Storage,
+} from "../../server/infra/storage/storage";
 import { localToday } from "../../server/modules/jobs/jobs.presenter";
 import { DEMO_PASSWORD, loadDemoScenario } from "../factories/demo-scenario";
 import { createTestDatabase, type TestDatabase } from "./test-db";
@@ -23,6 +28,9 @@ export interface TestApp {
   outbox: OutboxWorker;
   /** The inbound SMTP receiver for iTIP REPLYs (booking-<id>@replies.sitecue.example.test). */
   inbound: { port: number; close(): Promise<void> };
+  /** The local S3 fake (s3rver) this app's uploads go to, and the storage client on it. */
+  s3: S3Fake;
+  storage: Storage;
   /** Set when `listen` was asked for: the base URL of a real HTTP server (browser tests). */
   url: string | null;
   close(): Promise<void>;
@@ -33,10 +41,25 @@ export interface TestApp {
  * demo scenario; `listen` serves the built client over real HTTP for the browser.
  */
 export async function startTestApp(
-  opts: { demo?: boolean; listen?: boolean; signInLimit?: number } = {},
+  opts: {
+    demo?: boolean;
+    listen?: boolean;
+    signInLimit?: number;
+    /** The upload size limit (default 25 MB, as in production). */
+    uploadMaxBytes?: number;
+  } = {},
 ): Promise<TestApp> {
   const db = await createTestDatabase();
   const mail = await startSmtpFake();
+  const s3 = await startS3Fake();
+  const storage = createStorage({
+    endpoint: s3.endpoint,
+    region: "eu-west-2",
+    bucket: s3.bucket,
+    accessKeyId: "S3RVER",
+    secretAccessKey: "S3RVER",
+    forcePathStyle: true,
+  });
   const mailer = createMailer({
     host: "127.0.0.1",
     port: mail.port,
@@ -59,6 +82,8 @@ export async function startTestApp(
     db: db.settings,
     mailer,
     mailbox: mail,
+    storage,
+    uploadMaxBytes: opts.uploadMaxBytes,
     appUrl: "http://localhost",
     sessionSecret: process.env.SESSION_SECRET ?? "test-secret-test-secret",
     production: false,
@@ -85,6 +110,8 @@ export async function startTestApp(
     mail,
     outbox,
     inbound,
+    s3,
+    storage,
     url,
     async close() {
       await outbox.stop();
@@ -96,6 +123,8 @@ export async function startTestApp(
       await sitecue.close();
       mailer.close();
       await mail.close();
+      storage.close();
+      await s3.close();
       await db.drop();
     },
   };

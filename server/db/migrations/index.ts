@@ -3,6 +3,8 @@ import { ProgrammeStarters1764720000000 } from "./1764720000000-programme-starte
 import { BookingAnswers1764806400000 } from "./1764806400000-booking-answers";
 import { Outbox1764892800000 } from "./1764892800000-outbox";
 import { CalendarFeeds1764979200000 } from "./1764979200000-calendar-feeds";
+import { Thread1765238400000 } from "./1765238400000-Thread";
+import { StoredFiles1765065600000 } from "./1765065600000-stored-files";
 
 /** Migration classes in order (classes, not a glob, so vitest and tsx load them alike). */
 export const migrations = [
@@ -11,4 +13,6 @@ export const migrations = [
   BookingAnswers1764806400000,
   Outbox1764892800000,
   CalendarFeeds1764979200000,
+  Thread1765238400000,
+  StoredFiles1765065600000,
 ];
