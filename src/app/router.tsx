@@ -13,6 +13,7 @@ import { BookingLinkRoute } from "./routes/booking-link";
 import { HomeRoute } from "./routes/home";
 import { JobRoute } from "./routes/job";
 import { ProgrammeRoute } from "./routes/programme";
+import { DrawingRoute } from "./routes/drawing";
 import { TradesRoute } from "./routes/trades";
 import { MembersRoute } from "./routes/members";
 import { NotFoundRoute } from "./routes/not-found";
@@ -50,6 +51,10 @@ export function createAppRouter() {
             { index: true, element: <HomeRoute /> },
             { path: "jobs/:jobId", element: <JobRoute /> },
             { path: "jobs/:jobId/programme", element: <ProgrammeRoute /> },
+            {
+              path: "jobs/:jobId/drawings/:drawingId",
+              element: <DrawingRoute />,
+            },
             { path: "trades", element: <TradesRoute /> },
             { path: "members", element: <MembersRoute /> },
             // FullCalendar (~80 KB gzip) loads with these routes only.
