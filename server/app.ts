@@ -29,6 +29,7 @@ import { receiveCalendarReply } from "./modules/bookings/calendar-reply";
 import { sendDueReminders } from "./modules/bookings/reminders";
 import type { InboundMail } from "./infra/mail/inbound";
 import { registerDevMailRoutes } from "./modules/mail/mail.router";
+import { registerDrawingRoutes } from "./modules/drawings/drawings.router";
 import { registerTradeRoutes } from "./modules/trades/trades.router";
 import { loadSessionUser } from "./modules/users/users.service";
 import { registerWorkshopRoutes } from "./modules/workshops/workshops.router";
@@ -180,6 +181,7 @@ export function createApp(deps: AppDeps): SitecueApp {
   registerTradeRoutes(api, deps.ds);
   registerCustomerRoutes(api, deps.ds);
   registerFeedRoutes(api, bookingDeps);
+  registerDrawingRoutes(api, { ds: deps.ds, files, appUrl: deps.appUrl });
   if (deps.mailbox) registerDevMailRoutes(api, deps.mailbox);
   api.add({
     method: "get",

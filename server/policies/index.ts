@@ -7,7 +7,12 @@
 //   customer – their own job(s)
 // Visibility decides 404 versus 403: a record the person cannot see at all is "not found" (its
 // existence is not revealed); one they can see but may not change is "forbidden".
-import type { MemberRole } from "../../shared/schemas";
+import {
+  tradeUploadKinds,
+  type DrawingKind,
+  type MemberRole,
+  type TradeKind,
+} from "../../shared/schemas";
 import { forbidden, notFound, unauthenticated } from "../http/errors";
 
 /** Who is asking, resolved once per request from the signed-in user. */
@@ -42,6 +47,37 @@ export interface TradeResource {
   tradeId: string;
 }
 
+/**
+ * A drawing, template or site photo on a job, with whom it is shared. The workshop sees every
+ * one; a trade only while on the job (an active booking) and when it is shared with their kind or
+ * with them by name, or they made it; the customer only when it is shared with the customer.
+ */
+export interface DrawingResource {
+  kind: "drawing";
+  workshopId: string;
+  job: JobResource;
+  /** The kind of each trade with an active booking on the job. */
+  tradeKinds: ReadonlyMap<string, TradeKind>;
+  sharedTradeKinds: ReadonlySet<TradeKind>;
+  sharedTradeIds: ReadonlySet<string>;
+  sharedWithCustomer: boolean;
+  /** The trade who uploaded it, when a trade did. */
+  createdByTradeId: string | null;
+}
+
+/**
+ * What someone is about to upload to a job, once its fields are read: the kind and, for each
+ * task it is for, the trades whose active booking holds that task. The workshop may upload any
+ * kind to any task; a trade on the job only a template or site photo, only to their own tasks.
+ */
+export interface DrawingUploadResource {
+  kind: "drawingUpload";
+  workshopId: string;
+  job: JobResource;
+  drawingKind: DrawingKind;
+  taskTradeIds: ReadonlyArray<ReadonlySet<string>>;
+}
+
 /** A person's own data (their feed, their days off): theirs alone. */
 export interface PersonResource {
   kind: "person";
@@ -71,9 +107,23 @@ export type Action =
   | "job.readFull"
   | "job.readAddress"
   | "job.update"
-  | "job.delete";
+  | "job.delete"
+  // Drawings, templates and site photos (see DrawingResource for who sees which).
+  | "drawings.list"
+  | "drawings.upload"
+  | "drawings.uploadTo"
+  | "drawing.read"
+  | "drawing.update"
+  | "drawing.addRevision"
+  | "drawing.delete";
 
-type Resource = WorkshopResource | JobResource | TradeResource | PersonResource;
+type Resource =
+  | WorkshopResource
+  | JobResource
+  | TradeResource
+  | PersonResource
+  | DrawingResource
+  | DrawingUploadResource;
 
 const roleIn = (actor: Actor, workshopId: string, ...roles: MemberRole[]) => {
   const role = actor.memberships.get(workshopId);
@@ -113,7 +163,43 @@ export function canSee(actor: Actor, resource: Resource): boolean {
       );
     case "person":
       return actor.userId === resource.userId;
+    case "drawing":
+      return canSeeDrawing(actor, resource);
+    case "drawingUpload":
+      return canSee(actor, resource.job);
   }
+}
+
+const actorTradesIn = (actor: Actor, workshopId: string) =>
+  [...actor.trades.entries()]
+    .filter(([, ws]) => ws === workshopId)
+    .map(([tradeId]) => tradeId);
+
+function canSeeDrawing(actor: Actor, d: DrawingResource): boolean {
+  if (isMember(actor, d.workshopId)) return true;
+  if (customerOfJob(actor, d.job) && d.sharedWithCustomer) return true;
+  return actorTradesIn(actor, d.workshopId).some((tradeId) => {
+    if (!d.job.activeTradeIds.has(tradeId)) return false;
+    const kind = d.tradeKinds.get(tradeId);
+    return (
+      d.sharedTradeIds.has(tradeId) ||
+      d.createdByTradeId === tradeId ||
+      (kind !== undefined && d.sharedTradeKinds.has(kind))
+    );
+  });
+}
+
+/** A trade on the job uploading a kind a trade may upload, to tasks all booked to them. */
+function tradeMayUpload(actor: Actor, u: DrawingUploadResource): boolean {
+  if (!(tradeUploadKinds as readonly DrawingKind[]).includes(u.drawingKind))
+    return false;
+  const mine = actorTradesIn(actor, u.workshopId).filter((id) =>
+    u.job.activeTradeIds.has(id),
+  );
+  return (
+    u.taskTradeIds.length > 0 &&
+    u.taskTradeIds.every((booked) => mine.some((id) => booked.has(id)))
+  );
 }
 
 /** Own-data rules: any signed-in person for their own feed; days off only for someone who speaks for a trade. */
@@ -169,6 +255,34 @@ export function can(actor: Actor, action: Action, resource: Resource): boolean {
         customerOfJob(actor, resource) ||
         tradeOnJob(actor, resource, resource.confirmedTradeIds)
       );
+    // Drawings: anyone who sees the job sees its list (filtered drawing by drawing); the workshop
+    // and the trades on the job may upload (what and where: drawings.uploadTo); customers never.
+    case "drawings.list":
+      return resource.kind === "job" && canSee(actor, resource);
+    case "drawings.upload":
+      if (resource.kind !== "job") return false;
+      return (
+        isMember(actor, ws) ||
+        tradeOnJob(actor, resource, resource.activeTradeIds)
+      );
+    case "drawings.uploadTo":
+      if (resource.kind !== "drawingUpload") return false;
+      return isMember(actor, ws) || tradeMayUpload(actor, resource);
+    case "drawing.read":
+      return resource.kind === "drawing" && canSeeDrawing(actor, resource);
+    case "drawing.update":
+      return resource.kind === "drawing" && isMember(actor, ws);
+    // The workshop adds revisions to anything; a trade to what they made (still on the job).
+    case "drawing.addRevision":
+      if (resource.kind !== "drawing") return false;
+      return (
+        isMember(actor, ws) ||
+        (resource.createdByTradeId !== null &&
+          actor.trades.get(resource.createdByTradeId) === ws &&
+          resource.job.activeTradeIds.has(resource.createdByTradeId))
+      );
+    case "drawing.delete":
+      return resource.kind === "drawing" && roleIn(actor, ws, "owner");
   }
 }
 

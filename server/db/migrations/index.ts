@@ -5,6 +5,7 @@ import { Outbox1764892800000 } from "./1764892800000-outbox";
 import { CalendarFeeds1764979200000 } from "./1764979200000-calendar-feeds";
 import { Thread1765238400000 } from "./1765238400000-Thread";
 import { StoredFiles1765065600000 } from "./1765065600000-stored-files";
+import { Drawings1765152000000 } from "./1765152000000-Drawings";
 
 /** Migration classes in order (classes, not a glob, so vitest and tsx load them alike). */
 export const migrations = [
@@ -15,4 +16,5 @@ export const migrations = [
   CalendarFeeds1764979200000,
   Thread1765238400000,
   StoredFiles1765065600000,
+  Drawings1765152000000,
 ];
