@@ -20,6 +20,11 @@ import {
   ThreadRead,
 } from "../modules/thread/thread.entity";
 import { StoredFile } from "../modules/files/files.entity";
+import {
+  Drawing,
+  DrawingRevision,
+  DrawingTask,
+} from "../modules/drawings/drawings.entity";
 
 /** Every entity, listed once (the data source and tests use this list). */
 export const entities = [
@@ -44,4 +49,7 @@ export const entities = [
   ThreadRead,
   ThreadNotice,
   StoredFile,
+  Drawing,
+  DrawingRevision,
+  DrawingTask,
 ];
