@@ -1,5 +1,6 @@
 import { useQueryClient } from "@tanstack/react-query";
 import {
+  useCallback,
   useEffect,
   useLayoutEffect,
   useRef,
@@ -33,11 +34,10 @@ function subscribeVisibility(onChange: () => void) {
 }
 const pageVisible = () => document.visibilityState === "visible";
 
-/** True while at least a part of the element is inside the viewport. */
-function useOnScreen(ref: React.RefObject<HTMLElement | null>, ready: boolean) {
+/** True while at least a quarter of the element is inside the viewport. */
+function useOnScreen(el: HTMLElement | null): boolean {
   const [onScreen, setOnScreen] = useState(false);
   useEffect(() => {
-    const el = ref.current;
     if (!el) return;
     const io = new IntersectionObserver(
       ([entry]) => setOnScreen(entry.isIntersecting),
@@ -45,8 +45,8 @@ function useOnScreen(ref: React.RefObject<HTMLElement | null>, ready: boolean) {
     );
     io.observe(el);
     return () => io.disconnect();
-  }, [ref, ready]);
-  return onScreen;
+  }, [el]);
+  return el !== null && onScreen;
 }
 
 function UnreadBadge({ count }: { count: number }) {
@@ -80,13 +80,19 @@ export function JobThread({ jobId }: { jobId: string }) {
   // Where the "New" divider sits: the first unread message when the thread was opened (or the
   // first to arrive unread later). It stays put after reading, so the person keeps their place.
   const [dividerSeq, setDividerSeq] = useState<number | null>(null);
-  const scroller = useRef<HTMLDivElement>(null);
+  const scroller = useRef<HTMLDivElement | null>(null);
+  // The list's box appears with the first message, so it is observed through state, not a ref.
+  const [scrollEl, setScrollEl] = useState<HTMLDivElement | null>(null);
+  const scrollRef = useCallback((el: HTMLDivElement | null) => {
+    scroller.current = el;
+    setScrollEl(el);
+  }, []);
   const atBottom = useRef(true);
   const scrolledOnce = useRef(false);
   const markedUpTo = useRef(-1);
 
   const data = thread.data;
-  const onScreen = useOnScreen(scroller, !!data);
+  const onScreen = useOnScreen(scrollEl);
   const visible = useSyncExternalStore(
     subscribeVisibility,
     pageVisible,
@@ -200,7 +206,7 @@ export function JobThread({ jobId }: { jobId: string }) {
           </EmptyState>
         ) : (
           <div
-            ref={scroller}
+            ref={scrollRef}
             onScroll={onScroll}
             // Scrollable, so it takes the keyboard focus (arrow keys scroll it).
             tabIndex={0}

@@ -1,0 +1,395 @@
+// The job thread in the browser (issue 7): the owner posts a "Trades & workshop" and a "Workshop
+// only" message; the plasterer, already on the job page on a 375 px phone, gets the first by
+// polling (no reload) and never the second, and may not post "Workshop only"; the unread badge
+// counts and clears once the thread has been on screen; text is text ("<b>" stays four
+// characters) with safe links; a photo goes up with progress and shows as a thumbnail; a refused
+// file keeps what was typed; the customer sees only "Whole job". Chromium against the built
+// client (production CSP), axe-core on each role's page.
+import fs from "node:fs";
+import path from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Browser, Locator, Page } from "playwright-core";
+import type { ThreadResponse } from "../../shared/schemas";
+import { threadAudienceLabels } from "../../shared/schemas";
+import { startTestApp, type TestApp } from "../setup/test-app";
+import { samplePng, sampleElf } from "../setup/uploads";
+import {
+  demoAccounts,
+  demoJobTitles,
+  DEMO_PASSWORD,
+} from "../factories/demo-scenario";
+import {
+  desktop,
+  launchBrowser,
+  phone,
+  screensDir,
+  shot,
+  visible,
+  watchConsole,
+} from "./browser";
+
+let t: TestApp;
+let browser: Browser;
+
+beforeAll(async () => {
+  t = await startTestApp({ demo: true, listen: true });
+  browser = await launchBrowser();
+}, 120_000);
+afterAll(async () => {
+  await browser?.close();
+  await t?.close();
+});
+
+const jobTitle = demoJobTitles.alcoves;
+const workshopOnly =
+  "Price the extra length of coving before we tell anyone else.";
+const tradesText =
+  "Coving template first thing Thursday; profile at https://example.test/coving/ogee-90. Note <b>bold</b> is only text.";
+const tradesLink = "https://example.test/coving/ogee-90";
+const wholeJob = "The dust sheets stay down until the decorator has been.";
+
+async function signInAs(
+  email: string,
+  viewport = desktop,
+): Promise<{ page: Page; problems: string[] }> {
+  const context = await browser.newContext({ viewport });
+  const page = await context.newPage();
+  const problems = watchConsole(page);
+  await page.goto(`${t.url}/sign-in`);
+  await page.getByLabel("E-mail").fill(email);
+  await page.getByLabel("Password").fill(DEMO_PASSWORD);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"));
+  return { page, problems };
+}
+
+async function openJob(page: Page): Promise<string> {
+  await page.getByRole("link", { name: jobTitle }).first().click();
+  await visible(page.getByRole("heading", { name: jobTitle, level: 1 }));
+  await visible(thread(page).getByRole("form", { name: "New message" }));
+  return new URL(page.url()).pathname.split("/")[2];
+}
+
+const thread = (page: Page): Locator => page.locator("#job-thread");
+const messages = (page: Page): Locator =>
+  thread(page).getByRole("region", { name: "Messages" });
+const badge = (page: Page): Locator =>
+  thread(page).getByTestId("thread-unread");
+
+/** The whole page, and the thread section on its own (easier to look at). */
+async function shots(page: Page, name: string): Promise<void> {
+  await shot(page, name);
+  await thread(page).screenshot({
+    path: path.join(screensDir, `${name}-section.png`),
+  });
+}
+
+/** The thread as the API gives it to the page's own session (a GET never marks anything read). */
+async function apiThread(page: Page, jobId: string): Promise<ThreadResponse> {
+  return page.evaluate(async (url) => {
+    const r = await fetch(url, { headers: { Accept: "application/json" } });
+    return r.json();
+  }, `/api/jobs/${jobId}/thread`) as Promise<ThreadResponse>;
+}
+
+async function post(
+  page: Page,
+  audienceLabel: string,
+  text: string,
+  how: "click" | "keys",
+): Promise<void> {
+  const form = thread(page).getByRole("form", { name: "New message" });
+  await form.getByLabel("Who sees it").selectOption({ label: audienceLabel });
+  await form.getByLabel("Message").fill(text);
+  if (how === "keys") await form.getByLabel("Message").press("Control+Enter");
+  else await form.getByRole("button", { name: "Send" }).click();
+  // Sent: the composer is cleared and the message is in the list.
+  await visible(messages(page).getByText(text, { exact: true }));
+  expect(await form.getByLabel("Message").inputValue()).toBe("");
+}
+
+/** axe-core's serious and critical findings, on the whole page or inside `selector`. */
+async function axeSeriousOrWorse(page: Page, selector?: string) {
+  // The production CSP (script-src 'self') refuses an injected <script> (addScriptTag), so
+  // axe is evaluated through the DevTools protocol instead, with the page's CSP left on.
+  await page.evaluate(
+    fs.readFileSync(
+      path.resolve(
+        import.meta.dirname,
+        "../../node_modules/axe-core/axe.min.js",
+      ),
+      "utf8",
+    ),
+  );
+  const result = await page.evaluate(async (include) => {
+    const axe = (
+      window as unknown as {
+        axe: {
+          run: (context?: unknown) => Promise<{
+            violations: {
+              id: string;
+              impact: string | null;
+              help: string;
+              nodes: { target: string[] }[];
+            }[];
+          }>;
+        };
+      }
+    ).axe;
+    return axe.run(include ? { include: [include] } : undefined);
+  }, selector ?? null);
+  return result.violations
+    .filter((v) => v.impact === "serious" || v.impact === "critical")
+    .map(
+      (v) =>
+        `${v.id} (${v.impact}): ${v.help} — ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`,
+    );
+}
+
+describe("the job thread", () => {
+  let jobId = "";
+  let owner: { page: Page; problems: string[] };
+  let trade: { page: Page; problems: string[] };
+  const polls: string[] = [];
+  let unreadBefore = 0;
+
+  it("the plasterer has the job open on a phone, the thread below the fold", async () => {
+    trade = await signInAs(demoAccounts.trade.email, phone);
+    jobId = await openJob(trade.page);
+    trade.page.on("request", (r) => {
+      if (r.url().includes(`/api/jobs/${jobId}/thread?`)) polls.push(r.url());
+    });
+    // Marks this document: a reload or navigation would lose it.
+    await trade.page.evaluate(() => {
+      (window as unknown as { sameDocument: boolean }).sameDocument = true;
+    });
+    // The premise of the unread check below: the thread is not on screen yet.
+    const box = await messages(trade.page)
+      .or(thread(trade.page).getByText("No messages yet"))
+      .boundingBox();
+    expect(box!.y).toBeGreaterThan(phone.height);
+    const api = await apiThread(trade.page, jobId);
+    unreadBefore = api.unreadCount;
+    expect(api.visibleAudiences).not.toContain("workshop");
+    if (unreadBefore > 0)
+      await expect
+        .poll(() => badge(trade.page).textContent(), { timeout: 10_000 })
+        .toBe(`${unreadBefore} unread`);
+  });
+
+  it("the owner posts a Workshop only and then a Trades & workshop message", async () => {
+    owner = await signInAs(demoAccounts.owner.email);
+    expect(await openJob(owner.page)).toBe(jobId);
+    const select = thread(owner.page).getByLabel("Who sees it");
+    expect(await select.locator("option").allTextContents()).toEqual([
+      threadAudienceLabels.job,
+      threadAudienceLabels.trades,
+      threadAudienceLabels.workshop,
+    ]);
+    await post(owner.page, "Workshop only", workshopOnly, "keys");
+    await post(owner.page, "Trades & workshop", tradesText, "click");
+    await visible(
+      messages(owner.page)
+        .getByRole("listitem")
+        .filter({ hasText: workshopOnly })
+        .getByText("Workshop only"),
+    );
+    await visible(
+      messages(owner.page)
+        .getByRole("listitem")
+        .filter({ hasText: "Coving template first thing" })
+        .getByText(`${demoAccounts.owner.name} · Workshop`),
+    );
+    await shots(owner.page, "thread-owner-desktop");
+  });
+
+  it("the plasterer gets the trades message by polling, never the workshop one", async () => {
+    const page = trade.page;
+    const arrived = messages(page).getByText("Coving template first thing");
+    await arrived.waitFor({ state: "visible", timeout: 15_000 });
+    expect(
+      await page.evaluate(
+        () => (window as unknown as { sameDocument?: boolean }).sameDocument,
+      ),
+    ).toBe(true);
+    // It came with the cursor: a poll asked only for what is after the last position seen.
+    expect(polls.some((u) => /[?&]after=\d+/.test(u))).toBe(true);
+    // Posted before the trades message, so it would have come with it if it could.
+    expect(await thread(page).getByText(workshopOnly).count()).toBe(0);
+
+    // Text is text: the literal tag, no <b> element; the URL is a safe link, its full stop left out.
+    await visible(
+      thread(page).getByText("Note <b>bold</b> is only text.", {
+        exact: false,
+      }),
+    );
+    expect(await thread(page).locator("b").count()).toBe(0);
+    const link = thread(page).getByRole("link", { name: tradesLink });
+    expect(await link.getAttribute("href")).toBe(tradesLink);
+    expect(await link.getAttribute("rel")).toBe("noopener noreferrer");
+    expect(await link.getAttribute("target")).toBe("_blank");
+
+    // The badge counts it (the workshop-only one is not theirs to count).
+    await expect
+      .poll(() => badge(page).textContent(), { timeout: 10_000 })
+      .toBe(`${unreadBefore + 1} unread`);
+    const api = await apiThread(page, jobId);
+    expect(api.unreadCount).toBe(unreadBefore + 1);
+    const firstUnread = api.messages.find((m) => m.unread)!;
+
+    // Their composer offers what the server allows them, and never "Workshop only".
+    const options = await thread(page)
+      .getByLabel("Who sees it")
+      .locator("option")
+      .allTextContents();
+    expect(options).toEqual(api.audiences.map((a) => threadAudienceLabels[a]));
+    expect(options).not.toContain("Workshop only");
+    expect(options).toContain("Trades & workshop");
+    await shots(page, "thread-trade-unread-phone");
+
+    // On screen for a moment: read. The "New" divider sits on the first unread message.
+    await messages(page).scrollIntoViewIfNeeded();
+    const divided = messages(page)
+      .getByRole("listitem")
+      .filter({ has: page.getByText("New", { exact: true }) });
+    await visible(divided);
+    expect(await divided.textContent()).toContain(
+      firstUnread.text.slice(0, 30),
+    );
+    await badge(page).waitFor({ state: "detached", timeout: 10_000 });
+    expect((await apiThread(page, jobId)).unreadCount).toBe(0);
+    await shots(page, "thread-trade-read-phone");
+    expect(await axeSeriousOrWorse(page)).toEqual([]);
+  });
+
+  it("a refused file keeps what the plasterer typed; a photo goes up and shows as a thumbnail", async () => {
+    const page = trade.page;
+    const form = thread(page).getByRole("form", { name: "New message" });
+    const typed = "Template photo to follow, and my notes.";
+    await form.getByLabel("Who sees it").selectOption({ label: "Whole job" });
+    await form.getByLabel("Message").fill(typed);
+    // Named .pdf, so it passes the browser's first check; the server reads the bytes.
+    await form.getByTestId("thread-file-input").setInputFiles({
+      name: "notes.pdf",
+      mimeType: "application/pdf",
+      buffer: sampleElf(),
+    });
+    await visible(form.getByText("notes.pdf"));
+    await form.getByRole("button", { name: "Send" }).click();
+    const refusal = form.getByRole("alert");
+    await visible(refusal);
+    expect(await refusal.textContent()).toMatch(
+      /^notes\.pdf is not a PDF: its content is an ELF executable/,
+    );
+    expect(await form.getByLabel("Message").inputValue()).toBe(typed);
+    expect(await form.getByLabel("Who sees it").inputValue()).toBe("job");
+    await shots(page, "thread-trade-refused-phone");
+
+    await form.getByRole("button", { name: "Remove notes.pdf" }).click();
+    await form.getByLabel("Who sees it").selectOption({
+      label: "Trades & workshop",
+    });
+    await form.getByLabel("Message").fill("Template photo from site.");
+    await form.getByTestId("thread-file-input").setInputFiles({
+      name: "coving-template.png",
+      mimeType: "image/png",
+      buffer: await samplePng(800, 500),
+    });
+    await form.getByRole("button", { name: "Send" }).click();
+    const mine = messages(page)
+      .getByRole("listitem")
+      .filter({ hasText: "Template photo from site." });
+    await visible(mine.getByRole("img", { name: "coving-template.png" }));
+    expect(await form.getByRole("alert").count()).toBe(0);
+    expect(await form.getByLabel("Message").inputValue()).toBe("");
+    expect(trade.problems.filter((p) => !/status of 415/.test(p))).toEqual([]);
+
+    // The owner's page gets it by polling too, thumbnail loaded through the attachment route.
+    const theirs = messages(owner.page)
+      .getByRole("listitem")
+      .filter({ hasText: "Template photo from site." });
+    await theirs.waitFor({ state: "visible", timeout: 15_000 });
+    await visible(theirs.getByText("Dev Ashby · Ashby Plaster & Coving"));
+    const img = theirs.getByRole("img", { name: "coving-template.png" });
+    await expect
+      .poll(
+        () =>
+          img.evaluate(
+            (el) =>
+              (el as HTMLImageElement).complete &&
+              (el as HTMLImageElement).naturalWidth,
+          ),
+        { timeout: 10_000 },
+      )
+      .toBeGreaterThan(0);
+    const src = await img.getAttribute("src");
+    expect(src).toMatch(
+      new RegExp(
+        `^/api/jobs/${jobId}/thread/attachments/[0-9a-f-]{36}\\?variant=thumbnail$`,
+      ),
+    );
+  });
+
+  it("the owner filters by audience and posts to the whole job", async () => {
+    const page = owner.page;
+    const filters = thread(page).getByRole("group", {
+      name: "Show messages for",
+    });
+    await filters.getByRole("button", { name: "Workshop only" }).click();
+    await visible(messages(page).getByText(workshopOnly));
+    expect(
+      await messages(page).getByText("Coving template first thing").count(),
+    ).toBe(0);
+    await shots(page, "thread-owner-filter-desktop");
+    await filters.getByRole("button", { name: "All" }).click();
+    await visible(messages(page).getByText("Coving template first thing"));
+    await post(page, "Whole job", wholeJob, "keys");
+    // The thread only: the workshop's job page also carries the calendar and the bookings,
+    // whose own findings are theirs to answer (the phone pages below are checked whole).
+    expect(await axeSeriousOrWorse(page, "#job-thread")).toEqual([]);
+    expect(owner.problems).toEqual([]);
+  });
+
+  it("the customer sees the whole-job message only and posts to the whole job", async () => {
+    const { page, problems } = await signInAs(
+      demoAccounts.customer.email,
+      phone,
+    );
+    expect(await openJob(page)).toBe(jobId);
+    await visible(messages(page).getByText(wholeJob));
+    expect(await thread(page).getByText(workshopOnly).count()).toBe(0);
+    expect(
+      await thread(page).getByText("Coving template first thing").count(),
+    ).toBe(0);
+    expect(
+      await thread(page).getByText("Template photo from site.").count(),
+    ).toBe(0);
+    // One audience: no filter and no choice, just who will read it.
+    expect(
+      await thread(page)
+        .getByRole("group", { name: "Show messages for" })
+        .count(),
+    ).toBe(0);
+    expect(await thread(page).getByLabel("Who sees it").count()).toBe(0);
+    await visible(thread(page).getByText("To: Whole job."));
+    const api = await apiThread(page, jobId);
+    expect(api.audiences).toEqual(["job"]);
+    expect(api.messages.every((m) => m.audience === "job")).toBe(true);
+
+    await messages(page).scrollIntoViewIfNeeded();
+    const form = thread(page).getByRole("form", { name: "New message" });
+    await form
+      .getByLabel("Message")
+      .fill("Thank you, the cat will be upstairs.");
+    await form.getByRole("button", { name: "Send" }).click();
+    await visible(
+      messages(page)
+        .getByRole("listitem")
+        .filter({ hasText: "the cat will be upstairs" })
+        .getByText(`${demoAccounts.customer.name} · Customer`),
+    );
+    await shots(page, "thread-customer-phone");
+    expect(await axeSeriousOrWorse(page)).toEqual([]);
+    expect(problems).toEqual([]);
+  });
+});
