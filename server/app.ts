@@ -31,6 +31,11 @@ import type { InboundMail } from "./infra/mail/inbound";
 import { registerDevMailRoutes } from "./modules/mail/mail.router";
 import { registerDrawingRoutes } from "./modules/drawings/drawings.router";
 import { registerTradeRoutes } from "./modules/trades/trades.router";
+import { registerThreadRoutes } from "./modules/thread/thread.router";
+import {
+  DEFAULT_NOTICE_DELAY_MS,
+  sendThreadNotices,
+} from "./modules/thread/thread.service";
 import { loadSessionUser } from "./modules/users/users.service";
 import { registerWorkshopRoutes } from "./modules/workshops/workshops.router";
 
@@ -55,6 +60,8 @@ export interface AppDeps {
   /** Domain of per-booking reply addresses (iTIP REPLYs come back to booking-<id>@this). */
   replyDomain?: string;
   signInWindowMs?: number;
+  /** How long thread messages gather before one notice e-mail per person (default 5 minutes). */
+  threadNoticeDelayMs?: number;
   trustProxy?: boolean;
   version?: string;
 }
@@ -66,6 +73,8 @@ export interface SitecueApp {
   receiveMail(mail: InboundMail): Promise<void>;
   /** Sends the day-before reminders that are due. */
   sendReminders(now?: Date): Promise<number>;
+  /** Sends the thread notice e-mails that are due (one per person per job, batched). */
+  sendThreadNotices(now?: Date): Promise<number>;
   close(): Promise<void>;
 }
 
@@ -181,6 +190,13 @@ export function createApp(deps: AppDeps): SitecueApp {
   registerTradeRoutes(api, deps.ds);
   registerCustomerRoutes(api, deps.ds);
   registerFeedRoutes(api, bookingDeps);
+  const threadDeps = {
+    ds: deps.ds,
+    appUrl: deps.appUrl,
+    files,
+    noticeDelayMs: deps.threadNoticeDelayMs ?? DEFAULT_NOTICE_DELAY_MS,
+  };
+  registerThreadRoutes(api, threadDeps);
   registerDrawingRoutes(api, { ds: deps.ds, files, appUrl: deps.appUrl });
   if (deps.mailbox) registerDevMailRoutes(api, deps.mailbox);
   api.add({
@@ -221,6 +237,7 @@ export function createApp(deps: AppDeps): SitecueApp {
     routes: api,
     receiveMail: (mail) => receiveCalendarReply(bookingDeps, deps.ds, mail),
     sendReminders: (now) => sendDueReminders(bookingDeps, now),
+    sendThreadNotices: (now) => sendThreadNotices(threadDeps, now),
     close: () => store.close(),
   };
 }

@@ -8,10 +8,12 @@
 // Visibility decides 404 versus 403: a record the person cannot see at all is "not found" (its
 // existence is not revealed); one they can see but may not change is "forbidden".
 import {
+  threadAudiences,
   tradeUploadKinds,
   type DrawingKind,
   type MemberRole,
   type TradeKind,
+  type ThreadAudience,
 } from "../../shared/schemas";
 import { forbidden, notFound, unauthenticated } from "../http/errors";
 
@@ -115,7 +117,11 @@ export type Action =
   | "drawing.read"
   | "drawing.update"
   | "drawing.addRevision"
-  | "drawing.delete";
+  | "drawing.delete"
+  // The job thread: one action per audience, each meaning "see and post there".
+  | "thread.audience.job"
+  | "thread.audience.trades"
+  | "thread.audience.workshop";
 
 type Resource =
   | WorkshopResource
@@ -283,7 +289,32 @@ export function can(actor: Actor, action: Action, resource: Resource): boolean {
       );
     case "drawing.delete":
       return resource.kind === "drawing" && roleIn(actor, ws, "owner");
+    // Thread audiences: "Whole job" is the workshop, the trades on the job and the customer;
+    // "Trades & workshop" leaves the customer out; "Workshop only" is owners and fitters.
+    case "thread.audience.job":
+      if (resource.kind !== "job") return false;
+      return (
+        isMember(actor, ws) ||
+        tradeOnJob(actor, resource, resource.activeTradeIds) ||
+        customerOfJob(actor, resource)
+      );
+    case "thread.audience.trades":
+      if (resource.kind !== "job") return false;
+      return (
+        isMember(actor, ws) ||
+        tradeOnJob(actor, resource, resource.activeTradeIds)
+      );
+    case "thread.audience.workshop":
+      return resource.kind === "job" && isMember(actor, ws);
   }
+}
+
+/** The thread audiences this person sees on the job, and may post to (the same set), widest first. */
+export function threadAudiencesFor(
+  actor: Actor,
+  job: JobResource,
+): ThreadAudience[] {
+  return threadAudiences.filter((a) => can(actor, `thread.audience.${a}`, job));
 }
 
 /** Throws 401 without an actor, 404 when the resource is invisible to them, 403 when the action is not allowed. */

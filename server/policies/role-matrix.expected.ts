@@ -178,6 +178,57 @@ export const expected: Record<string, Row> = {
   "GET /workshops/:workshopId/customers": staff(200),
   "POST /workshops/:workshopId/customers": staff(201),
 
+  // The job thread: whoever sees the job reads it; the request posts to "Trades & workshop", which
+  // the customer sees the job but may not use (403). The file is on such a message, so the
+  // customer cannot see it at all (404).
+  "GET /jobs/:jobId/thread": {
+    owner: 200,
+    fitter: 200,
+    tradeOn: 200,
+    tradeOff: 404,
+    customer: 200,
+    other: 404,
+    anon: 401,
+  },
+  "POST /jobs/:jobId/thread/messages": {
+    owner: 201,
+    fitter: 201,
+    tradeOn: 201,
+    tradeOff: 404,
+    customer: 403,
+    other: 404,
+    anon: 401,
+  },
+  "POST /jobs/:jobId/thread/messages/upload": {
+    owner: 201,
+    fitter: 201,
+    tradeOn: 201,
+    tradeOff: 404,
+    customer: 403,
+    other: 404,
+    anon: 401,
+  },
+  "GET /jobs/:jobId/thread/attachments/:fileId": {
+    owner: 200,
+    fitter: 200,
+    tradeOn: 200,
+    tradeOff: 404,
+    customer: 404,
+    other: 404,
+    anon: 401,
+  },
+  "POST /jobs/:jobId/thread/read": {
+    owner: 200,
+    fitter: 200,
+    tradeOn: 200,
+    tradeOff: 404,
+    customer: 200,
+    other: 404,
+    anon: 401,
+  },
+  // Own unread counts, over the jobs each person sees.
+  "GET /thread/unread": signedIn(200),
+
   // Own data: everyone signed in has their own calendar feed (the brief: a customer subscribes to one).
   "GET /me/feed": signedIn(200),
   "POST /me/feed": signedIn(201),

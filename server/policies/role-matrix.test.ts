@@ -28,6 +28,7 @@ import { Workshop } from "../modules/workshops/workshops.entity";
 import { ProgrammeStarter } from "../modules/starters/starters.entity";
 import { issueFeed } from "../modules/feeds/feeds.service";
 import { User } from "../modules/users/users.entity";
+import { samplePng } from "../../tests/setup/uploads";
 import { expected, roles, type MatrixRole } from "./role-matrix.expected";
 
 let t: TestApp;
@@ -178,285 +179,331 @@ async function linkedBooking(): Promise<{ bookingId: string; token: string }> {
 
 const unique = () => randomBytes(4).toString("hex");
 
+/** A fresh job with a site photo on a "Trades & workshop" thread message (posted by the owner). */
+async function threadAttachment(): Promise<{ jobId: string; fileId: string }> {
+  const jobId = await freshJob();
+  const owner = await signIn(t, emails.owner);
+  const res = await owner.agent
+    .post(`/api/jobs/${jobId}/thread/messages/upload`)
+    .set("X-CSRF-Token", owner.csrf)
+    .field("audience", "trades")
+    .attach("file", await samplePng(40, 30), "site.png")
+    .expect(201);
+  return { jobId, fileId: res.body.attachments[0].id };
+}
+
 /** One concrete request per route: path, and a valid body for changes. */
-const requests: Record<string, () => Promise<{ path: string; body?: object }>> =
-  {
-    "GET /health": async () => ({ path: "/api/health" }),
-    "GET /openapi.json": async () => ({ path: "/api/openapi.json" }),
-    "GET /dev/mail": async () => ({ path: "/api/dev/mail" }),
-    "GET /auth/session": async () => ({ path: "/api/auth/session" }),
-    "POST /auth/sign-in": async () => ({
-      path: "/api/auth/sign-in",
-      body: { email: "nobody@example.test", password: "wrong-password" },
-    }),
-    "POST /auth/sign-out": async () => ({ path: "/api/auth/sign-out" }),
-    "POST /auth/password-reset": async () => ({
-      path: "/api/auth/password-reset",
-      body: { email: "nobody@example.test" },
-    }),
-    "GET /auth/tokens/:token": async () => ({
-      path: `/api/auth/tokens/${randomBytes(32).toString("base64url")}`,
-    }),
-    "POST /auth/set-password": async () => ({
-      path: "/api/auth/set-password",
-      body: {
-        token: randomBytes(32).toString("base64url"),
-        password: "a-long-enough-password",
-      },
-    }),
-    "GET /jobs": async () => ({ path: "/api/jobs" }),
-    "GET /jobs/:jobId": async () => ({ path: `/api/jobs/${ids.jobId}` }),
-    "POST /workshops/:workshopId/jobs": async () => ({
-      path: `/api/workshops/${ids.workshopId}/jobs`,
-      body: {
-        title: "New alcove pair",
-        customerId: ids.rosaId,
-        siteAddress: "2 Example Row, Wetherfold",
-        postcode: "QX1 2AB",
-        area: "Wetherfold",
-        holidayRegion: "GB-ENG",
-      },
-    }),
-    "PATCH /jobs/:jobId": async () => ({
-      path: `/api/jobs/${await freshJob()}`,
-      body: { version: 1, title: "Renamed" },
-    }),
-    "DELETE /jobs/:jobId": async () => ({
-      path: `/api/jobs/${await freshJob()}`,
-    }),
-    "GET /jobs/:jobId/programme": async () => ({
-      path: `/api/jobs/${await freshJob()}/programme`,
-    }),
-    "POST /jobs/:jobId/tasks": async () => ({
-      path: `/api/jobs/${await freshJob()}/tasks`,
+const requests: Record<
+  string,
+  () => Promise<{
+    path: string;
+    body?: object;
+    /** A multipart body instead: text fields and `file` parts. */
+    multipart?: {
+      fields: Record<string, string>;
+      files: { name: string; body: Buffer }[];
+    };
+  }>
+> = {
+  "GET /health": async () => ({ path: "/api/health" }),
+  "GET /openapi.json": async () => ({ path: "/api/openapi.json" }),
+  "GET /dev/mail": async () => ({ path: "/api/dev/mail" }),
+  "GET /auth/session": async () => ({ path: "/api/auth/session" }),
+  "POST /auth/sign-in": async () => ({
+    path: "/api/auth/sign-in",
+    body: { email: "nobody@example.test", password: "wrong-password" },
+  }),
+  "POST /auth/sign-out": async () => ({ path: "/api/auth/sign-out" }),
+  "POST /auth/password-reset": async () => ({
+    path: "/api/auth/password-reset",
+    body: { email: "nobody@example.test" },
+  }),
+  "GET /auth/tokens/:token": async () => ({
+    path: `/api/auth/tokens/${randomBytes(32).toString("base64url")}`,
+  }),
+  "POST /auth/set-password": async () => ({
+    path: "/api/auth/set-password",
+    body: {
+      token: randomBytes(32).toString("base64url"),
+      password: "a-long-enough-password",
+    },
+  }),
+  "GET /jobs": async () => ({ path: "/api/jobs" }),
+  "GET /jobs/:jobId": async () => ({ path: `/api/jobs/${ids.jobId}` }),
+  "POST /workshops/:workshopId/jobs": async () => ({
+    path: `/api/workshops/${ids.workshopId}/jobs`,
+    body: {
+      title: "New alcove pair",
+      customerId: ids.rosaId,
+      siteAddress: "2 Example Row, Wetherfold",
+      postcode: "QX1 2AB",
+      area: "Wetherfold",
+      holidayRegion: "GB-ENG",
+    },
+  }),
+  "PATCH /jobs/:jobId": async () => ({
+    path: `/api/jobs/${await freshJob()}`,
+    body: { version: 1, title: "Renamed" },
+  }),
+  "DELETE /jobs/:jobId": async () => ({
+    path: `/api/jobs/${await freshJob()}`,
+  }),
+  "GET /jobs/:jobId/programme": async () => ({
+    path: `/api/jobs/${await freshJob()}/programme`,
+  }),
+  "POST /jobs/:jobId/tasks": async () => ({
+    path: `/api/jobs/${await freshJob()}/tasks`,
+    body: {
+      version: 1,
+      name: "Fit plinths",
+      party: "workshop",
+      durationDays: 0.5,
+    },
+  }),
+  "PATCH /jobs/:jobId/tasks/:taskId": async () => {
+    const p = await freshProgramme();
+    return {
+      path: `/api/jobs/${p.jobId}/tasks/${p.taskId}`,
+      body: { version: 1, durationDays: 1 },
+    };
+  },
+  "DELETE /jobs/:jobId/tasks/:taskId": async () => {
+    const p = await freshProgramme();
+    return { path: `/api/jobs/${p.jobId}/tasks/${p.otherTaskId}?version=1` };
+  },
+  "PUT /jobs/:jobId/tasks/order": async () => {
+    const p = await freshProgramme();
+    return {
+      path: `/api/jobs/${p.jobId}/tasks/order`,
       body: {
         version: 1,
-        name: "Fit plinths",
-        party: "workshop",
-        durationDays: 0.5,
+        taskIds: [p.thirdTaskId, p.covingTaskId, p.taskId, p.otherTaskId],
       },
-    }),
-    "PATCH /jobs/:jobId/tasks/:taskId": async () => {
-      const p = await freshProgramme();
-      return {
-        path: `/api/jobs/${p.jobId}/tasks/${p.taskId}`,
-        body: { version: 1, durationDays: 1 },
-      };
-    },
-    "DELETE /jobs/:jobId/tasks/:taskId": async () => {
-      const p = await freshProgramme();
-      return { path: `/api/jobs/${p.jobId}/tasks/${p.otherTaskId}?version=1` };
-    },
-    "PUT /jobs/:jobId/tasks/order": async () => {
-      const p = await freshProgramme();
-      return {
-        path: `/api/jobs/${p.jobId}/tasks/order`,
-        body: {
-          version: 1,
-          taskIds: [p.thirdTaskId, p.covingTaskId, p.taskId, p.otherTaskId],
-        },
-      };
-    },
-    "POST /jobs/:jobId/tasks/:taskId/progress": async () => {
-      const p = await freshProgramme();
-      return {
-        path: `/api/jobs/${p.jobId}/tasks/${p.otherTaskId}/progress`,
-        body: { version: 1, actualStart: "2027-01-25", actualFinish: null },
-      };
-    },
-    "POST /jobs/:jobId/links": async () => {
-      const p = await freshProgramme();
-      return {
-        path: `/api/jobs/${p.jobId}/links`,
-        body: {
-          version: 1,
-          fromTaskId: p.otherTaskId,
-          toTaskId: p.thirdTaskId,
-          kind: "FS",
-          lag: 0,
-        },
-      };
-    },
-    "PATCH /jobs/:jobId/links/:linkId": async () => {
-      const p = await freshProgramme();
-      return {
-        path: `/api/jobs/${p.jobId}/links/${p.linkId}`,
-        body: { version: 1, lag: 1 },
-      };
-    },
-    "DELETE /jobs/:jobId/links/:linkId": async () => {
-      const p = await freshProgramme();
-      return { path: `/api/jobs/${p.jobId}/links/${p.linkId}?version=1` };
-    },
-    "POST /jobs/:jobId/programme/preview": async () => {
-      const p = await freshProgramme();
-      return {
-        path: `/api/jobs/${p.jobId}/programme/preview`,
-        body: {
-          version: 1,
-          changes: [{ taskId: p.otherTaskId, notEarlierThan: "2027-02-03" }],
-        },
-      };
-    },
-    "POST /jobs/:jobId/programme/apply": async () => {
-      const p = await freshProgramme();
-      return {
-        path: `/api/jobs/${p.jobId}/programme/apply`,
-        body: {
-          version: 1,
-          changes: [{ taskId: p.otherTaskId, notEarlierThan: "2027-02-03" }],
-        },
-      };
-    },
-    "GET /jobs/:jobId/bookings": async () => ({
-      path: `/api/jobs/${await freshJob()}/bookings`,
-    }),
-    "GET /jobs/:jobId/tasks/:taskId/booking-options": async () => {
-      const p = await freshProgramme();
-      return {
-        path: `/api/jobs/${p.jobId}/tasks/${p.covingTaskId}/booking-options`,
-      };
-    },
-    "POST /jobs/:jobId/bookings": async () => {
-      const p = await freshProgramme();
-      return {
-        path: `/api/jobs/${p.jobId}/bookings`,
-        body: {
-          taskId: p.covingTaskId,
-          tradeId: ids.plastererId,
-          start: "2027-02-08",
-          arrivalWindow: "all-day",
-          send: false,
-        },
-      };
-    },
-    "POST /bookings/:bookingId/send": async () => ({
-      path: `/api/bookings/${await bookingIn("draft")}/send`,
-    }),
-    "POST /bookings/:bookingId/answer": async () => ({
-      path: `/api/bookings/${await bookingIn("sent")}/answer`,
+    };
+  },
+  "POST /jobs/:jobId/tasks/:taskId/progress": async () => {
+    const p = await freshProgramme();
+    return {
+      path: `/api/jobs/${p.jobId}/tasks/${p.otherTaskId}/progress`,
+      body: { version: 1, actualStart: "2027-01-25", actualFinish: null },
+    };
+  },
+  "POST /jobs/:jobId/links": async () => {
+    const p = await freshProgramme();
+    return {
+      path: `/api/jobs/${p.jobId}/links`,
       body: {
-        answer: "confirm",
-        channel: "phone",
-        note: "Said yes on the phone",
+        version: 1,
+        fromTaskId: p.otherTaskId,
+        toTaskId: p.thirdTaskId,
+        kind: "FS",
+        lag: 0,
       },
-    }),
-    "POST /bookings/:bookingId/proposal": async () => ({
-      path: `/api/bookings/${await bookingIn("date-proposed")}/proposal`,
-      body: { accept: false, note: "That day is taken" },
-    }),
-    "POST /bookings/:bookingId/cancel": async () => ({
-      path: `/api/bookings/${await bookingIn("sent")}/cancel`,
-      body: { reason: "Customer postponed" },
-    }),
-    "POST /bookings/:bookingId/chase": async () => ({
-      path: `/api/bookings/${await bookingIn("sent")}/chase`,
-    }),
-    "GET /bookings/:bookingId/link": async () => ({
-      path: `/api/bookings/${(await linkedBooking()).bookingId}/link`,
-    }),
-    "GET /workshops/:workshopId/bookings/unanswered": async () => ({
-      path: `/api/workshops/${ids.workshopId}/bookings/unanswered?hours=1`,
-    }),
-    "GET /booking-links/:token": async () => ({
-      path: `/api/booking-links/${(await linkedBooking()).token}`,
-    }),
-    "POST /booking-links/:token/answer": async () => ({
-      path: `/api/booking-links/${(await linkedBooking()).token}/answer`,
-      body: { answer: "confirm" },
-    }),
-    "GET /workshops/:workshopId": async () => ({
-      path: `/api/workshops/${ids.workshopId}`,
-    }),
-    "PATCH /workshops/:workshopId": async () => ({
-      path: `/api/workshops/${ids.workshopId}`,
-      body: { town: "Wetherfold" },
-    }),
-    "GET /workshops/:workshopId/members": async () => ({
-      path: `/api/workshops/${ids.workshopId}/members`,
-    }),
-    "GET /workshops/:workshopId/invitations": async () => ({
-      path: `/api/workshops/${ids.workshopId}/invitations`,
-    }),
-    "POST /workshops/:workshopId/invitations": async () => ({
-      path: `/api/workshops/${ids.workshopId}/invitations`,
+    };
+  },
+  "PATCH /jobs/:jobId/links/:linkId": async () => {
+    const p = await freshProgramme();
+    return {
+      path: `/api/jobs/${p.jobId}/links/${p.linkId}`,
+      body: { version: 1, lag: 1 },
+    };
+  },
+  "DELETE /jobs/:jobId/links/:linkId": async () => {
+    const p = await freshProgramme();
+    return { path: `/api/jobs/${p.jobId}/links/${p.linkId}?version=1` };
+  },
+  "POST /jobs/:jobId/programme/preview": async () => {
+    const p = await freshProgramme();
+    return {
+      path: `/api/jobs/${p.jobId}/programme/preview`,
       body: {
-        role: "fitter",
-        name: "New Fitter",
-        email: `fitter-${unique()}@example.test`,
+        version: 1,
+        changes: [{ taskId: p.otherTaskId, notEarlierThan: "2027-02-03" }],
       },
-    }),
-    "GET /workshops/:workshopId/trades": async () => ({
-      path: `/api/workshops/${ids.workshopId}/trades`,
-    }),
-    "POST /workshops/:workshopId/trades": async () => ({
-      path: `/api/workshops/${ids.workshopId}/trades`,
+    };
+  },
+  "POST /jobs/:jobId/programme/apply": async () => {
+    const p = await freshProgramme();
+    return {
+      path: `/api/jobs/${p.jobId}/programme/apply`,
       body: {
-        businessName: `Trade ${unique()}`,
-        kind: "plumber",
-        contactName: "A Plumber",
-        email: `plumber-${unique()}@example.test`,
-        phone: "01632 960 999",
+        version: 1,
+        changes: [{ taskId: p.otherTaskId, notEarlierThan: "2027-02-03" }],
       },
-    }),
-    "PATCH /trades/:tradeId": async () => ({
-      path: `/api/trades/${ids.decoratorId}`,
-      body: { phone: "01632 960 272" },
-    }),
-    "GET /trades/:tradeId/busy": async () => ({
-      path: `/api/trades/${ids.decoratorId}/busy?from=2026-01-01&to=2027-12-31`,
-    }),
-    "DELETE /trades/:tradeId": async () => {
-      const workshop = await t.db.ds.manager.findOneByOrFail(Workshop, {
-        id: ids.workshopId,
-      });
-      const trade = await buildTrade(t.db.ds.manager, workshop, {
-        kind: "other",
-      });
-      return { path: `/api/trades/${trade.id}` };
+    };
+  },
+  "GET /jobs/:jobId/bookings": async () => ({
+    path: `/api/jobs/${await freshJob()}/bookings`,
+  }),
+  "GET /jobs/:jobId/tasks/:taskId/booking-options": async () => {
+    const p = await freshProgramme();
+    return {
+      path: `/api/jobs/${p.jobId}/tasks/${p.covingTaskId}/booking-options`,
+    };
+  },
+  "POST /jobs/:jobId/bookings": async () => {
+    const p = await freshProgramme();
+    return {
+      path: `/api/jobs/${p.jobId}/bookings`,
+      body: {
+        taskId: p.covingTaskId,
+        tradeId: ids.plastererId,
+        start: "2027-02-08",
+        arrivalWindow: "all-day",
+        send: false,
+      },
+    };
+  },
+  "POST /bookings/:bookingId/send": async () => ({
+    path: `/api/bookings/${await bookingIn("draft")}/send`,
+  }),
+  "POST /bookings/:bookingId/answer": async () => ({
+    path: `/api/bookings/${await bookingIn("sent")}/answer`,
+    body: {
+      answer: "confirm",
+      channel: "phone",
+      note: "Said yes on the phone",
     },
-    "GET /workshops/:workshopId/starters": async () => ({
-      path: `/api/workshops/${ids.workshopId}/starters`,
-    }),
-    "PUT /workshops/:workshopId/starters/:starterId": async () => {
-      const starter = await t.db.ds.manager.findOneByOrFail(ProgrammeStarter, {
-        workshopId: ids.workshopId,
+  }),
+  "POST /bookings/:bookingId/proposal": async () => ({
+    path: `/api/bookings/${await bookingIn("date-proposed")}/proposal`,
+    body: { accept: false, note: "That day is taken" },
+  }),
+  "POST /bookings/:bookingId/cancel": async () => ({
+    path: `/api/bookings/${await bookingIn("sent")}/cancel`,
+    body: { reason: "Customer postponed" },
+  }),
+  "POST /bookings/:bookingId/chase": async () => ({
+    path: `/api/bookings/${await bookingIn("sent")}/chase`,
+  }),
+  "GET /bookings/:bookingId/link": async () => ({
+    path: `/api/bookings/${(await linkedBooking()).bookingId}/link`,
+  }),
+  "GET /workshops/:workshopId/bookings/unanswered": async () => ({
+    path: `/api/workshops/${ids.workshopId}/bookings/unanswered?hours=1`,
+  }),
+  "GET /booking-links/:token": async () => ({
+    path: `/api/booking-links/${(await linkedBooking()).token}`,
+  }),
+  "POST /booking-links/:token/answer": async () => ({
+    path: `/api/booking-links/${(await linkedBooking()).token}/answer`,
+    body: { answer: "confirm" },
+  }),
+  "GET /workshops/:workshopId": async () => ({
+    path: `/api/workshops/${ids.workshopId}`,
+  }),
+  "PATCH /workshops/:workshopId": async () => ({
+    path: `/api/workshops/${ids.workshopId}`,
+    body: { town: "Wetherfold" },
+  }),
+  "GET /workshops/:workshopId/members": async () => ({
+    path: `/api/workshops/${ids.workshopId}/members`,
+  }),
+  "GET /workshops/:workshopId/invitations": async () => ({
+    path: `/api/workshops/${ids.workshopId}/invitations`,
+  }),
+  "POST /workshops/:workshopId/invitations": async () => ({
+    path: `/api/workshops/${ids.workshopId}/invitations`,
+    body: {
+      role: "fitter",
+      name: "New Fitter",
+      email: `fitter-${unique()}@example.test`,
+    },
+  }),
+  "GET /workshops/:workshopId/trades": async () => ({
+    path: `/api/workshops/${ids.workshopId}/trades`,
+  }),
+  "POST /workshops/:workshopId/trades": async () => ({
+    path: `/api/workshops/${ids.workshopId}/trades`,
+    body: {
+      businessName: `Trade ${unique()}`,
+      kind: "plumber",
+      contactName: "A Plumber",
+      email: `plumber-${unique()}@example.test`,
+      phone: "01632 960 999",
+    },
+  }),
+  "PATCH /trades/:tradeId": async () => ({
+    path: `/api/trades/${ids.decoratorId}`,
+    body: { phone: "01632 960 272" },
+  }),
+  "GET /trades/:tradeId/busy": async () => ({
+    path: `/api/trades/${ids.decoratorId}/busy?from=2026-01-01&to=2027-12-31`,
+  }),
+  "DELETE /trades/:tradeId": async () => {
+    const workshop = await t.db.ds.manager.findOneByOrFail(Workshop, {
+      id: ids.workshopId,
+    });
+    const trade = await buildTrade(t.db.ds.manager, workshop, {
+      kind: "other",
+    });
+    return { path: `/api/trades/${trade.id}` };
+  },
+  "GET /workshops/:workshopId/starters": async () => ({
+    path: `/api/workshops/${ids.workshopId}/starters`,
+  }),
+  "PUT /workshops/:workshopId/starters/:starterId": async () => {
+    const starter = await t.db.ds.manager.findOneByOrFail(ProgrammeStarter, {
+      workshopId: ids.workshopId,
+      name: "Bookcase wall",
+    });
+    return {
+      path: `/api/workshops/${ids.workshopId}/starters/${starter.id}`,
+      body: {
         name: "Bookcase wall",
-      });
-      return {
-        path: `/api/workshops/${ids.workshopId}/starters/${starter.id}`,
-        body: {
-          name: "Bookcase wall",
-          tasks: starter.tasks,
-          links: starter.links,
-        },
-      };
+        tasks: starter.tasks,
+        links: starter.links,
+      },
+    };
+  },
+  "GET /workshops/:workshopId/customers": async () => ({
+    path: `/api/workshops/${ids.workshopId}/customers`,
+  }),
+  "POST /workshops/:workshopId/customers": async () => ({
+    path: `/api/workshops/${ids.workshopId}/customers`,
+    body: { name: "New Customer", email: `c-${unique()}@example.test` },
+  }),
+  "GET /jobs/:jobId/thread": async () => ({
+    path: `/api/jobs/${await freshJob()}/thread`,
+  }),
+  "POST /jobs/:jobId/thread/messages": async () => ({
+    path: `/api/jobs/${await freshJob()}/thread/messages`,
+    body: { audience: "trades", text: "Skip arrives at 08:00" },
+  }),
+  "POST /jobs/:jobId/thread/messages/upload": async () => ({
+    path: `/api/jobs/${await freshJob()}/thread/messages/upload`,
+    multipart: {
+      fields: { audience: "trades", text: "The wall as found" },
+      files: [{ name: "wall.png", body: await samplePng(40, 30) }],
     },
-    "GET /workshops/:workshopId/customers": async () => ({
-      path: `/api/workshops/${ids.workshopId}/customers`,
-    }),
-    "POST /workshops/:workshopId/customers": async () => ({
-      path: `/api/workshops/${ids.workshopId}/customers`,
-      body: { name: "New Customer", email: `c-${unique()}@example.test` },
-    }),
-    "GET /me/feed": async () => ({ path: "/api/me/feed" }),
-    "POST /me/feed": async () => ({ path: "/api/me/feed" }),
-    "DELETE /me/feed": async () => ({ path: "/api/me/feed" }),
-    // A token made here for the customer: the URL works for whoever holds it.
-    "GET /feeds/:token": async () => {
-      const rosa = await t.db.ds.manager.findOneByOrFail(User, {
-        email: emails.customer,
-      });
-      const { url } = await issueFeed(t.db.ds, "http://localhost", rosa.id);
-      return { path: new URL(url).pathname };
-    },
-    "GET /me/days-off": async () => ({ path: "/api/me/days-off" }),
-    // A day far beyond the demo's bookings, so no other row's booking options change.
-    "PUT /me/days-off": async () => ({
-      path: "/api/me/days-off",
-      body: { daysOff: ["2031-01-06"] },
-    }),
-  };
+  }),
+  "GET /jobs/:jobId/thread/attachments/:fileId": async () => {
+    const a = await threadAttachment();
+    return { path: `/api/jobs/${a.jobId}/thread/attachments/${a.fileId}` };
+  },
+  "POST /jobs/:jobId/thread/read": async () => ({
+    path: `/api/jobs/${await freshJob()}/thread/read`,
+    body: {},
+  }),
+  "GET /thread/unread": async () => ({ path: "/api/thread/unread" }),
+  "GET /me/feed": async () => ({ path: "/api/me/feed" }),
+  "POST /me/feed": async () => ({ path: "/api/me/feed" }),
+  "DELETE /me/feed": async () => ({ path: "/api/me/feed" }),
+  // A token made here for the customer: the URL works for whoever holds it.
+  "GET /feeds/:token": async () => {
+    const rosa = await t.db.ds.manager.findOneByOrFail(User, {
+      email: emails.customer,
+    });
+    const { url } = await issueFeed(t.db.ds, "http://localhost", rosa.id);
+    return { path: new URL(url).pathname };
+  },
+  "GET /me/days-off": async () => ({ path: "/api/me/days-off" }),
+  // A day far beyond the demo's bookings, so no other row's booking options change.
+  "PUT /me/days-off": async () => ({
+    path: "/api/me/days-off",
+    body: { daysOff: ["2031-01-06"] },
+  }),
+};
 
 async function sessionFor(role: MatrixRole): Promise<Session> {
   return role === "anon" ? anonymous(t) : signIn(t, emails[role]);
@@ -481,7 +528,17 @@ describe("role matrix: every /api route for every role", () => {
         const call = s.agent[
           method.toLowerCase() as "get" | "post" | "patch" | "put" | "delete"
         ](req.path).set("X-CSRF-Token", s.csrf);
-        const res = await (req.body ? call.send(req.body) : call);
+        const res = await (req.multipart
+          ? req.multipart.files.reduce(
+              (c, f) => c.attach("file", f.body, f.name),
+              Object.entries(req.multipart.fields).reduce(
+                (c, [k, v]) => c.field(k, v),
+                call,
+              ),
+            )
+          : req.body
+            ? call.send(req.body)
+            : call);
         seen[role] = res.status;
         if (res.status >= 400)
           expect(

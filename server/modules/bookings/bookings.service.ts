@@ -38,9 +38,11 @@ import {
   dayWords,
   notifyWorkshop,
   queueBookingMail,
+  whenWords,
   type NoticeContext,
 } from "./booking-notices";
 import { Booking, BookingEvent } from "./bookings.entity";
+import { postSystemNote } from "../thread/thread-notes";
 
 export interface BookingDeps {
   ds: DataSource;
@@ -615,6 +617,21 @@ async function sendInTransaction(
     l.booking,
     kind === "updated" ? "updated" : "invitation",
   );
+  // Thread notes (audiences in DEVELOPERS.md): an invitation is the workshop's business until answered.
+  if (kind === "updated")
+    await postSystemNote(
+      m,
+      l.job,
+      "trades",
+      `Dates changed: ${l.task.name} with ${l.trade.businessName} is now ${whenWords(l.booking)}; waiting for them to confirm again.`,
+    );
+  else
+    await postSystemNote(
+      m,
+      l.job,
+      "workshop",
+      `Booking sent: ${l.trade.businessName} for ${l.task.name}, ${whenWords(l.booking)}.`,
+    );
 }
 
 /** One change to one booking: locked, authorised, applied in a transaction, then presented. */
@@ -726,6 +743,28 @@ export async function applyAnswer(
     },
   });
   await bumpJob(m, l.job);
+  // Confirmations are news for the other trades too; declines and proposals stay with the workshop.
+  if (to === "confirmed")
+    await postSystemNote(
+      m,
+      l.job,
+      "trades",
+      `${l.trade.businessName} confirmed ${l.task.name}: ${whenWords(b)}.`,
+    );
+  else if (to === "declined")
+    await postSystemNote(
+      m,
+      l.job,
+      "workshop",
+      `${l.trade.businessName} declined ${l.task.name} (${whenWords(b)}).`,
+    );
+  else
+    await postSystemNote(
+      m,
+      l.job,
+      "workshop",
+      `${l.trade.businessName} proposes ${dayWords(b.proposedStart!)} for ${l.task.name} instead of ${dayWords(b.start)}.`,
+    );
   if (channel === "link" || channel === "calendar-reply") {
     const words =
       to === "confirmed"
@@ -812,6 +851,12 @@ export async function decideProposal(
         "updated",
         note || "Your proposed start is accepted.",
       );
+      await postSystemNote(
+        m,
+        l.job,
+        "trades",
+        `${l.trade.businessName} confirmed ${l.task.name} on their proposed date: ${whenWords(b)}.`,
+      );
     } else {
       b.proposedStart = null;
       b.state = "sent";
@@ -831,6 +876,12 @@ export async function decideProposal(
         b,
         "proposal-rejected",
         note,
+      );
+      await postSystemNote(
+        m,
+        l.job,
+        "workshop",
+        `${l.trade.businessName}'s proposed date for ${l.task.name} was not accepted; asked again for ${whenWords(b)}.`,
       );
     }
     await audit(m, {
@@ -868,6 +919,13 @@ export async function cancelBooking(
     b.linkTokenHash = null;
     await m.save(Booking, b);
     await recordEvent(m, b, from, "cancelled", "app", actor!.userId, reason);
+    // The reason is the workshop's own words, so the note leaves it out; a draft nobody saw stays in the workshop.
+    await postSystemNote(
+      m,
+      l.job,
+      wasSent ? "trades" : "workshop",
+      `Booking cancelled: ${l.trade.businessName} for ${l.task.name}.`,
+    );
     if (wasSent && from !== "declined")
       await queueBookingMail(
         m,
@@ -1036,6 +1094,12 @@ export async function reconfirmAfterChange(
       l.booking,
       "updated",
       r.reason,
+    );
+    await postSystemNote(
+      m,
+      l.job,
+      "trades",
+      `Rescheduled: ${l.task.name} with ${l.trade.businessName} moves to ${whenWords(l.booking)}; it needs re-confirming.`,
     );
     moved.push(l.booking.id);
   }

@@ -30,6 +30,7 @@ import { Workshop } from "../workshops/workshops.entity";
 import { cautionFor } from "./cautions";
 import { loadProgramme, type ProgrammeData } from "./programme-input";
 import { Task, TaskLink } from "./programme.entity";
+import { noteDay, postSystemNote } from "../thread/thread-notes";
 
 /** Runs the engine; input it cannot schedule (a loop…) becomes a 422 naming the problem. */
 export function schedule(input: ProgrammeInput): ProgrammeResult {
@@ -456,6 +457,21 @@ export async function recordProgress(
         { id: task.id },
         { actualStart: body.actualStart, actualFinish: body.actualFinish },
       );
+      // Progress is news for the whole job (customer too); only the task's name and day are said.
+      if (body.actualFinish && !task.actualFinish)
+        await postSystemNote(
+          m,
+          job,
+          "job",
+          `Done: ${task.name} (${noteDay(body.actualFinish)}).`,
+        );
+      else if (body.actualStart && !body.actualFinish && !task.actualStart)
+        await postSystemNote(
+          m,
+          job,
+          "job",
+          `Started: ${task.name} (${noteDay(body.actualStart)}).`,
+        );
     },
   );
   return getProgramme(ds, actor, jobId);
