@@ -83,11 +83,14 @@ export function DrawingUploadForm({
       const refused = checkUploadFile(file);
       if (refused) found.file = refused;
     }
-    // A trade on a phone need not type a title: it reads "Template, Template coving".
+    // A trade on a phone need not type a title: it reads "Template for Template coving".
     const effectiveTitle =
       title.trim() ||
       (isTrade && taskIds.length > 0
-        ? `${drawingKindLabels[kind]}, ${taskIds.map(taskName).join(", ")}`
+        ? `${drawingKindLabels[kind]} for ${taskIds.map(taskName).join(", ")}`.slice(
+            0,
+            160,
+          )
         : "");
     const parsed = createDrawingFieldsSchema.safeParse({
       title: effectiveTitle,

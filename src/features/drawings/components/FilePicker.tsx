@@ -109,7 +109,7 @@ export function CheckGroup({
           {hint}
         </p>
       ) : null}
-      <div className="flex flex-col gap-1.5">
+      <div className="grid gap-1.5 sm:grid-cols-2">
         {options.map((o) => {
           const checked = value.includes(o.value);
           return (

@@ -59,7 +59,9 @@ export function JobDrawings({ jobId, shareOptions }: JobDrawingsProps) {
       <div className="flex flex-col gap-4">
         {added ? (
           <Notice>
-            Rev {added.currentRevision} of “{added.title}” is uploaded.{" "}
+            {isTrade
+              ? `“${added.title}” is added to your task; the workshop sees it.`
+              : `Rev ${added.currentRevision} of “${added.title}” is uploaded.`}{" "}
             <Link
               to={drawingPagePath(jobId, added.id)}
               className="text-accent underline underline-offset-2"
