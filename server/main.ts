@@ -101,7 +101,7 @@ async function main() {
   });
 
   if (!production) {
-    const seeded = await seedDemoIfEmpty(ds, { production });
+    const seeded = await seedDemoIfEmpty(ds, { production, storage });
     if (seeded) log("Loaded the demo scenario (Hollin & Vane Joinery)");
   }
 

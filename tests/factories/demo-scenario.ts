@@ -15,6 +15,8 @@ import {
   linkTradeUser,
 } from "./builders";
 import { addDefaultStarters } from "../../server/modules/starters/starters.service";
+import type { Storage } from "../../server/infra/storage/storage";
+import { loadDemoDrawings } from "./demo-drawings";
 
 export const DEMO_PASSWORD = "sitecue-demo";
 
@@ -45,10 +47,11 @@ export function weekdaysFrom(today: string, n: number): string {
   return d.toISOString().slice(0, 10);
 }
 
-/** Loads the whole demo scenario in one transaction. */
+/** Loads the whole demo scenario in one transaction; with `storage`, also the demo drawing. */
 export async function loadDemoScenario(
   ds: DataSource,
   today: string,
+  opts: { storage?: Storage } = {},
 ): Promise<void> {
   const day = (n: number) => weekdaysFrom(today, n);
   await ds.transaction(async (m) => {
@@ -322,4 +325,12 @@ export async function loadDemoScenario(
       hazards: [],
     });
   });
+  // The demo drawing needs the bucket; without one (most API tests) the scenario has no drawings.
+  if (opts.storage)
+    await loadDemoDrawings(
+      ds,
+      opts.storage,
+      demoJobTitles.alcoves,
+      demoAccounts.owner.email,
+    );
 }

@@ -14,6 +14,10 @@ import {
 } from "../../../shared/schemas";
 import { buildUser, linkTradeUser } from "../../../tests/factories/builders";
 import {
+  DEMO_DRAWING_TITLE,
+  loadDemoDrawings,
+} from "../../../tests/factories/demo-drawings";
+import {
   demoAccounts,
   demoJobTitles,
 } from "../../../tests/factories/demo-scenario";
@@ -820,5 +824,51 @@ describe("the size limit", () => {
       file: { bytes: samplePdf("Fits", 40_000), name: "fits.pdf" },
     }).expect(201);
     expect(await storedCount(small)).toBe(1);
+  });
+
+  it("loads the demo drawing: Elevation, alcoves Rev A for the plasterer and the electrician", async () => {
+    await loadDemoDrawings(
+      small.db.ds,
+      small.storage,
+      demoJobTitles.alcoves,
+      demoAccounts.owner.email,
+    );
+    const job = await small.db.ds.manager.findOneByOrFail(Job, {
+      title: demoJobTitles.alcoves,
+    });
+    const dev = await signIn(small, emails.dev);
+    const list = jobDrawingsResponseSchema.parse(
+      (await dev.agent.get(`/api/jobs/${job.id}/drawings`).expect(200)).body,
+    );
+    const demo = list.drawings.find((d) => d.title === DEMO_DRAWING_TITLE)!;
+    expect(demo.currentRevision).toBe("A");
+    expect(demo.current.file.mimeType).toBe("image/png");
+    const png = await fetchFile(dev, demo.current.downloadUrl).expect(200);
+    const row = await small.db.ds.manager.findOneByOrFail(StoredFile, {
+      id: demo.current.file.id,
+    });
+    expect(sha256(png.body)).toBe(row.sha256);
+    expect((await sharp(png.body).metadata()).width).toBe(row.width);
+    const thumb = await fetchFile(dev, demo.current.thumbnailUrl!).expect(200);
+    expect((await sharp(thumb.body).metadata()).format).toBe("webp");
+    const owner = await signIn(small, emails.owner);
+    const detail = drawingDetailSchema.parse(
+      (await owner.agent.get(`/api/drawings/${demo.id}`).expect(200)).body,
+    );
+    expect(detail.sharing).toEqual({
+      tradeKinds: ["plasterer", "electrician"],
+      trades: [],
+      customer: false,
+    });
+    expect(detail.tasks.map((x) => x.name).sort()).toEqual(
+      [
+        "Electrician second fix",
+        "Fit coving & make good",
+        "Template coving",
+      ].sort(),
+    );
+    // Not shared with the customer.
+    const rosa = await signIn(small, emails.rosa);
+    await rosa.agent.get(`/api/drawings/${demo.id}`).expect(404);
   });
 });
