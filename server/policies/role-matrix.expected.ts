@@ -229,6 +229,67 @@ export const expected: Record<string, Row> = {
   // Own unread counts, over the jobs each person sees.
   "GET /thread/unread": signedIn(200),
 
+  // Drawings. The request's drawing is shared with plasterers (the trade on the job is one) and
+  // the customer; the upload is a template to the plasterer's own task, which a trade may make.
+  "GET /jobs/:jobId/drawings": {
+    owner: 200,
+    fitter: 200,
+    tradeOn: 200,
+    tradeOff: 404,
+    customer: 200,
+    other: 404,
+    anon: 401,
+  },
+  "POST /jobs/:jobId/drawings": {
+    owner: 201,
+    fitter: 201,
+    tradeOn: 201,
+    tradeOff: 404,
+    customer: 403,
+    other: 404,
+    anon: 401,
+  },
+  "GET /drawings/:drawingId": {
+    owner: 200,
+    fitter: 200,
+    tradeOn: 200,
+    tradeOff: 404,
+    customer: 200,
+    other: 404,
+    anon: 401,
+  },
+  // Renaming and re-sharing are the workshop's; deleting the owner's.
+  "PATCH /drawings/:drawingId": jobStaff(200),
+  "DELETE /drawings/:drawingId": {
+    owner: 204,
+    fitter: 403,
+    tradeOn: 403,
+    tradeOff: 404,
+    customer: 403,
+    other: 404,
+    anon: 401,
+  },
+  // The workshop made this drawing, so only the workshop adds revisions (a trade revises their own).
+  "POST /drawings/:drawingId/revisions": jobStaff(201),
+  "GET /drawings/:drawingId/revisions/:letter/file": {
+    owner: 200,
+    fitter: 200,
+    tradeOn: 200,
+    tradeOff: 404,
+    customer: 200,
+    other: 404,
+    anon: 401,
+  },
+  "GET /drawings/:drawingId/revisions/:letter/thumbnail": {
+    owner: 200,
+    fitter: 200,
+    tradeOn: 200,
+    tradeOff: 404,
+    customer: 200,
+    other: 404,
+    anon: 401,
+  },
+
   // Own data: everyone signed in has their own calendar feed (the brief: a customer subscribes to one).
   "GET /me/feed": signedIn(200),
   "POST /me/feed": signedIn(201),

@@ -192,6 +192,27 @@ async function threadAttachment(): Promise<{ jobId: string; fileId: string }> {
   return { jobId, fileId: res.body.attachments[0].id };
 }
 
+/** A fresh job with a drawing (a PNG, Rev A) the owner shared with plasterers and the customer, for the plasterer's task. */
+async function freshDrawing(): Promise<{
+  jobId: string;
+  taskId: string;
+  drawingId: string;
+}> {
+  const p = await freshProgramme();
+  const owner = await signIn(t, emails.owner);
+  const res = await owner.agent
+    .post(`/api/jobs/${p.jobId}/drawings`)
+    .set("X-CSRF-Token", owner.csrf)
+    .field("title", "Elevation")
+    .field("kind", "drawing")
+    .field("taskIds", p.taskId)
+    .field("shareTradeKinds", "plasterer")
+    .field("shareWithCustomer", "true")
+    .attach("file", await samplePng(40, 30), "elevation.png")
+    .expect(201);
+  return { jobId: p.jobId, taskId: p.taskId, drawingId: res.body.id };
+}
+
 /** One concrete request per route: path, and a valid body for changes. */
 const requests: Record<
   string,
@@ -486,6 +507,46 @@ const requests: Record<
     body: {},
   }),
   "GET /thread/unread": async () => ({ path: "/api/thread/unread" }),
+  "GET /jobs/:jobId/drawings": async () => ({
+    path: `/api/jobs/${(await freshDrawing()).jobId}/drawings`,
+  }),
+  "POST /jobs/:jobId/drawings": async () => {
+    const p = await freshProgramme();
+    return {
+      path: `/api/jobs/${p.jobId}/drawings`,
+      multipart: {
+        fields: {
+          title: "Coving template",
+          kind: "template",
+          taskIds: p.taskId,
+        },
+        files: [{ name: "template.png", body: await samplePng(40, 30) }],
+      },
+    };
+  },
+  "GET /drawings/:drawingId": async () => ({
+    path: `/api/drawings/${(await freshDrawing()).drawingId}`,
+  }),
+  "PATCH /drawings/:drawingId": async () => ({
+    path: `/api/drawings/${(await freshDrawing()).drawingId}`,
+    body: { title: "Elevation, revised title", shareWithCustomer: false },
+  }),
+  "DELETE /drawings/:drawingId": async () => ({
+    path: `/api/drawings/${(await freshDrawing()).drawingId}`,
+  }),
+  "POST /drawings/:drawingId/revisions": async () => ({
+    path: `/api/drawings/${(await freshDrawing()).drawingId}/revisions`,
+    multipart: {
+      fields: { note: "Left alcove 12 mm narrower" },
+      files: [{ name: "elevation-b.png", body: await samplePng(40, 30) }],
+    },
+  }),
+  "GET /drawings/:drawingId/revisions/:letter/file": async () => ({
+    path: `/api/drawings/${(await freshDrawing()).drawingId}/revisions/A/file`,
+  }),
+  "GET /drawings/:drawingId/revisions/:letter/thumbnail": async () => ({
+    path: `/api/drawings/${(await freshDrawing()).drawingId}/revisions/A/thumbnail`,
+  }),
   "GET /me/feed": async () => ({ path: "/api/me/feed" }),
   "POST /me/feed": async () => ({ path: "/api/me/feed" }),
   "DELETE /me/feed": async () => ({ path: "/api/me/feed" }),
