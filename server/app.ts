@@ -31,6 +31,7 @@ import type { InboundMail } from "./infra/mail/inbound";
 import { registerDevMailRoutes } from "./modules/mail/mail.router";
 import { registerDrawingRoutes } from "./modules/drawings/drawings.router";
 import { registerTradeRoutes } from "./modules/trades/trades.router";
+import { registerAttentionRoutes } from "./modules/attention/attention.router";
 import { registerThreadRoutes } from "./modules/thread/thread.router";
 import {
   DEFAULT_NOTICE_DELAY_MS,
@@ -197,6 +198,7 @@ export function createApp(deps: AppDeps): SitecueApp {
     noticeDelayMs: deps.threadNoticeDelayMs ?? DEFAULT_NOTICE_DELAY_MS,
   };
   registerThreadRoutes(api, threadDeps);
+  registerAttentionRoutes(api, deps.ds);
   registerDrawingRoutes(api, { ds: deps.ds, files, appUrl: deps.appUrl });
   if (deps.mailbox) registerDevMailRoutes(api, deps.mailbox);
   api.add({

@@ -131,6 +131,8 @@ export const expected: Record<string, Row> = {
   "POST /bookings/:bookingId/chase": jobStaff(200),
   "GET /bookings/:bookingId/link": jobStaff(200),
   "GET /workshops/:workshopId/bookings/unanswered": staff(200),
+  // The maker's attention list across the workshop's jobs: owners and fitters only.
+  "GET /workshops/:workshopId/attention": staff(200),
   // The confirmation link works without an account, for that one booking: whoever holds it.
   "GET /booking-links/:token": all(200),
   "POST /booking-links/:token/answer": all(200),

@@ -403,6 +403,9 @@ const requests: Record<
   "GET /workshops/:workshopId/bookings/unanswered": async () => ({
     path: `/api/workshops/${ids.workshopId}/bookings/unanswered?hours=1`,
   }),
+  "GET /workshops/:workshopId/attention": async () => ({
+    path: `/api/workshops/${ids.workshopId}/attention`,
+  }),
   "GET /booking-links/:token": async () => ({
     path: `/api/booking-links/${(await linkedBooking()).token}`,
   }),

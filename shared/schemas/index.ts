@@ -13,3 +13,4 @@ export * from "./feeds";
 export * from "./drawings";
 export * from "./thread";
 export * from "./files";
+export * from "./attention";
