@@ -119,13 +119,13 @@ async function main() {
     devClient: !production,
     trustProxy: env.TRUST_PROXY === "1",
     replyDomain: env.REPLY_DOMAIN,
+    threadNoticeDelayMs: env.THREAD_NOTICE_MINUTES * 60 * 1000,
   });
   const server = http.createServer(sitecue.app);
-  const closeClient = await mountClient(
-    sitecue.app,
-    production ? "static" : "vite",
-    server,
-  );
+  const closeClient =
+    env.SITECUE_CLIENT === "none"
+      ? async () => {}
+      : await mountClient(sitecue.app, production ? "static" : "vite", server);
   await new Promise<void>((resolve) =>
     server.listen(env.PORT, "127.0.0.1", resolve),
   );
@@ -157,6 +157,16 @@ async function main() {
     },
     15 * 60 * 1000,
   );
+  // Thread notice e-mails: swept every minute (each notice is claimed once, across processes).
+  const threadNotices = setInterval(() => {
+    sitecue
+      .sendThreadNotices()
+      .catch((err) =>
+        console.warn(
+          `[sitecue] thread notices: ${err instanceof Error ? err.message : String(err)}`,
+        ),
+      );
+  }, 60 * 1000);
   log(`Sitecue is ready at ${appUrl}${took}`);
 
   let closing = false;
@@ -169,6 +179,7 @@ async function main() {
     await closeClient();
     await sitecue.close();
     clearInterval(reminders);
+    clearInterval(threadNotices);
     await inbound.close();
     await outbox.stop();
     mailer.close();

@@ -41,6 +41,14 @@ const envSchema = z.object({
   S3_SECRET_ACCESS_KEY: z.string().optional(),
   /** Path-style URLs (bucket in the path): needed by most S3-compatible services and the fake. */
   S3_FORCE_PATH_STYLE: z.enum(["0", "1"]).default("1"),
+  /** "none" serves the API only (no Vite middleware, no built client): for processes started by tests. */
+  SITECUE_CLIENT: z.enum(["auto", "none"]).default("auto"),
+  /** Minutes thread messages gather before one notice e-mail per person per job. */
+  THREAD_NOTICE_MINUTES: z.coerce
+    .number()
+    .min(0)
+    .max(24 * 60)
+    .default(5),
   /** The largest upload accepted, in bytes (25 MB unless set). */
   UPLOAD_MAX_BYTES: z.coerce
     .number()
