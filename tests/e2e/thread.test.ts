@@ -11,6 +11,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Locator, Page } from "playwright-core";
 import type { ThreadResponse } from "../../shared/schemas";
 import { threadAudienceLabels } from "../../shared/schemas";
+import { Job } from "../../server/modules/jobs/jobs.entity";
+import { postSystemNote } from "../../server/modules/thread/thread-notes";
 import { startTestApp, type TestApp } from "../setup/test-app";
 import { samplePng, sampleElf } from "../setup/uploads";
 import {
@@ -47,6 +49,8 @@ const tradesText =
   "Coving template first thing Thursday; profile at https://example.test/coving/ogee-90. Note <b>bold</b> is only text.";
 const tradesLink = "https://example.test/coving/ogee-90";
 const wholeJob = "The dust sheets stay down until the decorator has been.";
+const systemText =
+  "Kestrel Decorating confirmed Fill, caulk & paint: Mon 7 Dec.";
 
 async function signInAs(
   email: string,
@@ -72,7 +76,7 @@ async function openJob(page: Page): Promise<string> {
 
 const thread = (page: Page): Locator => page.locator("#job-thread");
 const messages = (page: Page): Locator =>
-  thread(page).getByRole("region", { name: "Messages" });
+  thread(page).getByRole("log", { name: "Messages" });
 const badge = (page: Page): Locator =>
   thread(page).getByTestId("thread-unread");
 
@@ -154,8 +158,17 @@ describe("the job thread", () => {
   let unreadBefore = 0;
 
   it("the plasterer has the job open on a phone, the thread below the fold", async () => {
+    // A note as the bookings service writes one (same writer, same transaction helper), so the
+    // plasterer opens the page with one unread.
+    const job = await t.db.ds
+      .getRepository(Job)
+      .findOneByOrFail({ title: jobTitle });
+    await t.db.ds.transaction((m) =>
+      postSystemNote(m, job, "trades", systemText),
+    );
     trade = await signInAs(demoAccounts.trade.email, phone);
     jobId = await openJob(trade.page);
+    expect(jobId).toBe(job.id);
     trade.page.on("request", (r) => {
       if (r.url().includes(`/api/jobs/${jobId}/thread?`)) polls.push(r.url());
     });
@@ -170,11 +183,18 @@ describe("the job thread", () => {
     expect(box!.y).toBeGreaterThan(phone.height);
     const api = await apiThread(trade.page, jobId);
     unreadBefore = api.unreadCount;
+    expect(unreadBefore).toBeGreaterThanOrEqual(1);
     expect(api.visibleAudiences).not.toContain("workshop");
-    if (unreadBefore > 0)
-      await expect
-        .poll(() => badge(trade.page).textContent(), { timeout: 10_000 })
-        .toBe(`${unreadBefore} unread`);
+    await expect
+      .poll(() => badge(trade.page).textContent(), { timeout: 10_000 })
+      .toBe(`${unreadBefore} unread`);
+    // The system note: Sitecue's, with no person as author.
+    const note = messages(trade.page)
+      .getByRole("listitem")
+      .filter({ hasText: systemText });
+    await visible(note.getByText("Sitecue", { exact: true }));
+    await visible(note.getByText("Trades & workshop"));
+    expect(await note.getByText(/· (Workshop|Customer)/).count()).toBe(0);
   });
 
   it("the owner posts a Workshop only and then a Trades & workshop message", async () => {
@@ -322,6 +342,7 @@ describe("the job thread", () => {
         { timeout: 10_000 },
       )
       .toBeGreaterThan(0);
+    await shots(owner.page, "thread-owner-photo-desktop");
     const src = await img.getAttribute("src");
     expect(src).toMatch(
       new RegExp(
@@ -347,6 +368,19 @@ describe("the job thread", () => {
     // The thread only: the workshop's job page also carries the calendar and the bookings,
     // whose own findings are theirs to answer (the phone pages below are checked whole).
     expect(await axeSeriousOrWorse(page, "#job-thread")).toEqual([]);
+
+    // Another job of the demo has no messages yet (its API says so first).
+    await page.goto(`${t.url}/`);
+    await page.getByRole("link", { name: demoJobTitles.wardrobe }).click();
+    await visible(
+      page.getByRole("heading", { name: demoJobTitles.wardrobe, level: 1 }),
+    );
+    const otherId = new URL(page.url()).pathname.split("/")[2];
+    expect((await apiThread(page, otherId)).messages).toEqual([]);
+    await visible(thread(page).getByText("No messages yet"));
+    await thread(page).screenshot({
+      path: path.join(screensDir, "thread-empty-desktop-section.png"),
+    });
     expect(owner.problems).toEqual([]);
   });
 
@@ -388,6 +422,8 @@ describe("the job thread", () => {
         .filter({ hasText: "the cat will be upstairs" })
         .getByText(`${demoAccounts.customer.name} · Customer`),
     );
+    // They have read the whole-job message now: no badge left.
+    await badge(page).waitFor({ state: "detached", timeout: 10_000 });
     await shots(page, "thread-customer-phone");
     expect(await axeSeriousOrWorse(page)).toEqual([]);
     expect(problems).toEqual([]);

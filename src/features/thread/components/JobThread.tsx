@@ -142,6 +142,17 @@ export function JobThread({ jobId }: { jobId: string }) {
     if (atBottom.current) el.scrollTop = el.scrollHeight;
   }, [lastSeq]);
 
+  // A thumbnail that loads after the scroll grows the list: stay at the bottom if we were.
+  // (load does not bubble, but it passes the list in the capture phase.)
+  useEffect(() => {
+    if (!scrollEl) return;
+    const onLoad = () => {
+      if (atBottom.current) scrollEl.scrollTop = scrollEl.scrollHeight;
+    };
+    scrollEl.addEventListener("load", onLoad, true);
+    return () => scrollEl.removeEventListener("load", onLoad, true);
+  }, [scrollEl]);
+
   const onScroll = () => {
     const el = scroller.current;
     if (el)
@@ -171,7 +182,9 @@ export function JobThread({ jobId }: { jobId: string }) {
     body = <ErrorState error={thread.error} onRetry={() => thread.refetch()} />;
   } else if (data) {
     const filters: Filter[] =
-      data.visibleAudiences.length > 1 ? ["all", ...data.visibleAudiences] : [];
+      data.visibleAudiences.length > 1 && data.messages.length > 0
+        ? ["all", ...data.visibleAudiences]
+        : [];
     body = (
       <div className="flex flex-col gap-4">
         {filters.length > 0 ? (
@@ -208,9 +221,10 @@ export function JobThread({ jobId }: { jobId: string }) {
           <div
             ref={scrollRef}
             onScroll={onScroll}
-            // Scrollable, so it takes the keyboard focus (arrow keys scroll it).
+            // Scrollable, so it takes the keyboard focus (arrow keys scroll it). A log (WAI-ARIA
+            // 1.2): screen readers announce messages that arrive, politely.
             tabIndex={0}
-            role="region"
+            role="log"
             aria-label="Messages"
             className="max-h-[65vh] overflow-y-auto overscroll-contain rounded border border-rule bg-paper p-2 sm:p-3"
           >
