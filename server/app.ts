@@ -31,6 +31,7 @@ import type { InboundMail } from "./infra/mail/inbound";
 import { registerDevMailRoutes } from "./modules/mail/mail.router";
 import { registerDrawingRoutes } from "./modules/drawings/drawings.router";
 import { registerTradeRoutes } from "./modules/trades/trades.router";
+import { registerVisitRoutes } from "./modules/visits/visits.router";
 import { registerAttentionRoutes } from "./modules/attention/attention.router";
 import { registerThreadRoutes } from "./modules/thread/thread.router";
 import {
@@ -191,6 +192,7 @@ export function createApp(deps: AppDeps): SitecueApp {
   registerTradeRoutes(api, deps.ds);
   registerCustomerRoutes(api, deps.ds);
   registerFeedRoutes(api, bookingDeps);
+  registerVisitRoutes(api, bookingDeps);
   const threadDeps = {
     ds: deps.ds,
     appUrl: deps.appUrl,

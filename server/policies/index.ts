@@ -80,6 +80,19 @@ export interface DrawingUploadResource {
   taskTradeIds: ReadonlyArray<ReadonlySet<string>>;
 }
 
+/**
+ * One booking as a visit: the trade who holds it sees it once it has been offered (sent or later;
+ * a draft is the workshop's alone). The workshop and the job's customer know of the booking; no
+ * other trade does, not even one on the same job.
+ */
+export interface VisitResource {
+  kind: "visit";
+  workshopId: string;
+  tradeId: string;
+  offered: boolean;
+  job: JobResource;
+}
+
 /** A person's own data (their feed, their days off): theirs alone. */
 export interface PersonResource {
   kind: "person";
@@ -119,6 +132,10 @@ export type Action =
   | "drawing.addRevision"
   | "drawing.delete"
   // The job thread: one action per audience, each meaning "see and post there".
+  // A trade's own visits: read, and act on (answer, progress, running late, another day).
+  | "visit.read"
+  | "visit.act"
+  // The job thread: one action per audience, each meaning "see and post there".
   | "thread.audience.job"
   | "thread.audience.trades"
   | "thread.audience.workshop";
@@ -129,7 +146,8 @@ type Resource =
   | TradeResource
   | PersonResource
   | DrawingResource
-  | DrawingUploadResource;
+  | DrawingUploadResource
+  | VisitResource;
 
 const roleIn = (actor: Actor, workshopId: string, ...roles: MemberRole[]) => {
   const role = actor.memberships.get(workshopId);
@@ -173,8 +191,18 @@ export function canSee(actor: Actor, resource: Resource): boolean {
       return canSeeDrawing(actor, resource);
     case "drawingUpload":
       return canSee(actor, resource.job);
+    case "visit":
+      return (
+        isMember(actor, resource.workshopId) ||
+        customerOfJob(actor, resource.job) ||
+        holdsVisit(actor, resource)
+      );
   }
 }
+
+/** The person speaks for the trade holding this offered booking. */
+const holdsVisit = (actor: Actor, v: VisitResource) =>
+  v.offered && actor.trades.get(v.tradeId) === v.workshopId;
 
 const actorTradesIn = (actor: Actor, workshopId: string) =>
   [...actor.trades.entries()]
@@ -289,6 +317,28 @@ export function can(actor: Actor, action: Action, resource: Resource): boolean {
       );
     case "drawing.delete":
       return resource.kind === "drawing" && roleIn(actor, ws, "owner");
+    // A visit is the trade's own: only they read it as a visit and act on it (the workshop has
+    // its bookings routes; the customer sees visits on their job's timeline).
+    case "visit.read":
+    case "visit.act":
+      return resource.kind === "visit" && holdsVisit(actor, resource);
+    // Thread audiences: "Whole job" is the workshop, the trades on the job and the customer;
+    // "Trades & workshop" leaves the customer out; "Workshop only" is owners and fitters.
+    case "thread.audience.job":
+      if (resource.kind !== "job") return false;
+      return (
+        isMember(actor, ws) ||
+        tradeOnJob(actor, resource, resource.activeTradeIds) ||
+        customerOfJob(actor, resource)
+      );
+    case "thread.audience.trades":
+      if (resource.kind !== "job") return false;
+      return (
+        isMember(actor, ws) ||
+        tradeOnJob(actor, resource, resource.activeTradeIds)
+      );
+    case "thread.audience.workshop":
+      return resource.kind === "job" && isMember(actor, ws);
     // Thread audiences: "Whole job" is the workshop, the trades on the job and the customer;
     // "Trades & workshop" leaves the customer out; "Workshop only" is owners and fitters.
     case "thread.audience.job":

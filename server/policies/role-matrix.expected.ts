@@ -65,6 +65,17 @@ const jobStaff = (ok: number): Row => ({
   anon: 401,
 });
 
+/** A trade's own visit: theirs alone; the workshop and the job's customer know of it. */
+const ownVisit = (ok: number): Row => ({
+  owner: 403,
+  fitter: 403,
+  tradeOn: ok,
+  tradeOff: 404,
+  customer: 403,
+  other: 404,
+  anon: 401,
+});
+
 export const expected: Record<string, Row> = {
   "GET /health": all(200),
   "GET /openapi.json": all(200),
@@ -309,4 +320,16 @@ export const expected: Record<string, Row> = {
     other: 403,
     anon: 401,
   },
+
+  // A trade's own visits. Anyone signed in lists their own (none unless they speak for a trade).
+  // The request's booking is the job's plasterer's (tradeOn), confirmed: only they read it as a
+  // visit and act on it. The workshop and the job's customer know the booking (403); another
+  // trade — even one on the same job — and other customers do not (404).
+  "GET /me/visits": signedIn(200),
+  "GET /visits/:bookingId": ownVisit(200),
+  "POST /visits/:bookingId/answer": ownVisit(200),
+  "POST /visits/:bookingId/progress": ownVisit(200),
+  "POST /visits/:bookingId/running-late": ownVisit(200),
+  "POST /visits/:bookingId/extend/preview": ownVisit(200),
+  "POST /visits/:bookingId/extend": ownVisit(200),
 };

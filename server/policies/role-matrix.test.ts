@@ -163,6 +163,17 @@ async function bookingIn(
   return p.bookingId;
 }
 
+/** A fresh job's plasterer booking, confirmed (a trade acts only on a confirmed visit). */
+async function confirmedVisit(): Promise<string> {
+  const p = await freshProgramme();
+  await t.db.ds.manager.update(
+    Booking,
+    { id: p.bookingId },
+    { state: "confirmed" },
+  );
+  return p.bookingId;
+}
+
 /** A booking sent through the API as the owner, and its confirmation link's token. */
 async function linkedBooking(): Promise<{ bookingId: string; token: string }> {
   const bookingId = await bookingIn("draft");
@@ -566,6 +577,29 @@ const requests: Record<
   "PUT /me/days-off": async () => ({
     path: "/api/me/days-off",
     body: { daysOff: ["2031-01-06"] },
+  }),
+  "GET /me/visits": async () => ({ path: "/api/me/visits" }),
+  "GET /visits/:bookingId": async () => ({
+    path: `/api/visits/${await confirmedVisit()}`,
+  }),
+  "POST /visits/:bookingId/answer": async () => ({
+    path: `/api/visits/${await bookingIn("sent")}/answer`,
+    body: { answer: "confirm" },
+  }),
+  "POST /visits/:bookingId/progress": async () => ({
+    path: `/api/visits/${await confirmedVisit()}/progress`,
+    body: { mark: "started" },
+  }),
+  "POST /visits/:bookingId/running-late": async () => ({
+    path: `/api/visits/${await confirmedVisit()}/running-late`,
+    body: { arrivalTime: "10:30" },
+  }),
+  "POST /visits/:bookingId/extend/preview": async () => ({
+    path: `/api/visits/${await confirmedVisit()}/extend/preview`,
+  }),
+  "POST /visits/:bookingId/extend": async () => ({
+    path: `/api/visits/${await confirmedVisit()}/extend`,
+    body: { version: 1 },
   }),
 };
 

@@ -14,3 +14,4 @@ export * from "./drawings";
 export * from "./thread";
 export * from "./files";
 export * from "./attention";
+export * from "./visits";
