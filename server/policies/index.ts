@@ -131,7 +131,6 @@ export type Action =
   | "drawing.update"
   | "drawing.addRevision"
   | "drawing.delete"
-  // The job thread: one action per audience, each meaning "see and post there".
   // A trade's own visits: read, and act on (answer, progress, running late, another day).
   | "visit.read"
   | "visit.act"
@@ -322,23 +321,6 @@ export function can(actor: Actor, action: Action, resource: Resource): boolean {
     case "visit.read":
     case "visit.act":
       return resource.kind === "visit" && holdsVisit(actor, resource);
-    // Thread audiences: "Whole job" is the workshop, the trades on the job and the customer;
-    // "Trades & workshop" leaves the customer out; "Workshop only" is owners and fitters.
-    case "thread.audience.job":
-      if (resource.kind !== "job") return false;
-      return (
-        isMember(actor, ws) ||
-        tradeOnJob(actor, resource, resource.activeTradeIds) ||
-        customerOfJob(actor, resource)
-      );
-    case "thread.audience.trades":
-      if (resource.kind !== "job") return false;
-      return (
-        isMember(actor, ws) ||
-        tradeOnJob(actor, resource, resource.activeTradeIds)
-      );
-    case "thread.audience.workshop":
-      return resource.kind === "job" && isMember(actor, ws);
     // Thread audiences: "Whole job" is the workshop, the trades on the job and the customer;
     // "Trades & workshop" leaves the customer out; "Workshop only" is owners and fitters.
     case "thread.audience.job":

@@ -60,8 +60,20 @@ export async function linkPage(
   token: string,
 ): Promise<LinkPageResponse> {
   const { l, current } = await resolve(ds.manager, token);
+  return bookingPage(ds.manager, l, current);
+}
+
+/**
+ * The confirmation page's content for one loaded booking: by link (`current` false for a link
+ * issued for earlier dates), or for the signed-in trade's visit page (always current).
+ */
+export async function bookingPage(
+  m: EntityManager,
+  l: Loaded,
+  current: boolean,
+): Promise<LinkPageResponse> {
   const b = l.booking;
-  const data = await loadProgramme(ds.manager, l.job, l.workshop);
+  const data = await loadProgramme(m, l.job, l.workshop);
   const result = schedule(data.input);
   const r = result.tasks.find((t) => t.id === l.task.id)!;
   const names = new Map(data.tasks.map((t) => [t.id, t]));
