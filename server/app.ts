@@ -34,6 +34,7 @@ import { registerTradeRoutes } from "./modules/trades/trades.router";
 import { registerVisitRoutes } from "./modules/visits/visits.router";
 import { registerAttentionRoutes } from "./modules/attention/attention.router";
 import { registerThreadRoutes } from "./modules/thread/thread.router";
+import { registerTimelineRoutes } from "./modules/timeline/timeline.router";
 import {
   DEFAULT_NOTICE_DELAY_MS,
   sendThreadNotices,
@@ -200,6 +201,7 @@ export function createApp(deps: AppDeps): SitecueApp {
     noticeDelayMs: deps.threadNoticeDelayMs ?? DEFAULT_NOTICE_DELAY_MS,
   };
   registerThreadRoutes(api, threadDeps);
+  registerTimelineRoutes(api, deps.ds);
   registerAttentionRoutes(api, deps.ds);
   registerDrawingRoutes(api, { ds: deps.ds, files, appUrl: deps.appUrl });
   if (deps.mailbox) registerDevMailRoutes(api, deps.mailbox);

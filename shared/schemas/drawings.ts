@@ -6,6 +6,7 @@ import {
   tradeKindSchema,
   tradeKinds,
 } from "./common";
+import { storedFileViewSchema } from "./files";
 
 /*
  * Drawings, templates and site photos on a job (issue 7). A drawing has revisions Rev A, Rev B …;
@@ -140,17 +141,8 @@ export const updateDrawingBodySchema = z
   });
 export type UpdateDrawingBody = z.input<typeof updateDrawingBodySchema>;
 
-/** The stored file of one revision (same shape as the files module's StoredFileView). */
-export const drawingFileViewSchema = z.object({
-  id: idSchema,
-  name: z.string(),
-  mimeType: z.string(),
-  sizeBytes: z.number(),
-  hasThumbnail: z.boolean(),
-  width: z.number().nullable(),
-  height: z.number().nullable(),
-  uploadedAt: z.string(),
-});
+/** The stored file of one revision: the files module's view. */
+export const drawingFileViewSchema = storedFileViewSchema;
 
 export const drawingRevisionViewSchema = z.object({
   letter: revisionLetterSchema,

@@ -7,6 +7,7 @@ import type {
 } from "../../../shared/schemas";
 import type { ProgrammeResult } from "../../../shared/programme";
 import type { StoredFile } from "../files/files.entity";
+import { presentFile } from "../files/files.presenter";
 import type { ProgrammeData } from "../programme/programme-input";
 import type { Task } from "../programme/programme.entity";
 import type { Trade } from "../trades/trades.entity";
@@ -48,16 +49,7 @@ export function presentRevision(
       tradeName: r.uploaderTrade?.businessName ?? null,
     },
     uploadedAt: r.revision.createdAt.toISOString(),
-    file: {
-      id: r.file.id,
-      name: r.file.originalName,
-      mimeType: r.file.mimeType,
-      sizeBytes: r.file.sizeBytes,
-      hasThumbnail: r.file.thumbnailKey !== null,
-      width: r.file.width,
-      height: r.file.height,
-      uploadedAt: r.file.createdAt.toISOString(),
-    },
+    file: presentFile(r.file),
     downloadUrl: `${base}/file`,
     previewUrl: PREVIEWABLE.has(r.file.mimeType)
       ? `${base}/file?inline=1`

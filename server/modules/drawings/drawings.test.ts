@@ -126,7 +126,8 @@ interface Upload {
   shareTradeKinds?: string[];
   shareTradeIds?: string[];
   shareWithCustomer?: boolean;
-  file?: { bytes: Buffer; name: string };
+  /** `claimedType`: the Content-Type the client sends for the part (the server must not trust it). */
+  file?: { bytes: Buffer; name: string; claimedType?: string };
 }
 
 /** POST /jobs/:jobId/drawings as multipart, the way the browser's FormData sends it. */
@@ -143,7 +144,11 @@ function upload(who: Session, jobId: string, u: Upload) {
     req = req.field("shareTradeKinds", k);
   for (const id of u.shareTradeIds ?? []) req = req.field("shareTradeIds", id);
   if (u.shareWithCustomer) req = req.field("shareWithCustomer", "true");
-  if (u.file) req = req.attach("file", u.file.bytes, u.file.name);
+  if (u.file)
+    req = req.attach("file", u.file.bytes, {
+      filename: u.file.name,
+      ...(u.file.claimedType ? { contentType: u.file.claimedType } : {}),
+    });
   return req;
 }
 
@@ -208,8 +213,12 @@ describe("upload, download and revisions", () => {
       ],
       shareTradeKinds: ["plasterer", "electrician"],
       shareWithCustomer: true,
-      // The browser's claimed type would be wrong on purpose here: the server sniffs the content.
-      file: { bytes: pdfBytes, name: "elevation.pdf" },
+      // The part claims to be plain text, wrongly: the server goes by the content.
+      file: {
+        bytes: pdfBytes,
+        name: "elevation.pdf",
+        claimedType: "text/plain",
+      },
     }).expect(201);
     elevation = drawingDetailSchema.parse(res.body);
     expect(elevation.currentRevision).toBe("A");
