@@ -25,6 +25,7 @@ import {
   DrawingRevision,
   DrawingTask,
 } from "../modules/drawings/drawings.entity";
+import { TimelineView } from "../modules/timeline/timeline.entity";
 
 /** Every entity, listed once (the data source and tests use this list). */
 export const entities = [
@@ -52,4 +53,5 @@ export const entities = [
   Drawing,
   DrawingRevision,
   DrawingTask,
+  TimelineView,
 ];

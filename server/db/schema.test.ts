@@ -78,7 +78,7 @@ it("undoing and redoing the migrations works", async () => {
     ).toEqual(["migrations"]);
     await ds.runMigrations({ transaction: "each" });
     const after = await ds.query("SHOW TABLES");
-    expect(after.length).toBe(26);
+    expect(after.length).toBe(27);
   } finally {
     await ds.destroy();
   }

@@ -137,7 +137,10 @@ export type Action =
   // The job thread: one action per audience, each meaning "see and post there".
   | "thread.audience.job"
   | "thread.audience.trades"
-  | "thread.audience.workshop";
+  | "thread.audience.workshop"
+  // The customer's timeline of visits and the dates they will be away.
+  | "timeline.read"
+  | "awayDates.update";
 
 type Resource =
   | WorkshopResource
@@ -338,6 +341,12 @@ export function can(actor: Actor, action: Action, resource: Resource): boolean {
       );
     case "thread.audience.workshop":
       return resource.kind === "job" && isMember(actor, ws);
+    // The timeline is the customer's own view of their job (the workshop may look at it too);
+    // away dates are theirs to give, or the workshop's on their behalf. Trades: neither.
+    case "timeline.read":
+    case "awayDates.update":
+      if (resource.kind !== "job") return false;
+      return isMember(actor, ws) || customerOfJob(actor, resource);
   }
 }
 

@@ -332,4 +332,37 @@ export const expected: Record<string, Row> = {
   "POST /visits/:bookingId/running-late": ownVisit(200),
   "POST /visits/:bookingId/extend/preview": ownVisit(200),
   "POST /visits/:bookingId/extend": ownVisit(200),
+
+  // The customer's timeline of visits and the dates they will be away: the customer of the job
+  // and the workshop (who may look at what the customer sees, and enter dates given by phone);
+  // a trade on the job sees the job but not the customer's page (403).
+  "GET /jobs/:jobId/timeline": {
+    owner: 200,
+    fitter: 200,
+    tradeOn: 403,
+    tradeOff: 404,
+    customer: 200,
+    other: 404,
+    anon: 401,
+  },
+  "POST /jobs/:jobId/timeline/seen": {
+    owner: 200,
+    fitter: 200,
+    tradeOn: 403,
+    tradeOff: 404,
+    customer: 200,
+    other: 404,
+    anon: 401,
+  },
+  "PUT /jobs/:jobId/away-dates": {
+    owner: 200,
+    fitter: 200,
+    tradeOn: 403,
+    tradeOff: 404,
+    customer: 200,
+    other: 404,
+    anon: 401,
+  },
+  // Bookings on days a customer is away: the workshop's to sort out.
+  "GET /workshops/:workshopId/away-clashes": staff(200),
 };

@@ -601,6 +601,32 @@ const requests: Record<
     path: `/api/visits/${await confirmedVisit()}/extend`,
     body: { version: 1 },
   }),
+  "GET /jobs/:jobId/timeline": async () => ({
+    path: `/api/jobs/${await freshJob()}/timeline`,
+  }),
+  "POST /jobs/:jobId/timeline/seen": async () => ({
+    path: `/api/jobs/${await freshJob()}/timeline/seen`,
+    body: { version: 1 },
+  }),
+  // A week about 200 days ahead: inside the year the customer may mark.
+  "PUT /jobs/:jobId/away-dates": async () => {
+    const from = new Date(Date.now() + 200 * 86_400_000);
+    const to = new Date(from.getTime() + 6 * 86_400_000);
+    return {
+      path: `/api/jobs/${await freshJob()}/away-dates`,
+      body: {
+        ranges: [
+          {
+            from: from.toISOString().slice(0, 10),
+            to: to.toISOString().slice(0, 10),
+          },
+        ],
+      },
+    };
+  },
+  "GET /workshops/:workshopId/away-clashes": async () => ({
+    path: `/api/workshops/${ids.workshopId}/away-clashes`,
+  }),
 };
 
 async function sessionFor(role: MatrixRole): Promise<Session> {

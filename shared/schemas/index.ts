@@ -13,5 +13,6 @@ export * from "./feeds";
 export * from "./drawings";
 export * from "./thread";
 export * from "./files";
+export * from "./timeline";
 export * from "./attention";
 export * from "./visits";

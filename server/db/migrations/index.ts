@@ -6,6 +6,7 @@ import { CalendarFeeds1764979200000 } from "./1764979200000-calendar-feeds";
 import { Thread1765238400000 } from "./1765238400000-Thread";
 import { StoredFiles1765065600000 } from "./1765065600000-stored-files";
 import { Drawings1765152000000 } from "./1765152000000-Drawings";
+import { TimelineViews1765324800000 } from "./1765324800000-timeline-views";
 
 /** Migration classes in order (classes, not a glob, so vitest and tsx load them alike). */
 export const migrations = [
@@ -14,7 +15,8 @@ export const migrations = [
   BookingAnswers1764806400000,
   Outbox1764892800000,
   CalendarFeeds1764979200000,
-  Thread1765238400000,
   StoredFiles1765065600000,
   Drawings1765152000000,
+  Thread1765238400000,
+  TimelineViews1765324800000,
 ];
