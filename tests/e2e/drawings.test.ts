@@ -8,6 +8,7 @@
 // API); the height caution shows. The plasterer, on a 375 px phone, sees the drawing and adds a
 // template photo to their own task from the camera input. axe-core on the drawing page.
 import fs from "node:fs";
+import os from "node:os";
 import path from "node:path";
 import sharp from "sharp";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -316,11 +317,14 @@ describe("scenario 5: drawings and templates", () => {
     expect(await file.getAttribute("accept")).toContain("application/pdf");
 
     // Checked in the browser first, in the server's words: too large, and SVG.
-    await file.setInputFiles({
-      name: "site-survey.pdf",
-      mimeType: "application/pdf",
-      buffer: Buffer.alloc(26 * 1024 * 1024, 0x25),
-    });
+    // A path, not a buffer: a local browser reads the file itself (no 26 MB over the protocol).
+    const big = path.join(
+      fs.mkdtempSync(path.join(os.tmpdir(), "sitecue-")),
+      "site-survey.pdf",
+    );
+    fs.writeFileSync(big, Buffer.alloc(26 * 1024 * 1024, 0x25));
+    await file.setInputFiles(big);
+    fs.rmSync(path.dirname(big), { recursive: true, force: true });
     await visible(
       form.getByText("site-survey.pdf is larger than the 25 MB limit."),
     );
@@ -639,6 +643,14 @@ describe("scenario 5: drawings and templates", () => {
     await visible(
       form.getByRole("progressbar", { name: "Uploading coving-template.jpg" }),
     );
+    await page.waitForFunction(
+      () =>
+        Number(
+          document
+            .querySelector('[role="progressbar"]')
+            ?.getAttribute("aria-valuenow") ?? 0,
+        ) >= 20,
+    );
     await shot(page, "drawings-10-uploading-plasterer-phone");
     await visible(
       region.getByText(
@@ -688,6 +700,54 @@ describe("scenario 5: drawings and templates", () => {
         name: "Template for Template coving",
       }),
     );
+    expect(owner.problems).toEqual([]);
+  });
+
+  it("the customer sees the elevation only once the owner shares it with them", async () => {
+    const rosa = await signInAs(demoAccounts.customer.email, phone);
+    await rosa.page.goto(`${t.url}/jobs/${jobId}`);
+    const region = drawingsRegion(rosa.page);
+    // Shared with two trades; the plasterer's template goes to the workshop only.
+    await visible(region.getByText("No drawings yet"));
+    expect(await region.getByRole("button").count()).toBe(0);
+
+    const { page } = owner;
+    await page.goto(`${t.url}/jobs/${jobId}/drawings/${drawingId}`);
+    const sharing = page.getByRole("region", { name: "Shared with" });
+    await sharing.getByRole("button", { name: "Change sharing" }).click();
+    const form = page.getByRole("form", { name: "Change sharing" });
+    await form
+      .getByRole("group", { name: "The customer" })
+      .getByRole("checkbox")
+      .check();
+    await form.getByRole("button", { name: "Save sharing" }).click();
+    await visible(
+      sharing.getByText(`${plasterer}, ${electrician} and the customer`),
+    );
+    await shot(page, "drawings-13-shared-with-customer-desktop");
+
+    await rosa.page.reload();
+    const item = region
+      .getByRole("listitem")
+      .filter({ has: rosa.page.getByRole("heading", { name: drawingTitle }) });
+    await visible(item.getByText("Rev B", { exact: true }));
+    expect(await region.getByRole("listitem").count()).toBe(1);
+    await item.getByRole("link", { name: drawingTitle }).click();
+    await visible(
+      rosa.page.getByRole("img", {
+        name: `${drawingTitle}, Rev B, page 1 of 2`,
+      }),
+      20_000,
+    );
+    // A booking is a visit to the customer: a sent one reads "To be confirmed".
+    const linked = rosa.page.getByRole("list", { name: "Linked tasks" });
+    const template = linked.getByRole("listitem").filter({
+      has: rosa.page.getByRole("heading", { name: "Template coving" }),
+    });
+    await visible(template.getByText("Visit:"));
+    await visible(template.getByText("To be confirmed"));
+    await shot(rosa.page, "drawings-14-drawing-page-customer-phone");
+    expect(rosa.problems).toEqual([]);
     expect(owner.problems).toEqual([]);
   });
 });

@@ -42,6 +42,7 @@ export function DrawingRoute() {
         drawingId={drawingId}
         shareOptions={shareOptionsOf(job.data)}
         cautionFor={caution}
+        asCustomer={job.data?.viewerRole === "customer"}
         onDeleted={() =>
           navigate(`/jobs/${encodeURIComponent(jobId)}`, { replace: true })
         }

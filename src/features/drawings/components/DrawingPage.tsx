@@ -48,6 +48,8 @@ interface DrawingPageProps {
   /** A linked task's safety caution, when it has hazards (from the job's task briefs). */
   cautionFor: (taskId: string) => string | null;
   onDeleted: () => void;
+  /** The customer sees a booking as a visit (Words table), confirmed or to be confirmed. */
+  asCustomer?: boolean;
 }
 
 const nextLetter = (letter: string) =>
@@ -63,6 +65,7 @@ export function DrawingPage({
   shareOptions,
   cautionFor,
   onDeleted,
+  asCustomer = false,
 }: DrawingPageProps) {
   const drawing = useDrawing(drawingId);
   const [shown, setShown] = useState<string | null>(null);
@@ -123,7 +126,11 @@ export function DrawingPage({
               <EmptyState title="No file yet" />
             )}
           </Section>
-          <LinkedTasks tasks={d.tasks} cautionFor={cautionFor} />
+          <LinkedTasks
+            tasks={d.tasks}
+            cautionFor={cautionFor}
+            asCustomer={asCustomer}
+          />
         </div>
         <div className="flex min-w-0 flex-col gap-6">
           <Section
@@ -339,9 +346,11 @@ const readinessTone = {
 function LinkedTasks({
   tasks,
   cautionFor,
+  asCustomer,
 }: {
   tasks: DrawingTaskView[];
   cautionFor: (taskId: string) => string | null;
+  asCustomer: boolean;
 }) {
   return (
     <Section
@@ -395,9 +404,14 @@ function LinkedTasks({
                 </div>
                 {t.booking ? (
                   <p className="flex flex-wrap items-center gap-2 text-sm">
-                    <span className="text-ink-soft">Booked:</span>
+                    <span className="text-ink-soft">
+                      {asCustomer ? "Visit:" : "Booked:"}
+                    </span>
                     <span>{t.booking.tradeName}</span>
-                    <BookingStateBadge state={t.booking.state} />
+                    <BookingStateBadge
+                      state={t.booking.state}
+                      asVisit={asCustomer}
+                    />
                   </p>
                 ) : null}
                 {caution ? <CautionNote>{caution}</CautionNote> : null}

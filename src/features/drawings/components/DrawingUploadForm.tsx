@@ -1,4 +1,4 @@
-import { useState, type FormEvent } from "react";
+import { useEffect, useRef, useState, type FormEvent } from "react";
 import {
   createDrawingFieldsSchema,
   drawingKindLabels,
@@ -62,6 +62,9 @@ export function DrawingUploadForm({
   const [errors, setErrors] = useState<FieldErrors>({});
   const send = useDrawingUpload(jobId);
   const busy = send.isPending;
+  // The form opens from a button: keyboard users land on its first field.
+  const fileInput = useRef<HTMLInputElement>(null);
+  useEffect(() => fileInput.current?.focus(), []);
 
   const serverErrors = send.isError ? serverFieldErrors(send.error) : {};
   const fieldError = (name: string) => errors[name] ?? serverErrors[name];
@@ -118,6 +121,7 @@ export function DrawingUploadForm({
       className="flex flex-col gap-4"
     >
       <FilePicker
+        ref={fileInput}
         label={isTrade ? "Photo or file" : "File"}
         file={file}
         onChange={(f) => {

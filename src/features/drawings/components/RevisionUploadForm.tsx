@@ -1,4 +1,4 @@
-import { useState, type FormEvent } from "react";
+import { useEffect, useRef, useState, type FormEvent } from "react";
 import {
   addRevisionFieldsSchema,
   UPLOAD_ACCEPT,
@@ -38,6 +38,9 @@ export function RevisionUploadForm({
   const [errors, setErrors] = useState<FieldErrors>({});
   const send = useDrawingUpload(drawing.jobId);
   const busy = send.isPending;
+  // The form opens from a button: keyboard users land on its first field.
+  const fileInput = useRef<HTMLInputElement>(null);
+  useEffect(() => fileInput.current?.focus(), []);
   const serverErrors = send.isError ? serverFieldErrors(send.error) : {};
   const fieldError = (name: string) => errors[name] ?? serverErrors[name];
   const formError = !send.isError
@@ -72,6 +75,7 @@ export function RevisionUploadForm({
       className="flex flex-col gap-4"
     >
       <FilePicker
+        ref={fileInput}
         label={`File for Rev ${nextLetter}`}
         file={file}
         onChange={(f) => {
