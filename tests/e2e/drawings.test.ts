@@ -19,6 +19,7 @@ import type {
   ProgrammeResponse,
 } from "../../shared/schemas";
 import { startTestApp, type TestApp } from "../setup/test-app";
+import { sampleDxf } from "../setup/uploads";
 import {
   demoAccounts,
   demoJobTitles,
@@ -749,5 +750,50 @@ describe("scenario 5: drawings and templates", () => {
     await shot(rosa.page, "drawings-14-drawing-page-customer-phone");
     expect(rosa.problems).toEqual([]);
     expect(owner.problems).toEqual([]);
+  });
+
+  it("a DXF drawing is offered as a download only", async () => {
+    const { page, problems } = owner;
+    await page.goto(`${t.url}/jobs/${jobId}`);
+    const region = drawingsRegion(page);
+    await region.getByRole("button", { name: "Upload drawing" }).click();
+    const form = page.getByRole("form", { name: "Upload drawing" });
+    const dxf = sampleDxf();
+    await form.getByLabel("File", { exact: true }).setInputFiles({
+      name: "plan-alcoves.dxf",
+      mimeType: "application/octet-stream",
+      buffer: dxf,
+    });
+    await form.getByLabel("Title").fill("Plan, alcoves (CAD)");
+    await form
+      .getByRole("checkbox", { name: "Fix carcasses & scribes", exact: true })
+      .check();
+    await form.getByRole("button", { name: "Upload Rev A" }).click();
+    await region
+      .getByRole("link", { name: "Plan, alcoves (CAD)" })
+      .click({ timeout: 20_000 });
+    const download = page.getByRole("link", { name: "Download (DXF)" });
+    await visible(download);
+    expect(await download.getAttribute("href")).toMatch(
+      /\/revisions\/A\/file$/,
+    );
+    await visible(page.getByText(/DXF drawings open in a CAD program/));
+    expect(await page.locator("canvas").count()).toBe(0);
+    // The carcasses are fixed to the wall: the tall-unit caution comes with the task.
+    const programme = await apiGet<ProgrammeResponse>(
+      page,
+      `/api/jobs/${jobId}/programme`,
+    );
+    const carcasses = programme.tasks.find(
+      (x) => x.name === "Fix carcasses & scribes",
+    )!;
+    await visible(page.getByText(carcasses.caution!));
+    await visible(
+      page.getByText(expectedReadiness(programme, carcasses.id), {
+        exact: true,
+      }),
+    );
+    await shot(page, "drawings-15-dxf-desktop");
+    expect(problems).toEqual([]);
   });
 });
