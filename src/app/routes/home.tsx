@@ -17,6 +17,7 @@ import { errorMessage } from "../../lib/api-client";
 import type { Membership } from "../../features/auth/viewer";
 import { useActiveWorkshop } from "../active-workshop";
 import { useViewer } from "../layout/guards";
+import { CustomerHome } from "./customer-home";
 
 function NewJobPanel({
   workshop,
@@ -76,7 +77,7 @@ export function HomeRoute() {
   return (
     <>
       <PageHeader
-        title={isMember ? "Jobs" : "Your jobs"}
+        title={isMember ? "Jobs" : isCustomer ? "Your visits" : "Your jobs"}
         eyebrow={active?.workshopName}
         description={
           isMember
@@ -122,6 +123,11 @@ export function HomeRoute() {
               ? "When the workshop adds your install, it appears here."
               : "When a workshop books you for a job, it appears here."}
         </EmptyState>
+      ) : isCustomer ? (
+        // The customer's home is their timeline of visits, not a list of jobs.
+        <CustomerHome
+          jobs={workshopJobs.filter((j) => j.viewerRole === "customer")}
+        />
       ) : (
         <div className="flex flex-col gap-8">
           {workshopJobs.length > 0 ? (

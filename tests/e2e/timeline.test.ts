@@ -1,0 +1,293 @@
+// Scenario 3 of the brief in the browser (issue 8, customer part): the demo customer signs in on
+// a 375 px phone and her home is the timeline of visits — each trade by kind and business, the
+// day, the arrival window and what to prepare, the workshop's own visits by its name. Then the
+// owner slips "Hang doors" through the programme's apply (scenario 4) and, on her next look, the
+// electrician's moved visit stands out as changed with its old day. She marks a day away on a
+// visit already booked, and is told the workshop knows. Chromium against the built client
+// (production CSP), screenshots of each step, axe-core on each page.
+import fs from "node:fs";
+import path from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Browser, Locator, Page } from "playwright-core";
+import type { ProgrammeResponse } from "../../shared/schemas";
+import { signIn, startTestApp, type TestApp } from "../setup/test-app";
+import {
+  demoAccounts,
+  DEMO_PASSWORD,
+  weekdaysFrom,
+} from "../factories/demo-scenario";
+import { Job } from "../../server/modules/jobs/jobs.entity";
+import { localToday } from "../../server/modules/jobs/jobs.presenter";
+import { launchBrowser, phone, shot, visible, watchConsole } from "./browser";
+
+let t: TestApp;
+let browser: Browser;
+const today = localToday("Europe/London");
+const day = (n: number) => weekdaysFrom(today, n);
+
+beforeAll(async () => {
+  t = await startTestApp({ demo: true, listen: true });
+  browser = await launchBrowser();
+}, 120_000);
+afterAll(async () => {
+  await browser?.close();
+  await t?.close();
+});
+
+const WEEKDAY = ["Sun", "Mon", "Tue", "Wed", "Thu", "Fri", "Sat"];
+const MONTH = "Jan Feb Mar Apr May Jun Jul Aug Sep Oct Nov Dec".split(" ");
+/** "Thu 5 Mar" as the screens write it (the year only outside this year). */
+function dayText(local: string): string {
+  const d = new Date(`${local.slice(0, 10)}T12:00:00Z`);
+  const year =
+    d.getUTCFullYear() !== new Date().getFullYear()
+      ? ` ${d.getUTCFullYear()}`
+      : "";
+  return `${WEEKDAY[d.getUTCDay()]} ${d.getUTCDate()} ${MONTH[d.getUTCMonth()]}${year}`;
+}
+
+async function axeSeriousOrWorse(page: Page) {
+  // The production CSP (script-src 'self') refuses an injected <script> (addScriptTag), so
+  // axe is evaluated through the DevTools protocol instead, with the page's CSP left on.
+  await page.evaluate(
+    fs.readFileSync(
+      path.resolve(
+        import.meta.dirname,
+        "../../node_modules/axe-core/axe.min.js",
+      ),
+      "utf8",
+    ),
+  );
+  const result = await page.evaluate(async () => {
+    const axe = (
+      window as unknown as {
+        axe: {
+          run: () => Promise<{
+            violations: {
+              id: string;
+              impact: string | null;
+              help: string;
+              nodes: { target: string[] }[];
+            }[];
+          }>;
+        };
+      }
+    ).axe;
+    return axe.run();
+  });
+  return result.violations
+    .filter((v) => v.impact === "serious" || v.impact === "critical")
+    .map(
+      (v) =>
+        `${v.id} (${v.impact}): ${v.help} — ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`,
+    );
+}
+
+/** The visit card whose heading is `who` and whose work is `task`. */
+const visitCard = (page: Page, who: string, task: string): Locator =>
+  page
+    .getByRole("list", { name: "Coming visits" })
+    .getByTestId("visit")
+    .filter({ has: page.getByRole("heading", { name: who, exact: true }) })
+    .filter({ hasText: task });
+
+/** Waits for the page to tell the server the timeline was seen. */
+const seenPosted = (page: Page) =>
+  page.waitForResponse(
+    (r) =>
+      r.url().endsWith("/timeline/seen") &&
+      r.request().method() === "POST" &&
+      r.status() === 200,
+    { timeout: 15_000 },
+  );
+
+describe("the customer's timeline on a phone", () => {
+  let page: Page;
+  let problems: string[];
+
+  it("Rosa sees each trade's visit with its day, arrival window and what to prepare", async () => {
+    const context = await browser.newContext({ viewport: phone });
+    page = await context.newPage();
+    problems = watchConsole(page);
+    await page.goto(`${t.url}/sign-in`);
+    await page.getByLabel("E-mail").fill(demoAccounts.customer.email);
+    await page.getByLabel("Password").fill(DEMO_PASSWORD);
+    const seen = seenPosted(page);
+    await page.getByRole("button", { name: "Sign in" }).click();
+    await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"));
+    await visible(page.getByRole("heading", { name: "Your visits" }));
+
+    const template = visitCard(
+      page,
+      "Plasterer — Ashby Plaster & Coving",
+      "Template coving",
+    );
+    await visible(template);
+    await expect
+      .poll(() => template.getByTestId("visit-days").textContent())
+      .toBe(dayText(day(1)));
+    expect(await template.getByTestId("visit-arrival").textContent()).toBe(
+      "Morning",
+    );
+
+    const coving = visitCard(
+      page,
+      "Plasterer — Ashby Plaster & Coving",
+      "Fit coving & make good",
+    );
+    expect(await coving.getByTestId("visit-days").textContent()).toBe(
+      dayText(day(4)),
+    );
+    expect(await coving.getByTestId("visit-arrival").textContent()).toBe(
+      "08:00–09:00",
+    );
+    expect(await coving.getByTestId("visit-prepare").textContent()).toBe(
+      "Expect dust: keep the room closed and pets out.",
+    );
+
+    const secondFix = visitCard(
+      page,
+      "Electrician — Brightwire Electrical",
+      "Electrician second fix",
+    );
+    expect(await secondFix.getByTestId("visit-days").textContent()).toBe(
+      dayText(day(3)),
+    );
+    expect(await secondFix.getByTestId("visit-arrival").textContent()).toBe(
+      "Afternoon",
+    );
+
+    const paint = visitCard(
+      page,
+      "Decorator — Kestrel Decorating",
+      "Fill, caulk & paint",
+    );
+    expect(await paint.getByTestId("visit-days").textContent()).toBe(
+      `${dayText(day(6))} – ${dayText(day(7))}`,
+    );
+    expect(await paint.getByTestId("visit-arrival").textContent()).toBe(
+      "All day",
+    );
+    expect(await paint.getByTestId("visit-prepare").textContent()).toBe(
+      "Keep the room free of dust for painting; windows closed.",
+    );
+
+    // The workshop's own fitting visits go by the workshop's name.
+    const carcasses = visitCard(
+      page,
+      "Hollin & Vane Joinery",
+      "Fix carcasses & scribes",
+    );
+    expect(await carcasses.getByTestId("visit-prepare").textContent()).toBe(
+      "Clear both alcoves and the floor in front of them.",
+    );
+    expect(await page.getByTestId("handover").textContent()).toBe(
+      dayText(day(8)),
+    );
+
+    // Nothing changed yet, and nothing the customer should not see.
+    expect(await page.locator('[data-changed="true"]').count()).toBe(0);
+    const text = await page.locator("main").innerText();
+    for (const never of [
+      "out of plumb",
+      "Sprayed doors",
+      "float",
+      "Float",
+      "Needs re-confirming",
+      "01632 960 114",
+      "dev@ashbyplaster.example.test",
+      "Tarn Floors",
+    ])
+      expect(text, never).not.toContain(never);
+
+    // The rest of her home: the thread, drawings shared with her, the feed, away dates.
+    await visible(page.getByRole("heading", { name: /^Thread/ }));
+    await visible(page.getByRole("heading", { name: "Drawings" }));
+    await visible(page.getByRole("heading", { name: "Calendar feed" }));
+    await visible(page.getByRole("heading", { name: "Dates you'll be away" }));
+
+    await seen;
+    await shot(page, "timeline-01-customer-home-phone");
+    expect(await axeSeriousOrWorse(page)).toEqual([]);
+  });
+
+  it("after the owner slips Hang doors, the electrician's moved visit shows as changed with its old day", async () => {
+    const alcoves = await t.db.ds.manager.findOneByOrFail(Job, {
+      title: "Alcove cabinets, front room",
+    });
+    const owner = await signIn(t, demoAccounts.owner.email);
+    const p = (
+      await owner.agent.get(`/api/jobs/${alcoves.id}/programme`).expect(200)
+    ).body as ProgrammeResponse;
+    const doors = p.tasks.find((x) => x.name === "Hang doors")!;
+    await owner.agent
+      .post(`/api/jobs/${alcoves.id}/programme/apply`)
+      .set("X-CSRF-Token", owner.csrf)
+      .send({
+        version: p.version,
+        changes: [{ taskId: doors.id, notEarlierThan: day(5) }],
+      })
+      .expect(200);
+
+    await page.reload();
+    const secondFix = visitCard(
+      page,
+      "Electrician — Brightwire Electrical",
+      "Electrician second fix",
+    );
+    await visible(secondFix);
+    await expect
+      .poll(() => secondFix.getAttribute("data-changed"))
+      .toBe("true");
+    expect(await secondFix.getByText("Changed", { exact: true }).count()).toBe(
+      1,
+    );
+    expect(await secondFix.getByTestId("visit-was").textContent()).toBe(
+      `Was ${dayText(day(3))}`,
+    );
+    const newDay = (await secondFix.getByTestId("visit-days").textContent())!;
+    expect(newDay).not.toBe(dayText(day(3)));
+    // The workshop's own "Hang doors" visit moved too; the decorator's did not.
+    const hang = visitCard(page, "Hollin & Vane Joinery", "Hang doors");
+    expect(await hang.getAttribute("data-changed")).toBe("true");
+    expect(await hang.getByTestId("visit-days").textContent()).toBe(
+      dayText(day(5)),
+    );
+    const paint = visitCard(
+      page,
+      "Decorator — Kestrel Decorating",
+      "Fill, caulk & paint",
+    );
+    expect(await paint.getAttribute("data-changed")).toBeNull();
+    await visible(page.getByText(/have changed since you last looked/));
+    await shot(page, "timeline-02-changed-after-slip-phone");
+    expect(await axeSeriousOrWorse(page)).toEqual([]);
+  });
+
+  it("she marks a day away on a booked visit and is told the workshop knows", async () => {
+    const coving = visitCard(
+      page,
+      "Plasterer — Ashby Plaster & Coving",
+      "Fit coving & make good",
+    );
+    const away = page.getByRole("form", { name: "Add away dates" });
+    await away.getByLabel("First day away").fill(day(4));
+    await away.getByLabel("Last day away").fill(day(4));
+    await away.getByRole("button", { name: "Add away dates" }).click();
+    await visible(page.getByTestId("away-range"));
+    expect(await page.getByTestId("away-range").first().innerText()).toContain(
+      dayText(day(4)),
+    );
+    await visible(coving.getByTestId("visit-away"));
+    expect(await coving.getByTestId("visit-away").textContent()).toBe(
+      `You’ll be away on ${dayText(day(4))} — the workshop has been told.`,
+    );
+    await page
+      .getByRole("heading", { name: "Dates you'll be away" })
+      .scrollIntoViewIfNeeded();
+    await shot(page, "timeline-03-away-day-phone");
+    expect(await axeSeriousOrWorse(page)).toEqual([]);
+    expect(problems).toEqual([]);
+    await page.context().close();
+  });
+});
