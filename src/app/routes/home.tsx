@@ -1,5 +1,6 @@
 import { useState } from "react";
 import { useNavigate } from "react-router-dom";
+import { AttentionList } from "../../features/attention/components/AttentionList";
 import { useCustomers } from "../../features/customers/api/list-customers";
 import { AddCustomerForm } from "../../features/customers/components/AddCustomerForm";
 import { useJobs } from "../../features/jobs/api/list-jobs";
@@ -130,6 +131,8 @@ export function HomeRoute() {
         />
       ) : (
         <div className="flex flex-col gap-8">
+          {/* Members: what needs the workshop now, above the jobs it comes from. */}
+          {isMember ? <AttentionList workshopId={active.workshopId} /> : null}
           {workshopJobs.length > 0 ? (
             <JobsTable
               jobs={workshopJobs}

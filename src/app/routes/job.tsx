@@ -1,6 +1,12 @@
 import { lazy, Suspense, useState } from "react";
 import { useQueryClient } from "@tanstack/react-query";
-import { Link, useNavigate, useParams } from "react-router-dom";
+import {
+  Link,
+  useLocation,
+  useNavigate,
+  useParams,
+  useSearchParams,
+} from "react-router-dom";
 import { useJob } from "../../features/jobs/api/get-job";
 import { jobKeys } from "../../features/jobs/api/keys";
 import { JobBookings } from "../../features/bookings/components/JobBookings";
@@ -23,6 +29,7 @@ import {
   Section,
 } from "../../components/ui";
 import { isApiError } from "../../lib/api-client";
+import { useScrollTarget } from "../../lib/use-scroll-target";
 import { shareOptionsOf } from "./drawing";
 
 // FullCalendar loads only when a member opens a job, not with the main bundle.
@@ -46,6 +53,22 @@ export function JobRoute() {
   const job = useJob(jobId);
   const queryClient = useQueryClient();
   const [editing, setEditing] = useState(false);
+  // Links to one booking, one task to book or one section (e.g. from the attention list).
+  const [params] = useSearchParams();
+  const { hash } = useLocation();
+  const bookingTarget = params.get("booking");
+  const bookTarget = params.get("book");
+  useScrollTarget(
+    job.isSuccess
+      ? bookingTarget
+        ? `booking-${bookingTarget}`
+        : bookTarget
+          ? `book-${bookTarget}`
+          : hash
+            ? decodeURIComponent(hash.slice(1))
+            : null
+      : null,
+  );
 
   if (job.isPending) {
     return (

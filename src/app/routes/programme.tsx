@@ -1,16 +1,21 @@
-import { Link, useParams } from "react-router-dom";
+import { Link, useParams, useSearchParams } from "react-router-dom";
 import { useJob } from "../../features/jobs/api/get-job";
 import { useRefreshJobBookings } from "../../features/bookings/api/booking-mutation";
 import { TaskBookingControl } from "../../features/bookings/components/TaskBookingControl";
 import { ProgrammeScreen } from "../../features/programme/components/ProgrammeScreen";
 import { ErrorState, LoadingState, PageHeader } from "../../components/ui";
 import { isApiError } from "../../lib/api-client";
+import { useScrollTarget } from "../../lib/use-scroll-target";
 
 /** The maker's programme for one job (owner and fitter; the API refuses everyone else). */
 export function ProgrammeRoute() {
   const { jobId = "" } = useParams();
   const job = useJob(jobId);
   const refreshBookings = useRefreshJobBookings(jobId);
+  // `?task=<id>`: a link to one task (e.g. from the attention list) lands on its row, marked.
+  const [params] = useSearchParams();
+  const selectedTaskId = params.get("task");
+  useScrollTarget(selectedTaskId ? `task-row-${selectedTaskId}` : null);
   const back = (
     <p className="mb-3 text-sm">
       <Link
@@ -55,6 +60,7 @@ export function ProgrammeRoute() {
       />
       <ProgrammeScreen
         jobId={jobId}
+        selectedTaskId={selectedTaskId}
         onChanged={() => void refreshBookings()}
         renderBooking={(task, refresh) => (
           <TaskBookingControl jobId={jobId} task={task} onChanged={refresh} />

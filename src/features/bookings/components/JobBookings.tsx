@@ -1,4 +1,5 @@
 import { useState } from "react";
+import { useSearchParams } from "react-router-dom";
 import type {
   BookingResponse,
   BookingState,
@@ -114,6 +115,8 @@ function BookingItem({
   task,
   canBookAnother,
   unanswered,
+  targeted,
+  initialOpen,
   onChanged,
   onNotice,
 }: {
@@ -123,10 +126,14 @@ function BookingItem({
   canBookAnother: boolean;
   /** Sent and not answered for longer than the workshop waits before chasing. */
   unanswered: boolean;
+  /** The booking a link pointed at (`?booking=<id>`): shown marked, and focused. */
+  targeted: boolean;
+  /** A form to open at once (`&open=book-another` from the attention list's "Book the next …"). */
+  initialOpen: Open;
   onChanged?: () => void;
   onNotice: (text: string) => void;
 }) {
-  const [open, setOpen] = useState<Open>(null);
+  const [open, setOpen] = useState<Open>(initialOpen);
   const [error, setError] = useState<string | null>(null);
   const send = useSendBooking(jobId);
   const chase = useChaseBooking(jobId);
@@ -158,8 +165,15 @@ function BookingItem({
 
   return (
     <li
-      className="flex flex-col gap-2 py-3 first:pt-0 last:pb-0"
+      id={`booking-${b.id}`}
+      tabIndex={-1}
+      className={
+        targeted
+          ? "-mx-2 flex scroll-mt-4 flex-col gap-2 rounded border border-accent/50 bg-accent-wash px-2 py-3 outline-none focus-visible:ring-2 focus-visible:ring-accent"
+          : "flex scroll-mt-4 flex-col gap-2 py-3 outline-none first:pt-0 last:pb-0 focus-visible:ring-2 focus-visible:ring-accent"
+      }
       aria-label={`${b.tradeBusinessName}, ${b.taskName}`}
+      aria-current={targeted ? "true" : undefined}
     >
       <div className="grid gap-1.5 sm:grid-cols-[1fr_auto] sm:gap-4">
         <div className="flex min-w-0 flex-col gap-1">
@@ -354,7 +368,12 @@ export function JobBookings({
   const unanswered = useUnansweredBookings(workshopId, UNANSWERED_HOURS);
   const late = new Set((unanswered.data ?? []).map((b) => b.id));
   const [notice, setNotice] = useState<string | null>(null);
-  const [booking, setBooking] = useState<string | null>(null);
+  // Links into this panel (the attention list's fixes): ?booking=<id>[&open=book-another], ?book=<taskId>.
+  const [params] = useSearchParams();
+  const targetId = params.get("booking");
+  const [booking, setBooking] = useState<string | null>(() =>
+    params.get("book"),
+  );
 
   let body: React.ReactNode;
   if (bookings.isPending) body = <LoadingState label="Loading the bookings…" />;
@@ -395,6 +414,15 @@ export function JobBookings({
                 task={taskOf(b.taskId)}
                 canBookAnother={!standingTask.has(b.taskId)}
                 unanswered={late.has(b.id)}
+                targeted={targetId === b.id}
+                initialOpen={
+                  targetId === b.id &&
+                  params.get("open") === "book-another" &&
+                  b.state === "declined" &&
+                  !standingTask.has(b.taskId)
+                    ? "book-another"
+                    : null
+                }
                 onChanged={onChanged}
                 onNotice={setNotice}
               />
@@ -407,7 +435,12 @@ export function JobBookings({
             <ul className="flex flex-col gap-2">
               {unbooked.map((t) => {
                 return (
-                  <li key={t.id} className="flex flex-col gap-2">
+                  <li
+                    key={t.id}
+                    id={`book-${t.id}`}
+                    tabIndex={-1}
+                    className="flex scroll-mt-4 flex-col gap-2 outline-none focus-visible:ring-2 focus-visible:ring-accent"
+                  >
                     <div className="flex flex-wrap items-center gap-2">
                       <span>{t.name}</span>
                       <PartyChip party={t.party} />

@@ -79,6 +79,8 @@ function Summary({ programme }: { programme: ProgrammeResponse }) {
 
 interface ProgrammeScreenProps {
   jobId: string;
+  /** A task a link pointed at (`?task=<id>`): its row is marked and can take focus. */
+  selectedTaskId?: string | null;
   /**
    * A trade task's booking control, supplied by the route (bookings are another feature);
    * `refresh` re-reads the programme after a booking pins or frees the task.
@@ -91,6 +93,7 @@ interface ProgrammeScreenProps {
 /** The maker's programme screen: list, bar view, instant knock-on, forms. */
 export function ProgrammeScreen({
   jobId,
+  selectedTaskId = null,
   renderBooking,
   onChanged,
 }: ProgrammeScreenProps) {
@@ -531,6 +534,7 @@ export function ProgrammeScreen({
               onOpen={setOpen}
               actions={actions}
               busy={busy}
+              selectedTaskId={selectedTaskId}
               renderBooking={
                 renderBooking
                   ? (task) =>

@@ -74,6 +74,8 @@ interface TaskListProps {
   busy: boolean;
   /** The booking status and "Book a …" control for a trade task (from the bookings feature). */
   renderBooking?: (task: ProgrammeTask) => ReactNode;
+  /** The task a link pointed at: its row is marked (and focusable, for the link to land on). */
+  selectedTaskId?: string | null;
 }
 
 /** The programme as a list: the main view on a phone, and the keyboard's way to everything. */
@@ -86,6 +88,7 @@ export function TaskList({
   actions,
   busy,
   renderBooking,
+  selectedTaskId = null,
 }: TaskListProps) {
   const name = (id: string) =>
     programme.tasks.find((t) => t.id === id)?.name ?? "a removed task";
@@ -111,8 +114,15 @@ export function TaskList({
         return (
           <li
             key={task.id}
+            id={`task-row-${task.id}`}
+            tabIndex={-1}
             aria-labelledby={headingId}
-            className="flex flex-col gap-2 py-3 first:pt-0 last:pb-0"
+            aria-current={selectedTaskId === task.id ? "true" : undefined}
+            className={
+              selectedTaskId === task.id
+                ? "-mx-2 flex scroll-mt-4 flex-col gap-2 rounded border border-accent/50 bg-accent-wash px-2 py-3 outline-none focus-visible:ring-2 focus-visible:ring-accent"
+                : "flex scroll-mt-4 flex-col gap-2 py-3 outline-none first:pt-0 last:pb-0 focus-visible:ring-2 focus-visible:ring-accent"
+            }
           >
             <div className="flex flex-wrap items-center gap-x-3 gap-y-1.5">
               <h3 id={headingId} className="font-semibold">
@@ -287,7 +297,7 @@ export function TaskList({
                   <Button
                     variant="secondary"
                     size="sm"
-                    aria-label={`Add what ${task.name} waits for`}
+                    aria-label={`Waits for… (add what ${task.name} waits for)`}
                     onClick={() =>
                       onOpen({ kind: "add-link", taskId: task.id })
                     }
@@ -298,7 +308,7 @@ export function TaskList({
                     <Button
                       variant="secondary"
                       size="sm"
-                      aria-label={`Mark ${task.name} started`}
+                      aria-label={`Mark started: ${task.name}`}
                       onClick={() => onOpen({ kind: "start", taskId: task.id })}
                     >
                       Mark started
@@ -308,7 +318,7 @@ export function TaskList({
                     <Button
                       variant="secondary"
                       size="sm"
-                      aria-label={`Mark ${task.name} done`}
+                      aria-label={`Mark done: ${task.name}`}
                       onClick={() => onOpen({ kind: "done", taskId: task.id })}
                     >
                       Mark done
@@ -318,7 +328,7 @@ export function TaskList({
                     <Button
                       variant="quiet"
                       size="sm"
-                      aria-label={`Clear the progress of ${task.name}`}
+                      aria-label={`Not started after all: ${task.name}`}
                       disabled={busy}
                       onClick={() =>
                         actions
