@@ -10,7 +10,7 @@ import {
   type Session,
   type TestApp,
 } from "../../../tests/setup/test-app";
-import { samplePng } from "../../../tests/setup/uploads";
+import { sampleElf, samplePng } from "../../../tests/setup/uploads";
 import {
   buildBooking,
   buildJob,
@@ -523,6 +523,27 @@ describe("attachments", () => {
       "hall.png",
     ]);
   });
+
+  it("refuses a file that is not a drawing or photo, and more than five files, keeping nothing", async () => {
+    const { jobId } = await freshJob();
+    const before = await t.db.ds.manager.count(StoredFile);
+    const elf = await upload(s.owner, jobId, { audience: "job" }, [
+      { name: "plan.pdf", body: sampleElf() },
+    ]);
+    expect(elf.status).toBe(415);
+    expect(elf.body.error.message).toContain("plan.pdf is not a PDF");
+    const png = await samplePng(16, 16);
+    const six = await upload(
+      s.owner,
+      jobId,
+      { audience: "job" },
+      Array.from({ length: 6 }, (_, i) => ({ name: `p${i}.png`, body: png })),
+    );
+    expect(six.status).toBe(400);
+    expect(six.body.error.message).toBe("Send at most 5 files at once.");
+    expect(await t.db.ds.manager.count(StoredFile)).toBe(before);
+    expect((await thread(s.owner, jobId)).messages).toEqual([]);
+  });
 });
 
 describe("e-mail notices", () => {
@@ -600,9 +621,34 @@ describe("e-mail notices", () => {
     expect(kit[0].text).not.toContain("scribe fillets");
     expect(to(rows, email.dev)).toEqual([]); // the author of the other one
     expect(to(rows, email.rosa)).toEqual([]); // read it already
-    expect(
-      await t.db.ds.manager.countBy(ThreadNotice, { jobId }),
-    ).toBeGreaterThan(0);
+    // Every notice of the job is settled: none still due; Rosa's claimed without an e-mail.
+    const notices = await t.db.ds.manager.findBy(ThreadNotice, { jobId });
+    expect(notices.length).toBe(4); // owner, fitter, Kit, Rosa
+    expect(notices.every((n) => n.dueAt === null)).toBe(true);
+    expect(notices.filter((n) => n.lastSentAt !== null)).toHaveLength(3);
+  });
+
+  it("sends Whole job messages to the customer too, and none to a trade whose booking was cancelled meanwhile", async () => {
+    const { jobId, title, bookingId } = await freshJob();
+    await post(s.owner, jobId, "job", "Carpets are down on Friday").expect(201);
+    await post(s.owner, jobId, "trades", "Dev: the coving is on hold").expect(
+      201,
+    );
+    // Dev's booking is cancelled before the notice is due: he no longer sees the thread.
+    await s.owner.agent
+      .post(`/api/bookings/${bookingId}/cancel`)
+      .set("X-CSRF-Token", s.owner.csrf)
+      .send({ reason: "Customer postponed the coving" })
+      .expect(200);
+    await t.sitecue.sendThreadNotices(minutes(6));
+    const rows = await queued(title);
+    const rosaMail = to(rows, email.rosa);
+    expect(rosaMail).toHaveLength(1);
+    expect(rosaMail[0].subject).toBe(`New message on ${title}`);
+    expect(rosaMail[0].text).toContain("Carpets are down on Friday");
+    expect(rosaMail[0].text).not.toContain("coving is on hold");
+    expect(to(rows, email.kit)[0].subject).toBe(`2 new messages on ${title}`);
+    expect(to(rows, email.dev)).toEqual([]);
   });
 
   it("writes no notice for system notes", async () => {
