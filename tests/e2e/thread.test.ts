@@ -42,7 +42,7 @@ afterAll(async () => {
   await t?.close();
 });
 
-const jobTitle = demoJobTitles.alcoves;
+const jobTitle: string = demoJobTitles.alcoves;
 const workshopOnly =
   "Price the extra length of coving before we tell anyone else.";
 const tradesText =
@@ -67,11 +67,19 @@ async function signInAs(
   return { page, problems };
 }
 
-async function openJob(page: Page): Promise<string> {
-  await page.getByRole("link", { name: jobTitle }).first().click();
-  await visible(page.getByRole("heading", { name: jobTitle, level: 1 }));
+/** The job page by its address (what a link in a notice e-mail opens). */
+async function openJob(
+  page: Page,
+  id: string,
+  title = jobTitle,
+): Promise<void> {
+  await page.goto(`${t.url}/jobs/${id}`);
+  await visible(page.getByRole("heading", { name: title, level: 1 }));
   await visible(thread(page).getByRole("form", { name: "New message" }));
-  return new URL(page.url()).pathname.split("/")[2];
+}
+
+async function jobByTitle(title: string): Promise<Job> {
+  return t.db.ds.getRepository(Job).findOneByOrFail({ title });
 }
 
 const thread = (page: Page): Locator => page.locator("#job-thread");
@@ -160,15 +168,13 @@ describe("the job thread", () => {
   it("the plasterer has the job open on a phone, the thread below the fold", async () => {
     // A note as the bookings service writes one (same writer, same transaction helper), so the
     // plasterer opens the page with one unread.
-    const job = await t.db.ds
-      .getRepository(Job)
-      .findOneByOrFail({ title: jobTitle });
+    const job = await jobByTitle(jobTitle);
+    jobId = job.id;
     await t.db.ds.transaction((m) =>
       postSystemNote(m, job, "trades", systemText),
     );
     trade = await signInAs(demoAccounts.trade.email, phone);
-    jobId = await openJob(trade.page);
-    expect(jobId).toBe(job.id);
+    await openJob(trade.page, jobId);
     trade.page.on("request", (r) => {
       if (r.url().includes(`/api/jobs/${jobId}/thread?`)) polls.push(r.url());
     });
@@ -199,7 +205,7 @@ describe("the job thread", () => {
 
   it("the owner posts a Workshop only and then a Trades & workshop message", async () => {
     owner = await signInAs(demoAccounts.owner.email);
-    expect(await openJob(owner.page)).toBe(jobId);
+    await openJob(owner.page, jobId);
     const select = thread(owner.page).getByLabel("Who sees it");
     expect(await select.locator("option").allTextContents()).toEqual([
       threadAudienceLabels.job,
@@ -370,12 +376,8 @@ describe("the job thread", () => {
     expect(await axeSeriousOrWorse(page, "#job-thread")).toEqual([]);
 
     // Another job of the demo has no messages yet (its API says so first).
-    await page.goto(`${t.url}/`);
-    await page.getByRole("link", { name: demoJobTitles.wardrobe }).click();
-    await visible(
-      page.getByRole("heading", { name: demoJobTitles.wardrobe, level: 1 }),
-    );
-    const otherId = new URL(page.url()).pathname.split("/")[2];
+    const otherId = (await jobByTitle(demoJobTitles.wardrobe)).id;
+    await openJob(page, otherId, demoJobTitles.wardrobe);
     expect((await apiThread(page, otherId)).messages).toEqual([]);
     await visible(thread(page).getByText("No messages yet"));
     await thread(page).screenshot({
@@ -389,7 +391,7 @@ describe("the job thread", () => {
       demoAccounts.customer.email,
       phone,
     );
-    expect(await openJob(page)).toBe(jobId);
+    await openJob(page, jobId);
     await visible(messages(page).getByText(wholeJob));
     expect(await thread(page).getByText(workshopOnly).count()).toBe(0);
     expect(

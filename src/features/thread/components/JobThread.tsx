@@ -69,6 +69,11 @@ type Filter = "all" | ThreadAudience;
  * and the composer for the audiences the server allows them.
  */
 export function JobThread({ jobId }: { jobId: string }) {
+  // Keyed by job: the divider, the scroll position and the composer start afresh on another job.
+  return <JobThreadView key={jobId} jobId={jobId} />;
+}
+
+function JobThreadView({ jobId }: { jobId: string }) {
   const client = useQueryClient();
   const thread = useThread(jobId);
   const markRead = useMarkThreadRead(jobId);
