@@ -27,16 +27,22 @@ export const drawingUrl = (appUrl: string, d: Drawing) =>
   `${appUrl}/jobs/${d.jobId}/drawings/${d.id}`;
 
 /**
- * Who hears of a new revision (Rev A included): the trades on the job it is shared with (by kind,
- * by name, or who made it) and the customer when it is shared with them — never the uploader.
- * When a trade uploads, the workshop (owner and fitters) is told as well: it was made for them.
+ * The people outside the workshop a drawing is shared with, by address: the trades on the job it
+ * is shared with (by kind, by name, or who made it) and the customer when it is shared with them.
  * There are no per-person notice preferences in Sitecue yet, so everyone it is shared with hears.
  */
-export async function queueRevisionNotices(
+export async function sharedAudience(
   m: EntityManager,
-  n: RevisionNotice,
-): Promise<string[]> {
-  const { drawing: d } = n;
+  d: Pick<
+    Drawing,
+    | "jobId"
+    | "shareTradeIds"
+    | "shareTradeKinds"
+    | "shareWithCustomer"
+    | "createdByTradeId"
+  >,
+  customerId: string,
+): Promise<Map<string, string>> {
   const to = new Map<string, string>(); // address → greeting name
   const onJob = await m.find(Booking, {
     where: { jobId: d.jobId, state: In(ACTIVE_STATES) },
@@ -47,7 +53,6 @@ export async function queueRevisionNotices(
     ? await m.findBy(Trade, { id: In(tradeIds) })
     : [];
   for (const t of trades) {
-    if (t.id === n.uploaderTrade?.id) continue;
     const shared =
       d.shareTradeIds.includes(t.id) ||
       d.shareTradeKinds.includes(t.kind) ||
@@ -55,9 +60,24 @@ export async function queueRevisionNotices(
     if (shared) to.set(t.email.toLowerCase(), t.contactName);
   }
   if (d.shareWithCustomer) {
-    const customer = await m.findOneBy(Customer, { id: n.job.customerId });
+    const customer = await m.findOneBy(Customer, { id: customerId });
     if (customer) to.set(customer.email.toLowerCase(), customer.name);
   }
+  return to;
+}
+
+/**
+ * Who hears of a new revision (Rev A included): everyone it is shared with, never the uploader
+ * (nor the trade they speak for). When a trade uploads, the workshop (owner and fitters) is told
+ * as well: it was made for them.
+ */
+export async function queueRevisionNotices(
+  m: EntityManager,
+  n: RevisionNotice,
+): Promise<string[]> {
+  const { drawing: d } = n;
+  const to = await sharedAudience(m, d, n.job.customerId);
+  if (n.uploaderTrade) to.delete(n.uploaderTrade.email.toLowerCase());
   if (n.uploaderTrade) {
     const members = await m.find(WorkshopMember, {
       where: { workshopId: d.workshopId },
@@ -108,4 +128,48 @@ export async function queueRevisionNotices(
     });
   }
   return [...to.keys()];
+}
+
+/**
+ * Tells the people a drawing has just been shared with (a change of sharing, not a new revision)
+ * that they can now see it, at its current revision.
+ */
+export async function queueSharedNotices(
+  m: EntityManager,
+  n: {
+    appUrl: string;
+    workshop: Workshop;
+    job: Job;
+    drawing: Drawing;
+    to: Map<string, string>;
+  },
+): Promise<void> {
+  const { drawing: d } = n;
+  const kind = drawingKindLabels[d.kind].toLowerCase();
+  const rev = `Rev ${d.currentRevision}`;
+  const url = drawingUrl(n.appUrl, d);
+  for (const [address, name] of n.to) {
+    const lines = [
+      `Hello ${name},`,
+      "",
+      `${n.workshop.name} has shared the ${kind} “${d.title}” (${rev}) for ${n.job.title}, ${n.job.area} with you.`,
+      "",
+      `Open it: ${url}`,
+    ];
+    await enqueueMail(m, {
+      workshopId: d.workshopId,
+      to: address,
+      subject: `${n.workshop.name}: ${d.title} ${rev} shared with you — ${n.job.title}`,
+      text: lines.join("\n"),
+      html: lines
+        .map((l) =>
+          l.startsWith("Open it: ")
+            ? `<p><a href="${escapeHtml(url)}">Open ${escapeHtml(d.title)} ${rev}</a></p>`
+            : l
+              ? `<p>${escapeHtml(l)}</p>`
+              : "",
+        )
+        .join(""),
+    });
+  }
 }

@@ -67,7 +67,7 @@ export function registerDrawingRoutes(api: ApiRoutes, deps: DrawingDeps): void {
     body: updateDrawingBodySchema,
     response: drawingDetailSchema,
     handler: async ({ actor, params, body }) =>
-      updateDrawing(ds, actor, params.drawingId, body),
+      updateDrawing(deps, actor, params.drawingId, body),
   });
   api.add({
     method: "delete",

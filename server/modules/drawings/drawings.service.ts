@@ -36,7 +36,11 @@ import {
   uploadResource,
   type DrawingJobAccess,
 } from "./drawing-access";
-import { queueRevisionNotices } from "./drawing-notices";
+import {
+  queueRevisionNotices,
+  queueSharedNotices,
+  sharedAudience,
+} from "./drawing-notices";
 import { Drawing, DrawingRevision, DrawingTask } from "./drawings.entity";
 import {
   presentDetail,
@@ -502,16 +506,22 @@ export async function addRevision(
 
 /** PATCH /drawings/:drawingId (workshop): title, sharing, tasks. */
 export async function updateDrawing(
-  ds: DataSource,
+  deps: DrawingDeps,
   actor: Actor | null,
   drawingId: string,
   body: UpdateDrawingBody,
 ): Promise<DrawingDetail> {
+  const { ds, appUrl } = deps;
   requireActor(actor);
   const loaded = await loadDrawing(ds, drawingId);
   authorize(actor, "drawing.update", loaded.resource);
   await checkTargets(ds.manager, loaded.job, body.taskIds, body.shareTradeIds);
   await ds.transaction(async (m) => {
+    const before = await sharedAudience(
+      m,
+      loaded.drawing,
+      loaded.job.customerId,
+    );
     const changes: Partial<Drawing> = {};
     if (body.title !== undefined) changes.title = body.title;
     if (body.shareTradeKinds !== undefined)
@@ -544,6 +554,20 @@ export async function updateDrawing(
       entityId: drawingId,
       detail: { jobId: loaded.drawing.jobId, fields: Object.keys(body) },
     });
+    // Whoever can see it now and could not before is told once, like a new revision would.
+    const drawing = await m.findOneByOrFail(Drawing, { id: drawingId });
+    const added = await sharedAudience(m, drawing, loaded.job.customerId);
+    for (const address of before.keys()) added.delete(address);
+    if (added.size)
+      await queueSharedNotices(m, {
+        appUrl,
+        workshop: await m.findOneByOrFail(Workshop, {
+          id: loaded.job.workshopId,
+        }),
+        job: loaded.job,
+        drawing,
+        to: added,
+      });
   });
   return detail(ds, actor, await loadDrawing(ds, drawingId));
 }

@@ -557,6 +557,14 @@ describe("who sees which drawing", () => {
       .expect(200);
     expect(res.body.sharing.customer).toBe(true);
     await s.rosa.agent.get(`/api/drawings/${workshopOnly.id}`).expect(200);
+    // She is told it is shared with her; Dev, who could already see it, is not told again.
+    const subject = "Carcass setting-out (for Rosa) Rev A shared with you";
+    await t.mail.waitFor(
+      (m) => m.to.includes(emails.rosa) && m.subject.includes(subject),
+      15000,
+    );
+    await outboxDrained();
+    expect(recipientsOf(subject)).toEqual([emails.rosa]);
     // Tasks must be this job's; named trades the workshop's.
     const wardrobeTask = await t.db.ds.manager.findOneByOrFail(Task, {
       jobId: wardrobe.id,
