@@ -22,6 +22,7 @@ import { localToday } from "../jobs/jobs.presenter";
 import { loadProgramme } from "../programme/programme-input";
 import { Trade } from "../trades/trades.entity";
 import { unreadSummary } from "../thread/thread.service";
+import { listAwayClashes } from "../timeline/timeline.service";
 import { Workshop } from "../workshops/workshops.entity";
 
 /** Jobs still in hand: their programmes can need the maker. */
@@ -183,14 +184,16 @@ export async function attentionFor(
   if (!jobs.length) return { today, jobsChecked: 0, items: [] };
 
   const jobIds = jobs.map((j) => j.id);
-  const [allBookings, trades, unread] = await Promise.all([
+  const [allBookings, trades, unread, awayClashes] = await Promise.all([
     m.find(Booking, {
       where: { jobId: In(jobIds) },
       order: { updatedAt: "ASC" },
     }),
     m.findBy(Trade, { workshopId }),
     unreadSummary(ds, actor),
+    listAwayClashes(m, workshopId),
   ]);
+  const awayByBooking = new Map(awayClashes.map((a) => [a.bookingId, a]));
   const tradeById = new Map(trades.map((t) => [t.id, t]));
   // Each job's programme, as the programme screen computes it (same input builder, same engine).
   const programmes = await Promise.all(
@@ -314,6 +317,25 @@ export async function attentionFor(
           },
         });
       }
+      // A booking on days the customer is away (the site is closed then), as the timeline module finds them.
+      const away = awayByBooking.get(b.id);
+      if (away)
+        ranked.push({
+          due: b.start,
+          item: {
+            ...base,
+            id: `customer-away:${b.id}`,
+            kind: "customer-away",
+            tone: "risk",
+            sentence: `${trade.businessName} is booked for ${task.name} on ${away.awayDays.map(dayText).join(", ")}, when the customer is away. Move or cancel the booking.`,
+            since: null,
+            waited: null,
+            action: {
+              label: "Open the booking",
+              to: fixPaths.booking(job.id, b.id),
+            },
+          },
+        });
     }
 
     if (result) {
@@ -370,7 +392,8 @@ export async function attentionFor(
             bookingId: null,
             sentence: job.handoverDate
               ? `Handover on ${dayText(job.handoverDate)} is at risk: ${task.name} is ${plural(days, "working day")} behind what it allows.`
-              : `${task.name} is ${plural(days, "working day")} behind the programme's finish.`,
+              : // Without a handover date the engine measures against the programme's own finish: its words.
+                `${worst.problems.find((p) => p.code === "handover-at-risk")!.message}.`,
             since: null,
             waited: null,
             action: {

@@ -462,6 +462,40 @@ describe("the programme", () => {
   });
 });
 
+describe("the customer's away dates", () => {
+  it("a booking on days the customer will be away is flagged, and goes when the dates change", async () => {
+    const { jobId, p } = await starterJob("Attention: customer away");
+    const template = taskNamed(p, "Template coving");
+    const b = await book(jobId, template.id, "Ashby Plaster & Coving");
+    const day = b.start.slice(0, 10);
+    // The customer enters the dates herself (the timeline's route).
+    const rosa = await signIn(t, demoAccounts.customer.email);
+    await rosa.agent
+      .put(`/api/jobs/${jobId}/away-dates`)
+      .set("X-CSRF-Token", rosa.csrf)
+      .send({ ranges: [{ from: day, to: day }] })
+      .expect(200);
+    const items = await itemsOf(jobId);
+    const away = only(items, "customer-away").find(
+      (i) => i.bookingId === b.id,
+    )!;
+    expect(away.sentence).toMatch(
+      /^Ashby Plaster & Coving is booked for Template coving on \w{3} \d{1,2} \w{3}, when the customer is away\. Move or cancel the booking\.$/,
+    );
+    expect(away.tone).toBe("risk");
+    expect(away.action).toEqual({
+      label: "Open the booking",
+      to: `/jobs/${jobId}?booking=${b.id}#job-bookings`,
+    });
+    await rosa.agent
+      .put(`/api/jobs/${jobId}/away-dates`)
+      .set("X-CSRF-Token", rosa.csrf)
+      .send({ ranges: [] })
+      .expect(200);
+    expect(only(await itemsOf(jobId), "customer-away")).toHaveLength(0);
+  });
+});
+
 describe("the thread", () => {
   it("unread messages per job, from the thread's own counts; gone once read", async () => {
     const { jobId } = await starterJob("Attention: thread");
