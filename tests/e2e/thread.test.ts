@@ -49,8 +49,7 @@ const tradesText =
   "Coving template first thing Thursday; profile at https://example.test/coving/ogee-90. Note <b>bold</b> is only text.";
 const tradesLink = "https://example.test/coving/ogee-90";
 const wholeJob = "The dust sheets stay down until the decorator has been.";
-const systemText =
-  "Kestrel Decorating confirmed Fill, caulk & paint: Mon 7 Dec.";
+const systemText = "Kestrel Decorating confirmed Fill, caulk & paint.";
 
 async function signInAs(
   email: string,
