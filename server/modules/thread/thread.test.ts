@@ -122,6 +122,8 @@ async function freshJob(title = `Thread job ${unique()}`) {
     jobId: job.id,
     title,
     fixId: fix.id,
+    job,
+    template,
     bookingId: booking.id,
   };
 }
@@ -406,6 +408,81 @@ describe("system notes", () => {
       ],
     ]);
     expect(systemNotes(await thread(s.kit, jobId))).toEqual([]);
+  });
+
+  it("notes a sent booking, a proposed date and its refusal for the workshop; a reschedule and a cancellation for the trades too", async () => {
+    const { jobId, bookingId, job, template, fixId } = await freshJob();
+    const m = t.db.ds.manager;
+    const coving = await buildTask(m, job, {
+      name: "Fit coving",
+      party: "plasterer",
+      durationDays: 1,
+    });
+    await buildLink(m, template, coving, { lag: 3 });
+    const as = (path: string, body: object) =>
+      s.owner.agent
+        .post(path)
+        .set("X-CSRF-Token", s.owner.csrf)
+        .send(body)
+        .expect((r) =>
+          expect(r.status, JSON.stringify(r.body)).toBeLessThan(300),
+        );
+    await as(`/api/jobs/${jobId}/bookings`, {
+      taskId: coving.id,
+      tradeId: ashby.id,
+      start: "2027-02-15",
+      arrivalWindow: "all-day",
+      overrideReason: "Booked for the test",
+      send: true,
+    });
+    await as(`/api/bookings/${bookingId}/answer`, {
+      answer: "propose",
+      channel: "phone",
+      proposedStart: "2027-02-02",
+      note: "Rang to move it",
+    });
+    await as(`/api/bookings/${bookingId}/proposal`, {
+      accept: false,
+      note: "That day is taken",
+    });
+    const { version } = (
+      await s.owner.agent.get(`/api/jobs/${jobId}/programme`).expect(200)
+    ).body;
+    await as(`/api/jobs/${jobId}/programme/apply`, {
+      version,
+      changes: [{ taskId: fixId, notEarlierThan: "2027-02-03" }],
+    });
+    await as(`/api/bookings/${bookingId}/cancel`, {
+      reason: "Customer postponed the coving",
+    });
+    const notes = (r: ThreadResponse) =>
+      r.messages
+        .filter((x) => x.kind === "system")
+        .map((x) => `${x.audience}: ${x.text}`);
+    const all = notes(await thread(s.owner, jobId));
+    expect(all[0]).toBe(
+      "workshop: Booking sent: Ashby Plaster & Coving for Fit coving, Mon 15 Feb 2027, all day.",
+    );
+    expect(all[1]).toBe(
+      "workshop: Ashby Plaster & Coving proposes Tue 2 Feb 2027 for Template coving instead of Mon 1 Feb 2027.",
+    );
+    expect(all[2]).toBe(
+      "workshop: Ashby Plaster & Coving's proposed date for Template coving was not accepted; asked again for Mon 1 Feb 2027, all day.",
+    );
+    expect(all[3]).toMatch(
+      /^trades: Rescheduled: Template coving with Ashby Plaster & Coving moves to \w{3} \d+ Feb 2027, all day; it needs re-confirming\.$/,
+    );
+    expect(all.at(-1)).toBe(
+      "trades: Booking cancelled: Ashby Plaster & Coving for Template coving.",
+    );
+    // Kit (another trade on the job) sees only the trades notes; Rosa none; no reason or phone note anywhere.
+    expect(notes(await thread(s.kit, jobId))).toEqual(
+      all.filter((x) => x.startsWith("trades: ")),
+    );
+    expect(notes(await thread(s.rosa, jobId))).toEqual([]);
+    const seen = JSON.stringify(await thread(s.owner, jobId));
+    expect(seen).not.toContain("Customer postponed");
+    expect(seen).not.toContain("Rang to move it");
   });
 
   it("notes a task started and done for the whole job", async () => {
