@@ -24,6 +24,7 @@ import { Customer } from "../modules/customers/customers.entity";
 import { Job } from "../modules/jobs/jobs.entity";
 import { Trade } from "../modules/trades/trades.entity";
 import { Booking } from "../modules/bookings/bookings.entity";
+import { Task } from "../modules/programme/programme.entity";
 import { Workshop } from "../modules/workshops/workshops.entity";
 import { ProgrammeStarter } from "../modules/starters/starters.entity";
 import { issueFeed } from "../modules/feeds/feeds.service";
@@ -163,14 +164,20 @@ async function bookingIn(
   return p.bookingId;
 }
 
-/** A fresh job's plasterer booking, confirmed (a trade acts only on a confirmed visit). */
-async function confirmedVisit(): Promise<string> {
+/**
+ * A fresh job's plasterer booking, confirmed (a trade acts only on a confirmed visit); `clear`
+ * also marks the task it waits for done, so it is clear to start.
+ */
+async function confirmedVisit(clear = false): Promise<string> {
   const p = await freshProgramme();
-  await t.db.ds.manager.update(
-    Booking,
-    { id: p.bookingId },
-    { state: "confirmed" },
-  );
+  const m = t.db.ds.manager;
+  await m.update(Booking, { id: p.bookingId }, { state: "confirmed" });
+  if (clear)
+    await m.update(
+      Task,
+      { id: p.otherTaskId },
+      { actualStart: "2025-06-02", actualFinish: "2025-06-03" },
+    );
   return p.bookingId;
 }
 
@@ -587,7 +594,7 @@ const requests: Record<
     body: { answer: "confirm" },
   }),
   "POST /visits/:bookingId/progress": async () => ({
-    path: `/api/visits/${await confirmedVisit()}/progress`,
+    path: `/api/visits/${await confirmedVisit(true)}/progress`,
     body: { mark: "started" },
   }),
   "POST /visits/:bookingId/running-late": async () => ({

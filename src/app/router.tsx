@@ -14,6 +14,7 @@ import { HomeRoute } from "./routes/home";
 import { JobRoute } from "./routes/job";
 import { ProgrammeRoute } from "./routes/programme";
 import { DrawingRoute } from "./routes/drawing";
+import { VisitRoute } from "./routes/visit";
 import { TradesRoute } from "./routes/trades";
 import { MembersRoute } from "./routes/members";
 import { NotFoundRoute } from "./routes/not-found";
@@ -55,6 +56,7 @@ export function createAppRouter() {
               path: "jobs/:jobId/drawings/:drawingId",
               element: <DrawingRoute />,
             },
+            { path: "visits/:bookingId", element: <VisitRoute /> },
             { path: "trades", element: <TradesRoute /> },
             { path: "members", element: <MembersRoute /> },
             // FullCalendar (~80 KB gzip) loads with these routes only.

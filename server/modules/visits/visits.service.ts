@@ -184,7 +184,11 @@ function presentVisit(
         answerable.includes(b.state) &&
         progress === "not-started" &&
         dateOf(b.finish) >= ctx.today,
-      markStarted: confirmed && progress === "not-started",
+      // Started on the day, or earlier once nothing holds it back.
+      markStarted:
+        confirmed &&
+        progress === "not-started" &&
+        (r?.readiness.state === "clear" || dateOf(b.start) <= ctx.today),
       markDone: confirmed && progress === "started",
       runningLate:
         confirmed && progress !== "done" && dateOf(b.finish) >= ctx.today,
@@ -430,7 +434,7 @@ export async function markVisitProgress(
     actor,
     bookingId,
     `${body.mark === "done" ? "marked their task done" : "marked their task started"}`,
-    async (m, l) => {
+    async (m, l, before) => {
       requireConfirmed(l, `marked ${body.mark}`);
       const [today, time] = localNow(l.job.timeZone);
       const task = l.task;
@@ -439,6 +443,13 @@ export async function markVisitProgress(
       if (body.mark === "started") {
         if (task.actualStart)
           throw new HttpError(409, "conflict", "This task is already started.");
+        const r = schedule(before).tasks.find((x) => x.id === task.id);
+        if (r?.readiness.state === "waiting" && dateOf(l.booking.start) > today)
+          throw new HttpError(
+            409,
+            "conflict",
+            "It still waits for other work and its day has not come; mark it started once it is clear to start, or on the day.",
+          );
         task.actualStart = time >= "12:00" ? `${today}T12:00` : today;
       } else {
         if (!task.actualStart)
@@ -490,9 +501,11 @@ export async function runningLate(
     const [today] = localNow(l.job.timeZone);
     if (l.task.actualFinish || dateOf(l.booking.finish) < today)
       throw new HttpError(409, "conflict", "This visit is over.");
-    // The day meant is the next day of the visit: today while on it, else its first day.
+    // The day meant is the next day of the visit: today once started or under way, else its first day.
     const day =
-      dateOf(l.booking.start) > today ? dateOf(l.booking.start) : today;
+      !l.task.actualStart && dateOf(l.booking.start) > today
+        ? dateOf(l.booking.start)
+        : today;
     const note = body.note ? ` “${body.note}”` : "";
     const line = `${l.trade.businessName} is running late for ${l.task.name}: now arriving ${body.arrivalTime} on ${noteDay(day)}.`;
     await recordEvent(

@@ -18,6 +18,7 @@ import { errorMessage } from "../../lib/api-client";
 import type { Membership } from "../../features/auth/viewer";
 import { useActiveWorkshop } from "../active-workshop";
 import { useViewer } from "../layout/guards";
+import { TradeHome } from "./trade-home";
 import { CustomerHome } from "./customer-home";
 
 function NewJobPanel({
@@ -74,6 +75,8 @@ export function HomeRoute() {
     !isMember &&
     viewer.user.trades.length === 0 &&
     viewer.user.customers.length > 0;
+  // A trade's home is their visits across every workshop, not a list of jobs.
+  if (!isMember && viewer.user.trades.length > 0) return <TradeHome />;
 
   return (
     <>

@@ -110,7 +110,7 @@ function StartWindow({ page }: { page: LinkPageResponse }) {
 }
 
 /** What the trade's answer was, or what they are asked; the first thing on the page. */
-function Answer({ page }: { page: LinkPageResponse }) {
+export function BookingAnswerBanner({ page }: { page: LinkPageResponse }) {
   const box = (
     tone: "ok" | "wait" | "risk" | "accent",
     children: ReactNode,
@@ -197,7 +197,16 @@ function Answer({ page }: { page: LinkPageResponse }) {
   }
 }
 
-function Actions({
+/** Sends an answer; resolves when it is recorded (the page is then refreshed by the caller's hook). */
+export interface AnswerSender {
+  mutateAsync: (
+    body: z.output<typeof linkAnswerBodySchema>,
+  ) => Promise<unknown>;
+  isPending: boolean;
+  variables?: { answer: string };
+}
+
+function LinkActions({
   token,
   page,
   ready,
@@ -207,6 +216,22 @@ function Actions({
   ready: boolean;
 }) {
   const answer = useAnswerByLink(token);
+  return <BookingAnswerForm page={page} ready={ready} answer={answer} />;
+}
+
+/**
+ * Confirm / Can't make it / Propose another start, for one booking page. The sender is the link's
+ * answer or the signed-in trade's: the form is the same.
+ */
+export function BookingAnswerForm({
+  page,
+  ready,
+  answer,
+}: {
+  page: LinkPageResponse;
+  ready: boolean;
+  answer: AnswerSender;
+}) {
   const [open, setOpen] = useState<"decline" | "propose" | null>(null);
   const [error, setError] = useState<string | null>(null);
   const form = useForm<
@@ -401,53 +426,64 @@ export function BookingLinkPage({
         description={`For ${p.tradeBusinessName}`}
       />
       <div className="flex flex-col gap-5">
-        <Answer page={p} />
-        <Card className="p-4">
-          <dl className="flex flex-col">
-            <Row label="When">
-              <span className="flex flex-wrap items-center gap-2">
-                <span className="font-mono font-medium">{visitWords(p)}</span>
-                {/* "Sent" is the workshop's word: the box above asks the question instead. */}
-                {p.status === "current" &&
-                p.state !== "sent" &&
-                p.state !== "needs-reconfirming" ? (
-                  <BookingStateBadge state={p.state} />
-                ) : null}
-              </span>
-            </Row>
-            <Row label="Where">
-              <span className="block">{p.jobArea}</span>
-              {p.siteAddress ? (
-                <span className="mt-1 block font-medium whitespace-pre-line">
-                  {p.siteAddress}
-                </span>
-              ) : (
-                <span className="mt-1 block text-sm text-ink-soft">
-                  The full address and access notes are shown once you confirm.
-                </span>
-              )}
-            </Row>
-            {p.accessNotes ? (
-              <Row label="Access notes">
-                <span className="whitespace-pre-line">{p.accessNotes}</span>
-              </Row>
-            ) : null}
-            <Row label="It waits for">
-              <WaitsOn page={p} />
-            </Row>
-            <Row label="Start dates that keep handover">
-              <StartWindow page={p} />
-            </Row>
-            {p.customerNote ? (
-              <Row label="On site">
-                <span className="whitespace-pre-line">{p.customerNote}</span>
-              </Row>
-            ) : null}
-          </dl>
-        </Card>
-        {p.caution ? <CautionNote>{p.caution}</CautionNote> : null}
-        {canAnswer ? <Actions token={token} page={p} ready={ready} /> : null}
+        <BookingAnswerBanner page={p} />
+        <BookingFacts page={p} />
+        {canAnswer ? (
+          <LinkActions token={token} page={p} ready={ready} />
+        ) : null}
       </div>
+    </>
+  );
+}
+
+/** The booking's facts as the trade sees them: when, where, access, what it waits for, the start window, the caution. */
+export function BookingFacts({ page: p }: { page: LinkPageResponse }) {
+  return (
+    <>
+      <Card className="p-4">
+        <dl className="flex flex-col">
+          <Row label="When">
+            <span className="flex flex-wrap items-center gap-2">
+              <span className="font-mono font-medium">{visitWords(p)}</span>
+              {/* "Sent" is the workshop's word: the box above asks the question instead. */}
+              {p.status === "current" &&
+              p.state !== "sent" &&
+              p.state !== "needs-reconfirming" ? (
+                <BookingStateBadge state={p.state} />
+              ) : null}
+            </span>
+          </Row>
+          <Row label="Where">
+            <span className="block">{p.jobArea}</span>
+            {p.siteAddress ? (
+              <span className="mt-1 block font-medium whitespace-pre-line">
+                {p.siteAddress}
+              </span>
+            ) : (
+              <span className="mt-1 block text-sm text-ink-soft">
+                The full address and access notes are shown once you confirm.
+              </span>
+            )}
+          </Row>
+          {p.accessNotes ? (
+            <Row label="Access notes">
+              <span className="whitespace-pre-line">{p.accessNotes}</span>
+            </Row>
+          ) : null}
+          <Row label="It waits for">
+            <WaitsOn page={p} />
+          </Row>
+          <Row label="Start dates that keep handover">
+            <StartWindow page={p} />
+          </Row>
+          {p.customerNote ? (
+            <Row label="On site">
+              <span className="whitespace-pre-line">{p.customerNote}</span>
+            </Row>
+          ) : null}
+        </dl>
+      </Card>
+      {p.caution ? <CautionNote>{p.caution}</CautionNote> : null}
     </>
   );
 }

@@ -68,16 +68,29 @@ type Filter = "all" | ThreadAudience;
  * conversation reads), new ones arriving by polling, a "New" divider at the first unread one,
  * and the composer for the audiences the server allows them.
  */
-export function JobThread({ jobId }: { jobId: string }) {
+export function JobThread({
+  jobId,
+  audience,
+}: {
+  jobId: string;
+  /** Open filtered to this audience, and write to it by default (a trade's visit page: "Trades & workshop"). */
+  audience?: ThreadAudience;
+}) {
   // Keyed by job: the divider, the scroll position and the composer start afresh on another job.
-  return <JobThreadView key={jobId} jobId={jobId} />;
+  return <JobThreadView key={jobId} jobId={jobId} audience={audience} />;
 }
 
-function JobThreadView({ jobId }: { jobId: string }) {
+function JobThreadView({
+  jobId,
+  audience,
+}: {
+  jobId: string;
+  audience?: ThreadAudience;
+}) {
   const client = useQueryClient();
   const thread = useThread(jobId);
   const markRead = useMarkThreadRead(jobId);
-  const [filter, setFilter] = useState<Filter>("all");
+  const [filter, setFilter] = useState<Filter>(audience ?? "all");
   const [earlier, setEarlier] = useState<{
     busy: boolean;
     error: string | null;
@@ -276,7 +289,11 @@ function JobThreadView({ jobId }: { jobId: string }) {
           </p>
         ) : null}
         {data.audiences.length > 0 ? (
-          <ThreadComposer jobId={jobId} audiences={data.audiences} />
+          <ThreadComposer
+            jobId={jobId}
+            audiences={data.audiences}
+            defaultAudience={audience}
+          />
         ) : (
           <p className="text-sm text-ink-soft">
             You can read this thread; posting here is not open to you.

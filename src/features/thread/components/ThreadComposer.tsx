@@ -45,13 +45,19 @@ interface ThreadComposerProps {
   jobId: string;
   /** What the server lets this person post to, widest first. */
   audiences: ThreadAudience[];
+  /** Preselected when allowed (else the widest). */
+  defaultAudience?: ThreadAudience;
 }
 
 /**
  * Writes a message to one audience, with up to THREAD_MAX_FILES files. On any refusal the text,
  * the audience and the chosen files stay as they were, with the server's reason beside them.
  */
-export function ThreadComposer({ jobId, audiences }: ThreadComposerProps) {
+export function ThreadComposer({
+  jobId,
+  audiences,
+  defaultAudience,
+}: ThreadComposerProps) {
   const send = useSendMessage(jobId);
   const [files, setFiles] = useState<File[]>([]);
   const [fileError, setFileError] = useState<string | null>(null);
@@ -62,7 +68,13 @@ export function ThreadComposer({ jobId, audiences }: ThreadComposerProps) {
 
   const form = useForm<Input, unknown, Output>({
     resolver: zodResolver(postMessageFieldsSchema),
-    defaultValues: { audience: audiences[0], text: "" },
+    defaultValues: {
+      audience:
+        defaultAudience && audiences.includes(defaultAudience)
+          ? defaultAudience
+          : audiences[0],
+      text: "",
+    },
   });
   const { errors } = form.formState;
   const audience = useWatch({ control: form.control, name: "audience" });

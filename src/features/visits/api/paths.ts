@@ -1,0 +1,3 @@
+export const myVisitsPath = "/api/me/visits";
+export const visitPath = (bookingId: string) =>
+  `/api/visits/${encodeURIComponent(bookingId)}`;
