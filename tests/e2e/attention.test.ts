@@ -313,6 +313,22 @@ describe("the owner's home: what needs attention now", () => {
       ),
     });
     expect(await axeSeriousOrWorse(page, [".sitecue-calendar"])).toEqual([]);
+
+    // Fixed: the plasterer is asked again from the options; home no longer lists the decline.
+    await options
+      .getByRole("button", { name: "Send to Ashby Plaster & Coving" })
+      .click();
+    await booking
+      .page()
+      .getByText(/^Sent to Ashby Plaster & Coving/)
+      .waitFor();
+    await page.getByRole("link", { name: "← All jobs" }).click();
+    await item(
+      page,
+      declineJob,
+      "has not answered the booking for Template coving",
+    ).waitFor();
+    expect(await item(page, declineJob, "declined").count()).toBe(0);
   });
 
   it("“Move it on the programme” lands on the programme with the clashing task marked", async () => {

@@ -19,6 +19,8 @@ export const attentionQueryOptions = (workshopId: string) =>
   queryOptions({
     queryKey: attentionKeys.workshop(workshopId),
     queryFn: ({ signal }) => getAttention(workshopId, signal),
+    // Fresh each time home is opened: the maker has usually just fixed something elsewhere.
+    staleTime: 0,
     refetchInterval: 30_000,
   });
 
