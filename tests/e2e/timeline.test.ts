@@ -18,7 +18,15 @@ import {
 } from "../factories/demo-scenario";
 import { Job } from "../../server/modules/jobs/jobs.entity";
 import { localToday } from "../../server/modules/jobs/jobs.presenter";
-import { launchBrowser, phone, shot, visible, watchConsole } from "./browser";
+import { samplePng } from "../setup/uploads";
+import {
+  desktop,
+  launchBrowser,
+  phone,
+  shot,
+  visible,
+  watchConsole,
+} from "./browser";
 
 let t: TestApp;
 let browser: Browser;
@@ -287,7 +295,81 @@ describe("the customer's timeline on a phone", () => {
       .scrollIntoViewIfNeeded();
     await shot(page, "timeline-03-away-day-phone");
     expect(await axeSeriousOrWorse(page)).toEqual([]);
+  });
+
+  it("her home has the drawings shared with her and the whole-job thread, and nothing else", async () => {
+    const alcoves = await t.db.ds.manager.findOneByOrFail(Job, {
+      title: "Alcove cabinets, front room",
+    });
+    const owner = await signIn(t, demoAccounts.owner.email);
+    const p = (
+      await owner.agent.get(`/api/jobs/${alcoves.id}/programme`).expect(200)
+    ).body as ProgrammeResponse;
+    const carcasses = p.tasks.find(
+      (x) => x.name === "Fix carcasses & scribes",
+    )!;
+    const drawing = async (title: string, withCustomer: boolean) => {
+      let req = owner.agent
+        .post(`/api/jobs/${alcoves.id}/drawings`)
+        .set("X-CSRF-Token", owner.csrf)
+        .field("title", title)
+        .field("kind", "drawing")
+        .field("taskIds", carcasses.id);
+      if (withCustomer) req = req.field("shareWithCustomer", "true");
+      await req
+        .attach("file", await samplePng(320, 200), "elevation.png")
+        .expect(201);
+    };
+    await drawing("Elevation, alcoves", true);
+    await drawing("Setting-out for the workshop", false);
+    const post = (audience: string, text: string) =>
+      owner.agent
+        .post(`/api/jobs/${alcoves.id}/thread/messages`)
+        .set("X-CSRF-Token", owner.csrf)
+        .send({ audience, text })
+        .expect(201);
+    await post("job", "The doors are sprayed and arrive next week.");
+    await post("workshop", "Check the finisher's invoice before paying.");
+
+    await page.reload();
+    const drawings = page.getByRole("list", { name: "Drawings" });
+    await visible(
+      drawings.getByRole("heading", { name: "Elevation, alcoves" }),
+    );
+    expect(
+      await drawings
+        .getByRole("heading", { name: "Setting-out for the workshop" })
+        .count(),
+    ).toBe(0);
+    await visible(
+      page.getByText("The doors are sprayed and arrive next week."),
+    );
+    expect(
+      await page
+        .getByText("Check the finisher's invoice before paying.")
+        .count(),
+    ).toBe(0);
+    await shot(page, "timeline-04-drawings-and-thread-phone");
+    expect(await axeSeriousOrWorse(page)).toEqual([]);
     expect(problems).toEqual([]);
     await page.context().close();
+  });
+
+  it("reads the same at a desk, and the next look shows nothing as changed", async () => {
+    const context = await browser.newContext({ viewport: desktop });
+    const desk = await context.newPage();
+    const deskProblems = watchConsole(desk);
+    await desk.goto(`${t.url}/sign-in`);
+    await desk.getByLabel("E-mail").fill(demoAccounts.customer.email);
+    await desk.getByLabel("Password").fill(DEMO_PASSWORD);
+    await desk.getByRole("button", { name: "Sign in" }).click();
+    await visible(desk.getByRole("heading", { name: "Your visits" }));
+    await visible(desk.getByTestId("visit"));
+    // The phone's page marked the moved visits seen; her next look has no highlight.
+    expect(await desk.locator('[data-changed="true"]').count()).toBe(0);
+    await shot(desk, "timeline-05-customer-home-desktop");
+    expect(await axeSeriousOrWorse(desk)).toEqual([]);
+    expect(deskProblems).toEqual([]);
+    await context.close();
   });
 });
