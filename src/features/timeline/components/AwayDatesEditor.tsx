@@ -144,7 +144,7 @@ export function AwayDatesEditor({ jobId }: { jobId: string }) {
     <Section
       title="Dates you'll be away"
       id={`away-${jobId}`}
-      description="Nobody is booked to come on these days. If a visit is already booked then, the workshop is told."
+      description="These days are closed for booking. If a visit is already booked then, the workshop is told."
     >
       {body()}
     </Section>
