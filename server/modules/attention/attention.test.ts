@@ -265,7 +265,7 @@ describe("bookings", () => {
       label: "Answer Ashby Plaster & Coving",
       to: `/jobs/${jobId}?booking=${b.id}#job-bookings`,
     });
-    // A proposal is the trade waiting for the workshop: it ranks above bookings awaiting an answer.
+    // The proposal replaces the "no answer yet" item: the booking is not both.
     expect(
       items.some((i) => i.kind === "awaiting-answer" && i.bookingId === b.id),
     ).toBe(false);
@@ -536,6 +536,17 @@ describe("order and wording", () => {
     const { items } = await attention();
     const rank = items.map((i) => attentionKinds.indexOf(i.kind));
     expect(rank).toEqual([...rank].sort((a, b) => a - b));
+    // Within a kind, the work that comes soonest: the demo's template (next working day) is
+    // asked before the second fix (three working days out).
+    const at = (task: string) =>
+      items.findIndex(
+        (i) =>
+          i.kind === "awaiting-answer" &&
+          i.job.id === alcoves.id &&
+          i.task?.name === task,
+      );
+    expect(at("Template coving")).toBeGreaterThanOrEqual(0);
+    expect(at("Template coving")).toBeLessThan(at("Electrician second fix"));
     for (const i of items) {
       expect(i.sentence).toMatch(/[.]$/);
       expect(i.action.to.startsWith(`/jobs/${i.job.id}`)).toBe(true);
