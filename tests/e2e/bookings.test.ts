@@ -284,7 +284,7 @@ describe("booking a trade and their answer by link", () => {
       });
     await item
       .getByRole("button", {
-        name: `Copy the confirmation link for ${plasterer}`,
+        name: `Copy link: the confirmation link for ${plasterer}`,
       })
       .click();
     await visible(item.getByText("Link copied", { exact: false }));

@@ -72,7 +72,8 @@ async function goToMonth(page: Page, yyyyMm: string): Promise<void> {
     if (date.slice(0, 7) === yyyyMm) return;
     await page
       .getByRole("button", {
-        name: date.slice(0, 7) < yyyyMm ? "Next month" : "Previous month",
+        name: date.slice(0, 7) < yyyyMm ? "Next" : "Previous",
+        exact: true,
       })
       .click();
   }

@@ -261,7 +261,7 @@ export function CopyLinkButton({ booking }: { booking: BookingResponse }) {
         size="sm"
         busy={state.kind === "busy"}
         onClick={copy}
-        aria-label={`Copy the confirmation link for ${booking.tradeBusinessName}`}
+        aria-label={`Copy link: the confirmation link for ${booking.tradeBusinessName}`}
       >
         Copy link
       </Button>
