@@ -9,6 +9,8 @@ export default defineConfig({
   // Only src, server, shared and tests are allowed at the top level: static assets
   // live in src/assets and are imported, so there is no public folder.
   publicDir: false,
+  // Test runs build clients into .data/test/…; the dev server must not reload on those.
+  server: { watch: { ignored: ["**/.data/**", "**/tests/output/**"] } },
   build: {
     outDir: "dist/client",
     emptyOutDir: true,

@@ -32,9 +32,9 @@ import { registerDevMailRoutes } from "./modules/mail/mail.router";
 import { registerDrawingRoutes } from "./modules/drawings/drawings.router";
 import { registerTradeRoutes } from "./modules/trades/trades.router";
 import { registerVisitRoutes } from "./modules/visits/visits.router";
-import { registerAttentionRoutes } from "./modules/attention/attention.router";
 import { registerThreadRoutes } from "./modules/thread/thread.router";
 import { registerTimelineRoutes } from "./modules/timeline/timeline.router";
+import { registerAttentionRoutes } from "./modules/attention/attention.router";
 import {
   DEFAULT_NOTICE_DELAY_MS,
   sendThreadNotices,
@@ -169,14 +169,13 @@ export function createApp(deps: AppDeps): SitecueApp {
     signInLimit: deps.signInLimit ?? 10,
     windowMs: deps.signInWindowMs ?? 15 * 60 * 1000,
   });
-  registerJobRoutes(api, deps.ds);
   // Uploads (drawings, templates, site photos, thread attachments) go through server/modules/files.
   const files: FilesDeps = {
     ds: deps.ds,
     storage: deps.storage,
     maxBytes: deps.uploadMaxBytes ?? 25 * 1024 * 1024,
   };
-  void files; // the drawings and thread routes take it
+  registerJobRoutes(api, deps.ds, files);
   const bookingDeps = {
     ds: deps.ds,
     appUrl: deps.appUrl,
@@ -194,6 +193,7 @@ export function createApp(deps: AppDeps): SitecueApp {
   registerCustomerRoutes(api, deps.ds);
   registerFeedRoutes(api, bookingDeps);
   registerVisitRoutes(api, bookingDeps);
+  registerDrawingRoutes(api, { ds: deps.ds, files, appUrl: deps.appUrl });
   const threadDeps = {
     ds: deps.ds,
     appUrl: deps.appUrl,
@@ -203,7 +203,6 @@ export function createApp(deps: AppDeps): SitecueApp {
   registerThreadRoutes(api, threadDeps);
   registerTimelineRoutes(api, deps.ds);
   registerAttentionRoutes(api, deps.ds);
-  registerDrawingRoutes(api, { ds: deps.ds, files, appUrl: deps.appUrl });
   if (deps.mailbox) registerDevMailRoutes(api, deps.mailbox);
   api.add({
     method: "get",

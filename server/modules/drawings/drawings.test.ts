@@ -3,6 +3,7 @@
 import { createHash } from "node:crypto";
 import { ListObjectsV2Command, S3Client } from "@aws-sdk/client-s3";
 import sharp from "sharp";
+import { In } from "typeorm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Response } from "superagent";
 import {
@@ -802,6 +803,64 @@ describe("deleting", () => {
       }),
     ).toBe(0);
     await s.owner.agent.get(`/api/drawings/${created.body.id}`).expect(404);
+  });
+});
+
+describe("deleting a job", () => {
+  it("removes its drawings' and thread attachments' files from the bucket and stored_files", async () => {
+    const bookcase = await t.db.ds.manager.findOneByOrFail(Job, {
+      title: demoJobTitles.bookcase,
+    });
+    const survey = await t.db.ds.manager.findOneByOrFail(Task, {
+      jobId: bookcase.id,
+    });
+    const drawing = await upload(s.owner, bookcase.id, {
+      title: "Bookcase elevation",
+      kind: "drawing",
+      taskIds: [survey.id],
+      file: { bytes: await samplePng(400, 300), name: "bookcase.png" },
+    }).expect(201);
+    await revise(s.owner, drawing.body.id, "Shelves moved", {
+      bytes: samplePdf("Bookcase Rev B"),
+      name: "bookcase-b.pdf",
+    }).expect(201);
+    await s.owner.agent
+      .post(`/api/jobs/${bookcase.id}/thread/messages/upload`)
+      .set("X-CSRF-Token", s.owner.csrf)
+      .field("audience", "workshop")
+      .field("text", "Survey photo")
+      .attach("file", await sampleJpeg(300, 200), "survey.jpg")
+      .expect(201);
+    const before = await bucketKeys();
+    const ours = await t.db.ds.manager.query(
+      "SELECT r.fileId FROM drawing_revisions r JOIN drawings d ON d.id = r.drawingId WHERE d.jobId = ? " +
+        "UNION SELECT a.fileId FROM thread_attachments a JOIN thread_messages m ON m.seq = a.messageSeq WHERE m.jobId = ?",
+      [bookcase.id, bookcase.id],
+    );
+    expect(ours).toHaveLength(3);
+    const files = await t.db.ds.manager.findBy(StoredFile, {
+      id: In(ours.map((r: { fileId: string }) => r.fileId)),
+    });
+    const keys = files.flatMap((f) =>
+      [f.storageKey, f.thumbnailKey].filter((k): k is string => !!k),
+    );
+    // bookcase.png and survey.jpg have thumbnails; the PDF has none.
+    expect(keys).toHaveLength(5);
+    expect(before.filter((k) => keys.includes(k))).toHaveLength(5);
+
+    await s.owner.agent
+      .delete(`/api/jobs/${bookcase.id}`)
+      .set("X-CSRF-Token", s.owner.csrf)
+      .expect(204);
+    const after = await bucketKeys();
+    expect(after.filter((k) => keys.includes(k))).toEqual([]);
+    // Nothing else in the bucket was touched.
+    expect(after).toEqual(before.filter((k) => !keys.includes(k)));
+    expect(
+      await t.db.ds.manager.countBy(StoredFile, {
+        id: In(files.map((f) => f.id)),
+      }),
+    ).toBe(0);
   });
 });
 

@@ -8,6 +8,7 @@ import {
   updateJobBodySchema,
 } from "../../../shared/schemas";
 import type { ApiRoutes } from "../../http/routes";
+import type { FilesDeps } from "../files/files.service";
 import {
   createJob,
   deleteJob,
@@ -19,7 +20,11 @@ import {
 const jobParams = z.object({ jobId: idSchema });
 const workshopParams = z.object({ workshopId: idSchema });
 
-export function registerJobRoutes(api: ApiRoutes, ds: DataSource): void {
+export function registerJobRoutes(
+  api: ApiRoutes,
+  ds: DataSource,
+  files?: FilesDeps,
+): void {
   api.add({
     method: "get",
     path: "/jobs",
@@ -68,6 +73,7 @@ export function registerJobRoutes(api: ApiRoutes, ds: DataSource): void {
     summary: "Delete a job (owner only)",
     params: jobParams,
     status: 204,
-    handler: async ({ actor, params }) => deleteJob(ds, actor, params.jobId),
+    handler: async ({ actor, params }) =>
+      deleteJob(ds, actor, params.jobId, files),
   });
 }

@@ -10,6 +10,8 @@ import { Task, TaskLink } from "../programme/programme.entity";
 import { Trade } from "../trades/trades.entity";
 import { Workshop } from "../workshops/workshops.entity";
 import { Job } from "./jobs.entity";
+import { StoredFile } from "../files/files.entity";
+import { deleteStoredFiles, type FilesDeps } from "../files/files.service";
 import { ACTIVE_STATES, jobResource } from "./job-access";
 import { applyStarter } from "../starters/starters.service";
 import {
@@ -70,18 +72,14 @@ export async function listJobs(
     ds
       .getRepository(Booking)
       .findBy({ jobId: In(ids), state: In(ACTIVE_STATES) }),
-    ds
-      .getRepository(Task)
-      .find({
-        where: { jobId: In(ids) },
-        select: { id: true, name: true, party: true },
-      }),
-    ds
-      .getRepository(Trade)
-      .find({
-        where: { workshopId: In([...new Set(jobs.map((j) => j.workshopId))]) },
-        select: { id: true, businessName: true, kind: true },
-      }),
+    ds.getRepository(Task).find({
+      where: { jobId: In(ids) },
+      select: { id: true, name: true, party: true },
+    }),
+    ds.getRepository(Trade).find({
+      where: { workshopId: In([...new Set(jobs.map((j) => j.workshopId))]) },
+      select: { id: true, businessName: true, kind: true },
+    }),
   ]);
   const byId = <T extends { id: string }>(xs: T[]) =>
     new Map(xs.map((x) => [x.id, x]));
@@ -241,10 +239,18 @@ export async function deleteJob(
   ds: DataSource,
   actor: Actor | null,
   jobId: string,
+  files?: FilesDeps,
 ): Promise<void> {
   requireActor(actor);
   const job = await loadJob(ds, jobId);
   authorize(actor, "job.delete", await jobResource(ds, job));
+  // The job's drawings and thread attachments go with it (foreign keys cascade); their files are
+  // rows and bucket objects of their own, removed once the deletion has committed.
+  const fileIds: { fileId: string }[] = await ds.query(
+    "SELECT r.fileId FROM drawing_revisions r JOIN drawings d ON d.id = r.drawingId WHERE d.jobId = ? " +
+      "UNION SELECT a.fileId FROM thread_attachments a JOIN thread_messages t ON t.seq = a.messageSeq WHERE t.jobId = ?",
+    [jobId, jobId],
+  );
   await ds.transaction(async (m) => {
     await m.delete(Job, { id: jobId });
     await audit(m, {
@@ -256,4 +262,11 @@ export async function deleteJob(
       detail: { title: job.title },
     });
   });
+  if (files && fileIds.length)
+    await deleteStoredFiles(
+      files,
+      await ds.manager.findBy(StoredFile, {
+        id: In(fileIds.map((f) => f.fileId)),
+      }),
+    );
 }
