@@ -16,6 +16,11 @@ import {
   demoAccounts,
   demoJobTitles,
 } from "../factories/demo-scenario";
+import {
+  DEMO_DRAWING_TITLE,
+  loadDemoDrawings,
+} from "../factories/demo-drawings";
+import { Drawing } from "../../server/modules/drawings/drawings.entity";
 import { OutboxMessage } from "../../server/infra/outbox/outbox.entity";
 import { Job } from "../../server/modules/jobs/jobs.entity";
 import { Task } from "../../server/modules/programme/programme.entity";
@@ -27,6 +32,13 @@ let programme: ProgrammeResponse;
 
 beforeAll(async () => {
   t = await startTestApp({ demo: true, listen: true });
+  // The demo's elevation drawing, shared with plasterers, for the coving tasks.
+  await loadDemoDrawings(
+    t.db.ds,
+    t.storage,
+    demoJobTitles.alcoves,
+    demoAccounts.owner.email,
+  );
   browser = await launchBrowser();
   const job = await t.db.ds.manager.findOneByOrFail(Job, {
     title: demoJobTitles.alcoves,
@@ -143,6 +155,15 @@ describe("the trade's home and visit page on a phone", () => {
       `Waiting on ${pred.name} (planned ${day(result(pred.name).plannedFinish)})`,
     );
     expect(tText).toMatch(/Caution: Work at height/);
+    // The drawings for them: the elevation, linking to its page.
+    const drawing = await t.db.ds.manager.findOneByOrFail(Drawing, {
+      title: DEMO_DRAWING_TITLE,
+    });
+    const link = template.getByRole("link", { name: DEMO_DRAWING_TITLE });
+    await expect(link.getAttribute("href")).resolves.toBe(
+      `/jobs/${programme.jobId}/drawings/${drawing.id}`,
+    );
+    expect(tText).toContain("Drawing, Rev A, for this task");
 
     await expect(coving.getByTestId("visit-state").innerText()).resolves.toBe(
       "Confirmed",

@@ -25,6 +25,10 @@ import {
   demoAccounts,
   demoJobTitles,
 } from "../../../tests/factories/demo-scenario";
+import {
+  DEMO_DRAWING_TITLE,
+  loadDemoDrawings,
+} from "../../../tests/factories/demo-drawings";
 import { OutboxMessage } from "../../infra/outbox/outbox.entity";
 import { Booking } from "../bookings/bookings.entity";
 import { Job } from "../jobs/jobs.entity";
@@ -152,6 +156,12 @@ beforeAll(async () => {
     start: "2027-04-12T08:00",
     finish: "2027-04-12T16:30",
   });
+  await loadDemoDrawings(
+    t.db.ds,
+    t.storage,
+    demoJobTitles.alcoves,
+    demoAccounts.owner.email,
+  );
   kit = await signIn(t, "kit@farrowplaster.example.test");
 }, 120_000);
 afterAll(async () => t?.close());
@@ -288,6 +298,18 @@ describe("GET /me/visits", () => {
         waitingOn: [{ name: "Template coving" }],
       },
     });
+    // The drawings for them: the elevation shared with plasterers, linked to both coving tasks.
+    expect(template!.drawings).toEqual([
+      expect.objectContaining({
+        title: DEMO_DRAWING_TITLE,
+        kind: "drawing",
+        currentRevision: "A",
+        forThisTask: true,
+      }),
+    ]);
+    // Kit (a plasterer of the same workshop, not on the alcove job) sees no drawing of it.
+    const kitVisits = await myVisits(kit);
+    expect(JSON.stringify(kitVisits.body)).not.toContain(DEMO_DRAWING_TITLE);
     // Tasks at height carry the caution.
     expect(template!.caution).toMatch(/Work at height/);
     for (const text of [...forbiddenText, "Brightwire", "sam@brightwire"])
