@@ -54,6 +54,8 @@ export async function loadDemoScenario(
   opts: { storage?: Storage } = {},
 ): Promise<void> {
   const day = (n: number) => weekdaysFrom(today, n);
+  /** An instant n days before now (when invitations went out). */
+  const daysAgo = (n: number) => new Date(Date.now() - n * 86_400_000);
   await ds.transaction(async (m) => {
     const workshop = await buildWorkshop(m, {
       name: "Hollin & Vane Joinery",
@@ -211,6 +213,7 @@ export async function loadDemoScenario(
     await buildLink(m, secondFix, handover);
     await buildBooking(m, firstFix, electrician, {
       state: "confirmed",
+      sentAt: daysAgo(9),
       start: `${day(-3)}T08:00`,
       finish: `${day(-3)}T12:00`,
       arrivalWindow: "morning",
@@ -218,12 +221,14 @@ export async function loadDemoScenario(
     });
     await buildBooking(m, template, plasterer, {
       state: "sent",
+      sentAt: daysAgo(2),
       start: `${day(1)}T08:00`,
       finish: `${day(1)}T12:00`,
       arrivalWindow: "morning",
     });
     await buildBooking(m, coving, plasterer, {
       state: "confirmed",
+      sentAt: daysAgo(6),
       start: `${day(4)}T08:00`,
       finish: `${day(4)}T16:30`,
       arrivalWindow: "range",
@@ -232,12 +237,14 @@ export async function loadDemoScenario(
     });
     await buildBooking(m, secondFix, electrician, {
       state: "sent",
+      sentAt: daysAgo(4),
       start: `${day(3)}T12:00`,
       finish: `${day(3)}T16:30`,
       arrivalWindow: "afternoon",
     });
     await buildBooking(m, paint, decorator, {
       state: "confirmed",
+      sentAt: daysAgo(6),
       start: `${day(6)}T08:00`,
       finish: `${day(7)}T16:30`,
       arrivalWindow: "all-day",
