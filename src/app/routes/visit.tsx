@@ -1,4 +1,4 @@
-import { Link, useParams } from "react-router-dom";
+import { Link, useLocation, useParams } from "react-router-dom";
 import {
   BookingAnswerBanner,
   BookingAnswerForm,
@@ -19,6 +19,7 @@ import {
   PageHeader,
 } from "../../components/ui";
 import { isApiError } from "../../lib/api-client";
+import { useScrollTarget } from "../../lib/use-scroll-target";
 
 function BackLink() {
   return (
@@ -38,6 +39,11 @@ export function VisitRoute() {
   const { bookingId = "" } = useParams();
   const detail = useVisit(bookingId);
   const answer = useAnswerVisit(bookingId);
+  // "Propose another start" on the home list lands on the answer form.
+  const { hash } = useLocation();
+  useScrollTarget(
+    detail.isSuccess && hash ? decodeURIComponent(hash.slice(1)) : null,
+  );
   if (detail.isPending)
     return (
       <>
