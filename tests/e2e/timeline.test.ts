@@ -362,10 +362,20 @@ describe("the customer's timeline on a phone", () => {
     await desk.goto(`${t.url}/sign-in`);
     await desk.getByLabel("E-mail").fill(demoAccounts.customer.email);
     await desk.getByLabel("Password").fill(DEMO_PASSWORD);
+    // A look is recorded once the timeline has been on screen a moment (POST …/timeline/seen);
+    // the phone page above may have closed before its call, so wait for this page's own.
+    const seen = desk.waitForResponse(
+      (r) =>
+        r.url().includes("/timeline/seen") && r.request().method() === "POST",
+      { timeout: 15_000 },
+    );
     await desk.getByRole("button", { name: "Sign in" }).click();
     await visible(desk.getByRole("heading", { name: "Your visits" }));
     await visible(desk.getByTestId("visit"));
-    // The phone's page marked the moved visits seen; her next look has no highlight.
+    expect((await seen).status()).toBeLessThan(300);
+    // Having looked, her next look has no highlight.
+    await desk.reload();
+    await visible(desk.getByTestId("visit"));
     expect(await desk.locator('[data-changed="true"]').count()).toBe(0);
     await shot(desk, "timeline-05-customer-home-desktop");
     expect(await axeSeriousOrWorse(desk)).toEqual([]);

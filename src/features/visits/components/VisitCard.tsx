@@ -169,7 +169,13 @@ export function VisitCard({ visit }: { visit: Visit }) {
     <Card className="flex flex-col gap-4 p-4" data-testid="visit-card">
       <header className="flex flex-col gap-0.5">
         <p className="text-sm text-ink-soft">
-          {visit.workshopName} · {visit.jobTitle}
+          {visit.workshopName} ·{" "}
+          <Link
+            to={`/jobs/${visit.jobId}`}
+            className="underline underline-offset-2"
+          >
+            {visit.jobTitle}
+          </Link>
         </p>
         <h3 className="text-lg font-semibold">
           <Link
