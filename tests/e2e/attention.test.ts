@@ -2,7 +2,6 @@
 // sentences, and each item's one button lands on the screen where it is fixed — the booking on the
 // job page (with "Book the next plasterer" opening the booking options), the programme with the
 // clashing task marked. Chromium against the built client (production CSP), axe-core on each page.
-import fs from "node:fs";
 import path from "node:path";
 import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -13,15 +12,19 @@ import {
   startTestApp,
   type TestApp,
 } from "../setup/test-app";
-import {
-  demoAccounts,
-  demoJobTitles,
-  DEMO_PASSWORD,
-} from "../factories/demo-scenario";
+import { demoAccounts, demoJobTitles } from "../factories/demo-scenario";
 import { Booking } from "../../server/modules/bookings/bookings.entity";
 import { Job } from "../../server/modules/jobs/jobs.entity";
 import { Trade } from "../../server/modules/trades/trades.entity";
-import { desktop, launchBrowser, phone, shot, watchConsole } from "./browser";
+import {
+  axeSeriousOrWorse,
+  desktop,
+  launchBrowser,
+  phone,
+  shot,
+  signInPage,
+} from "./browser";
+import { createJobFromStarter } from "../setup/jobs";
 
 let t: TestApp;
 let browser: Browser;
@@ -38,6 +41,9 @@ afterAll(async () => {
   await t?.close();
 });
 
+const signIn = (viewport = desktop) =>
+  signInPage(browser, t.url!, demoAccounts.owner.email, { viewport });
+
 /**
  * Through the API, as the screens would: a job whose plasterer declined by link, and a job whose
  * decorator is booked (with a reason) on the day they already have on the demo alcove job.
@@ -48,32 +54,19 @@ async function setUpSituations() {
   const alcoves = await m.findOneByOrFail(Job, {
     title: demoJobTitles.alcoves,
   });
-  const starters = (
-    await owner.agent.get(`/api/workshops/${alcoves.workshopId}/starters`)
-  ).body.starters;
-  const starter = starters.find(
-    (s: { name: string }) => s.name === "Alcove cabinets (pair)",
-  );
   const newJob = async (title: string) => {
-    const res = await owner.agent
-      .post(`/api/workshops/${alcoves.workshopId}/jobs`)
-      .set("X-CSRF-Token", owner.csrf)
-      .send({
-        title,
-        customerId: alcoves.customerId,
-        siteAddress: "3 Example Close, Wetherfold",
-        postcode: "QX6 3EC",
-        area: "Example Close, Wetherfold",
-        holidayRegion: "GB-ENG",
-        starterId: starter.id,
-        status: "planned",
-      })
-      .expect(201);
-    const p = (
-      await owner.agent.get(`/api/jobs/${res.body.id}/programme`).expect(200)
-    ).body;
+    const id = await createJobFromStarter(owner, {
+      workshopId: alcoves.workshopId,
+      customerId: alcoves.customerId,
+      title,
+      siteAddress: "3 Example Close, Wetherfold",
+      postcode: "QX6 3EC",
+      area: "Example Close, Wetherfold",
+    });
+    const p = (await owner.agent.get(`/api/jobs/${id}/programme`).expect(200))
+      .body;
     return {
-      id: res.body.id as string,
+      id,
       task: (name: string) =>
         p.tasks.find((x: { name: string }) => x.name === name).id as string,
     };
@@ -133,63 +126,6 @@ async function setUpSituations() {
       overrideReason: "Waiting to hear if they bring a second painter",
     })
     .expect(201);
-}
-
-async function signIn(
-  viewport = desktop,
-): Promise<{ page: Page; problems: string[] }> {
-  const context = await browser.newContext({ viewport });
-  const page = await context.newPage();
-  const problems = watchConsole(page);
-  await page.goto(`${t.url}/sign-in`);
-  await page.getByLabel("E-mail").fill(demoAccounts.owner.email);
-  await page.getByLabel("Password").fill(DEMO_PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"));
-  return { page, problems };
-}
-
-/**
- * axe's serious and critical findings. `exclude` leaves out parts owned by other screens (the job
- * page's FullCalendar month grid has findings of its own, reported apart from this feature's).
- */
-async function axeSeriousOrWorse(page: Page, exclude: string[] = []) {
-  // The production CSP (script-src 'self') refuses an injected <script> (addScriptTag), so
-  // axe is evaluated through the DevTools protocol instead, with the page's CSP left on.
-  await page.evaluate(
-    fs.readFileSync(
-      path.resolve(
-        import.meta.dirname,
-        "../../node_modules/axe-core/axe.min.js",
-      ),
-      "utf8",
-    ),
-  );
-  const result = await page.evaluate(async (exclude) => {
-    const axe = (
-      window as unknown as {
-        axe: {
-          run: (context?: unknown) => Promise<{
-            violations: {
-              id: string;
-              impact: string | null;
-              help: string;
-              nodes: { target: string[] }[];
-            }[];
-          }>;
-        };
-      }
-    ).axe;
-    return exclude.length
-      ? axe.run({ include: [document], exclude: exclude.map((e) => [e]) })
-      : axe.run();
-  }, exclude);
-  return result.violations
-    .filter((v) => v.impact === "serious" || v.impact === "critical")
-    .map(
-      (v) =>
-        `${v.id} (${v.impact}): ${v.help} — ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`,
-    );
 }
 
 const list = (page: Page) => page.getByRole("list", { name: "Needs you now" });
@@ -312,7 +248,7 @@ describe("the owner's home: what needs attention now", () => {
         "../output/screens/attention-02-book-the-next-plasterer.png",
       ),
     });
-    expect(await axeSeriousOrWorse(page, [".sitecue-calendar"])).toEqual([]);
+    expect(await axeSeriousOrWorse(page)).toEqual([]);
 
     // Fixed: the plasterer is asked again from the options; home no longer lists the decline.
     await options

@@ -4,7 +4,6 @@
 // date, confirms and then sees the full address; the owner's job page shows the booking confirmed
 // "by link". A start on a day the plasterer is booked on another job is flagged with their next
 // free start. Chromium against the built client, production CSP, axe-core on the link page.
-import fs from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Locator, Page } from "playwright-core";
@@ -13,17 +12,15 @@ import type {
   BookingResponse,
 } from "../../shared/schemas";
 import { startTestApp, type TestApp } from "../setup/test-app";
+import { demoAccounts, demoJobTitles } from "../factories/demo-scenario";
 import {
-  demoAccounts,
-  demoJobTitles,
-  DEMO_PASSWORD,
-} from "../factories/demo-scenario";
-import {
-  desktop,
+  apiGet,
+  axeSeriousOrWorse,
   launchBrowser,
   phone,
   screensDir,
   shot,
+  signInPage,
   visible,
   watchConsole,
 } from "./browser";
@@ -39,6 +36,8 @@ afterAll(async () => {
   await browser?.close();
   await t?.close();
 });
+
+const signIn = () => signInPage(browser, t.url!, demoAccounts.owner.email);
 
 const WEEKDAY = ["Sun", "Mon", "Tue", "Wed", "Thu", "Fri", "Sat"];
 const MONTH = "Jan Feb Mar Apr May Jun Jul Aug Sep Oct Nov Dec".split(" ");
@@ -60,68 +59,11 @@ const siteAddress = "9 Wren Street, Wetherfold";
 const postcode = "QX3 8WS";
 const area = "Wren Street, Wetherfold";
 
-async function signIn(): Promise<{ page: Page; problems: string[] }> {
-  const context = await browser.newContext({ viewport: desktop });
-  const page = await context.newPage();
-  const problems = watchConsole(page);
-  await page.goto(`${t.url}/sign-in`);
-  await page.getByLabel("E-mail").fill(demoAccounts.owner.email);
-  await page.getByLabel("Password").fill(DEMO_PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"));
-  return { page, problems };
-}
-
-/** GET an API path with the page's own session (what the screens read). */
-async function apiGet<T>(page: Page, p: string): Promise<T> {
-  return page.evaluate(async (url) => {
-    const r = await fetch(url, { headers: { Accept: "application/json" } });
-    return r.json();
-  }, p) as Promise<T>;
-}
-
 const taskItem = (page: Page, name: string): Locator =>
   page
     .getByRole("list", { name: "Tasks" })
     .getByRole("listitem")
     .filter({ has: page.getByRole("heading", { name, exact: true }) });
-
-async function axeSeriousOrWorse(page: Page) {
-  // The production CSP (script-src 'self') refuses an injected <script> (addScriptTag), so
-  // axe is evaluated through the DevTools protocol instead, with the page's CSP left on.
-  await page.evaluate(
-    fs.readFileSync(
-      path.resolve(
-        import.meta.dirname,
-        "../../node_modules/axe-core/axe.min.js",
-      ),
-      "utf8",
-    ),
-  );
-  const result = await page.evaluate(async () => {
-    const axe = (
-      window as unknown as {
-        axe: {
-          run: () => Promise<{
-            violations: {
-              id: string;
-              impact: string | null;
-              help: string;
-              nodes: { target: string[] }[];
-            }[];
-          }>;
-        };
-      }
-    ).axe;
-    return axe.run();
-  });
-  return result.violations
-    .filter((v) => v.impact === "serious" || v.impact === "critical")
-    .map(
-      (v) =>
-        `${v.id} (${v.impact}): ${v.help} — ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`,
-    );
-}
 
 describe("booking a trade and their answer by link", () => {
   let jobId = "";

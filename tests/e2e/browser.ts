@@ -1,6 +1,7 @@
 import fs from "node:fs";
 import path from "node:path";
 import { chromium, type Browser, type Page } from "playwright-core";
+import { DEMO_PASSWORD } from "../factories/demo-scenario";
 
 export const screensDir = path.resolve(
   import.meta.dirname,
@@ -60,4 +61,81 @@ export async function countOf(
 ): Promise<number> {
   await locator.page().waitForLoadState("networkidle");
   return locator.count();
+}
+
+/** Signs in through the real form in a fresh browser context; returns the page and its console problems. */
+export async function signInPage(
+  browser: Browser,
+  baseUrl: string,
+  email: string,
+  opts: {
+    viewport?: { width: number; height: number };
+    acceptDownloads?: boolean;
+    /** Start at "/" and let the signed-out guard send us to the form (as a person would arrive). */
+    viaGuard?: boolean;
+  } = {},
+): Promise<{ page: Page; problems: string[] }> {
+  const context = await browser.newContext({
+    viewport: opts.viewport ?? desktop,
+    acceptDownloads: opts.acceptDownloads ?? false,
+  });
+  const page = await context.newPage();
+  const problems = watchConsole(page);
+  if (opts.viaGuard) {
+    await page.goto(`${baseUrl}/`);
+    await page.waitForURL(/\/sign-in/);
+  } else {
+    await page.goto(`${baseUrl}/sign-in`);
+  }
+  await page.getByLabel("E-mail").fill(email);
+  await page.getByLabel("Password").fill(DEMO_PASSWORD);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"));
+  return { page, problems };
+}
+
+/** GET an API path with the page's own session (what the screens read). */
+export async function apiGet<T>(page: Page, p: string): Promise<T> {
+  return page.evaluate(async (url) => {
+    const r = await fetch(url, { headers: { Accept: "application/json" } });
+    return r.json();
+  }, p) as Promise<T>;
+}
+
+const axeSource = () =>
+  fs.readFileSync(
+    path.resolve(import.meta.dirname, "../../node_modules/axe-core/axe.min.js"),
+    "utf8",
+  );
+
+/**
+ * axe-core's serious and critical findings on the whole page. The production CSP (script-src
+ * 'self') refuses an injected <script> (addScriptTag), so axe is evaluated through the DevTools
+ * protocol instead, with the page's CSP left on.
+ */
+export async function axeSeriousOrWorse(page: Page): Promise<string[]> {
+  await page.evaluate(axeSource());
+  const result = await page.evaluate(async () => {
+    const axe = (
+      window as unknown as {
+        axe: {
+          run: () => Promise<{
+            violations: {
+              id: string;
+              impact: string | null;
+              help: string;
+              nodes: { target: string[] }[];
+            }[];
+          }>;
+        };
+      }
+    ).axe;
+    return axe.run();
+  });
+  return result.violations
+    .filter((v) => v.impact === "serious" || v.impact === "critical")
+    .map(
+      (v) =>
+        `${v.id} (${v.impact}): ${v.help} — ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`,
+    );
 }

@@ -6,15 +6,15 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
 import { startTestApp, type TestApp } from "../setup/test-app";
 import { bankHolidayDays } from "../../shared/programme";
-import { demoAccounts, DEMO_PASSWORD } from "../factories/demo-scenario";
+import { demoAccounts } from "../factories/demo-scenario";
 import {
   desktop,
   launchBrowser,
   phone,
   screensDir,
   shot,
+  signInPage,
   visible,
-  watchConsole,
 } from "./browser";
 
 let t: TestApp;
@@ -29,20 +29,8 @@ afterAll(async () => {
   await t?.close();
 });
 
-async function signIn(
-  email: string,
-  viewport = desktop,
-): Promise<{ page: Page; problems: string[] }> {
-  const context = await browser.newContext({ viewport });
-  const page = await context.newPage();
-  const problems = watchConsole(page);
-  await page.goto(`${t.url}/sign-in`);
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(DEMO_PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"));
-  return { page, problems };
-}
+const signIn = (email: string, viewport = desktop) =>
+  signInPage(browser, t.url!, email, { viewport });
 
 /** A calendar event (FullCalendar's harness) by the task name in its label. */
 const fcEvent = (page: Page, name: string) =>

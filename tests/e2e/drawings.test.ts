@@ -20,18 +20,16 @@ import type {
 } from "../../shared/schemas";
 import { startTestApp, type TestApp } from "../setup/test-app";
 import { sampleDxf } from "../setup/uploads";
+import { demoAccounts, demoJobTitles } from "../factories/demo-scenario";
 import {
-  demoAccounts,
-  demoJobTitles,
-  DEMO_PASSWORD,
-} from "../factories/demo-scenario";
-import {
+  apiGet,
+  axeSeriousOrWorse,
   desktop,
   launchBrowser,
   phone,
   shot,
+  signInPage,
   visible,
-  watchConsole,
 } from "./browser";
 
 let t: TestApp;
@@ -45,6 +43,9 @@ afterAll(async () => {
   await browser?.close();
   await t?.close();
 });
+
+const signInAs = (email: string, viewport = desktop) =>
+  signInPage(browser, t.url!, email, { viewport, acceptDownloads: true });
 
 const jobTitle = demoJobTitles.alcoves;
 const plasterer = "Ashby Plaster & Coving";
@@ -176,29 +177,6 @@ function expectedReadiness(p: ProgrammeResponse, taskId: string): string {
   }
 }
 
-async function signInAs(
-  email: string,
-  viewport = desktop,
-): Promise<{ page: Page; problems: string[] }> {
-  const context = await browser.newContext({ viewport, acceptDownloads: true });
-  const page = await context.newPage();
-  const problems = watchConsole(page);
-  await page.goto(`${t.url}/sign-in`);
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(DEMO_PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"));
-  return { page, problems };
-}
-
-/** GET an API path with the page's own session. */
-async function apiGet<T>(page: Page, p: string): Promise<T> {
-  return page.evaluate(async (url) => {
-    const r = await fetch(url, { headers: { Accept: "application/json" } });
-    return r.json();
-  }, p) as Promise<T>;
-}
-
 /**
  * Slows the page's uploads (DevTools protocol, Network.emulateNetworkConditions) so the
  * progress bar has time to be seen between 0 and 100 %.
@@ -244,43 +222,6 @@ const progressSeen = (page: Page) =>
   page.evaluate(
     () => (window as unknown as { __progress: number[] }).__progress,
   );
-
-async function axeSeriousOrWorse(page: Page) {
-  // The production CSP (script-src 'self') refuses an injected <script> (addScriptTag), so axe
-  // is evaluated through the DevTools protocol instead, with the page's CSP left on.
-  await page.evaluate(
-    fs.readFileSync(
-      path.resolve(
-        import.meta.dirname,
-        "../../node_modules/axe-core/axe.min.js",
-      ),
-      "utf8",
-    ),
-  );
-  const result = await page.evaluate(async () => {
-    const axe = (
-      window as unknown as {
-        axe: {
-          run: () => Promise<{
-            violations: {
-              id: string;
-              impact: string | null;
-              help: string;
-              nodes: { target: string[] }[];
-            }[];
-          }>;
-        };
-      }
-    ).axe;
-    return axe.run();
-  });
-  return result.violations
-    .filter((v) => v.impact === "serious" || v.impact === "critical")
-    .map(
-      (v) =>
-        `${v.id} (${v.impact}): ${v.help} — ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`,
-    );
-}
 
 /** How many of the canvas's sampled pixels are not blank (pdf.js drew something). */
 async function inkedPixels(canvas: Locator): Promise<number> {
@@ -407,11 +348,9 @@ describe("scenario 5: drawings and templates", () => {
     expect([...seen].sort((a, b) => a - b)).toEqual(seen);
     expect(seen.at(-1)).toBe(100);
 
-    const item = region
-      .getByRole("listitem")
-      .filter({
-        has: page.getByRole("heading", { name: drawingTitle, exact: true }),
-      });
+    const item = region.getByRole("listitem").filter({
+      has: page.getByRole("heading", { name: drawingTitle, exact: true }),
+    });
     await visible(item.getByText("Drawing", { exact: true }));
     await visible(item.getByText("Rev A", { exact: true }));
     await visible(item.getByText(`For: ${covingTasks.join(", ")}`));
@@ -551,11 +490,9 @@ describe("scenario 5: drawings and templates", () => {
     const { page, problems } = await signInAs(demoAccounts.trade.email, phone);
     await page.goto(`${t.url}/jobs/${jobId}`);
     const region = drawingsRegion(page);
-    const item = region
-      .getByRole("listitem")
-      .filter({
-        has: page.getByRole("heading", { name: drawingTitle, exact: true }),
-      });
+    const item = region.getByRole("listitem").filter({
+      has: page.getByRole("heading", { name: drawingTitle, exact: true }),
+    });
     await visible(item.getByText("Rev B", { exact: true }));
     // Sharing is the workshop's business: a trade is not shown it.
     expect(await item.getByText("Shared with").count()).toBe(0);
@@ -735,14 +672,12 @@ describe("scenario 5: drawings and templates", () => {
     await shot(page, "drawings-13-shared-with-customer-desktop");
 
     await rosa.page.reload();
-    const item = region
-      .getByRole("listitem")
-      .filter({
-        has: rosa.page.getByRole("heading", {
-          name: drawingTitle,
-          exact: true,
-        }),
-      });
+    const item = region.getByRole("listitem").filter({
+      has: rosa.page.getByRole("heading", {
+        name: drawingTitle,
+        exact: true,
+      }),
+    });
     await visible(item.getByText("Rev B", { exact: true }));
     expect(await region.getByRole("listitem").count()).toBe(1);
     await item.getByRole("link", { name: drawingTitle, exact: true }).click();

@@ -6,15 +6,15 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Locator, Page } from "playwright-core";
 import { workingDaysBetween } from "../../shared/programme";
 import { startTestApp, type TestApp } from "../setup/test-app";
-import { demoAccounts, DEMO_PASSWORD } from "../factories/demo-scenario";
+import { demoAccounts } from "../factories/demo-scenario";
 import {
   desktop,
   launchBrowser,
   phone,
   screensDir,
   shot,
+  signInPage,
   visible,
-  watchConsole,
 } from "./browser";
 
 let t: TestApp;
@@ -28,6 +28,9 @@ afterAll(async () => {
   await browser?.close();
   await t?.close();
 });
+
+const signIn = (viewport = desktop) =>
+  signInPage(browser, t.url!, demoAccounts.owner.email, { viewport });
 
 // The site and workshop calendars of a new demo job: Mon–Fri, England's bank holidays.
 const calendar = { id: "workshop", holidayRegion: "GB-ENG" as const };
@@ -64,20 +67,6 @@ function dayText(date: string): string {
       ? ` ${d.getUTCFullYear()}`
       : "";
   return `${WEEKDAY[d.getUTCDay()]} ${d.getUTCDate()} ${MONTH[d.getUTCMonth()]}${year}`;
-}
-
-async function signIn(
-  viewport = desktop,
-): Promise<{ page: Page; problems: string[] }> {
-  const context = await browser.newContext({ viewport });
-  const page = await context.newPage();
-  const problems = watchConsole(page);
-  await page.goto(`${t.url}/sign-in`);
-  await page.getByLabel("E-mail").fill(demoAccounts.owner.email);
-  await page.getByLabel("Password").fill(DEMO_PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"));
-  return { page, problems };
 }
 
 const taskItem = (page: Page, name: string): Locator =>

@@ -3,19 +3,15 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
 import { startTestApp, type TestApp } from "../setup/test-app";
-import {
-  demoAccounts,
-  demoJobTitles,
-  DEMO_PASSWORD,
-} from "../factories/demo-scenario";
+import { demoAccounts, demoJobTitles } from "../factories/demo-scenario";
 import {
   countOf,
   desktop,
   launchBrowser,
   phone,
   shot,
+  signInPage,
   visible,
-  watchConsole,
 } from "./browser";
 
 let t: TestApp;
@@ -30,22 +26,8 @@ afterAll(async () => {
   await t?.close();
 });
 
-async function signInAs(
-  email: string,
-  viewport = desktop,
-): Promise<{ page: Page; problems: string[] }> {
-  const context = await browser.newContext({ viewport });
-  const page = await context.newPage();
-  const problems = watchConsole(page);
-  await page.goto(`${t.url}/`);
-  // Signed out: the guard sends us to the sign-in form.
-  await page.waitForURL(/\/sign-in/);
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(DEMO_PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"));
-  return { page, problems };
-}
+const signInAs = (email: string, viewport = desktop) =>
+  signInPage(browser, t.url!, email, { viewport, viaGuard: true });
 
 const nav = (page: Page) => page.getByRole("navigation", { name: "Main" });
 

@@ -5,7 +5,6 @@
 // characters) with safe links; a photo goes up with progress and shows as a thumbnail; a refused
 // file keeps what was typed; the customer sees only "Whole job". Chromium against the built
 // client (production CSP), axe-core on each role's page.
-import fs from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Locator, Page } from "playwright-core";
@@ -15,19 +14,16 @@ import { Job } from "../../server/modules/jobs/jobs.entity";
 import { postSystemNote } from "../../server/modules/thread/thread-notes";
 import { startTestApp, type TestApp } from "../setup/test-app";
 import { samplePng, sampleElf } from "../setup/uploads";
+import { demoAccounts, demoJobTitles } from "../factories/demo-scenario";
 import {
-  demoAccounts,
-  demoJobTitles,
-  DEMO_PASSWORD,
-} from "../factories/demo-scenario";
-import {
+  axeSeriousOrWorse,
   desktop,
   launchBrowser,
   phone,
   screensDir,
   shot,
+  signInPage,
   visible,
-  watchConsole,
 } from "./browser";
 
 let t: TestApp;
@@ -42,6 +38,9 @@ afterAll(async () => {
   await t?.close();
 });
 
+const signInAs = (email: string, viewport = desktop) =>
+  signInPage(browser, t.url!, email, { viewport });
+
 const jobTitle: string = demoJobTitles.alcoves;
 const workshopOnly =
   "Price the extra length of coving before we tell anyone else.";
@@ -50,21 +49,6 @@ const tradesText =
 const tradesLink = "https://example.test/coving/ogee-90";
 const wholeJob = "The dust sheets stay down until the decorator has been.";
 const systemText = "Kestrel Decorating confirmed Fill, caulk & paint.";
-
-async function signInAs(
-  email: string,
-  viewport = desktop,
-): Promise<{ page: Page; problems: string[] }> {
-  const context = await browser.newContext({ viewport });
-  const page = await context.newPage();
-  const problems = watchConsole(page);
-  await page.goto(`${t.url}/sign-in`);
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(DEMO_PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"));
-  return { page, problems };
-}
 
 /** The job page by its address (what a link in a notice e-mail opens). */
 async function openJob(
@@ -117,44 +101,6 @@ async function post(
   // Sent: the composer is cleared and the message is in the list.
   await visible(messages(page).getByText(text, { exact: true }));
   expect(await form.getByLabel("Message").inputValue()).toBe("");
-}
-
-/** axe-core's serious and critical findings, on the whole page or inside `selector`. */
-async function axeSeriousOrWorse(page: Page, selector?: string) {
-  // The production CSP (script-src 'self') refuses an injected <script> (addScriptTag), so
-  // axe is evaluated through the DevTools protocol instead, with the page's CSP left on.
-  await page.evaluate(
-    fs.readFileSync(
-      path.resolve(
-        import.meta.dirname,
-        "../../node_modules/axe-core/axe.min.js",
-      ),
-      "utf8",
-    ),
-  );
-  const result = await page.evaluate(async (include) => {
-    const axe = (
-      window as unknown as {
-        axe: {
-          run: (context?: unknown) => Promise<{
-            violations: {
-              id: string;
-              impact: string | null;
-              help: string;
-              nodes: { target: string[] }[];
-            }[];
-          }>;
-        };
-      }
-    ).axe;
-    return axe.run(include ? { include: [include] } : undefined);
-  }, selector ?? null);
-  return result.violations
-    .filter((v) => v.impact === "serious" || v.impact === "critical")
-    .map(
-      (v) =>
-        `${v.id} (${v.impact}): ${v.help} — ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`,
-    );
 }
 
 describe("the job thread", () => {
@@ -370,9 +316,8 @@ describe("the job thread", () => {
     await filters.getByRole("button", { name: "All" }).click();
     await visible(messages(page).getByText("Coving template first thing"));
     await post(page, "Whole job", wholeJob, "keys");
-    // The thread only: the workshop's job page also carries the calendar and the bookings,
-    // whose own findings are theirs to answer (the phone pages below are checked whole).
-    expect(await axeSeriousOrWorse(page, "#job-thread")).toEqual([]);
+    // The whole job page: thread, calendar, bookings and drawings together.
+    expect(await axeSeriousOrWorse(page)).toEqual([]);
 
     // Another job of the demo has no messages yet (its API says so first).
     const otherId = (await jobByTitle(demoJobTitles.wardrobe)).id;

@@ -5,8 +5,6 @@
 // electrician's moved visit stands out as changed with its old day. She marks a day away on a
 // visit already booked, and is told the workshop knows. Chromium against the built client
 // (production CSP), screenshots of each step, axe-core on each page.
-import fs from "node:fs";
-import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Locator, Page } from "playwright-core";
 import type { ProgrammeResponse } from "../../shared/schemas";
@@ -20,6 +18,7 @@ import { Job } from "../../server/modules/jobs/jobs.entity";
 import { localToday } from "../../server/modules/jobs/jobs.presenter";
 import { samplePng } from "../setup/uploads";
 import {
+  axeSeriousOrWorse,
   desktop,
   launchBrowser,
   phone,
@@ -52,43 +51,6 @@ function dayText(local: string): string {
       ? ` ${d.getUTCFullYear()}`
       : "";
   return `${WEEKDAY[d.getUTCDay()]} ${d.getUTCDate()} ${MONTH[d.getUTCMonth()]}${year}`;
-}
-
-async function axeSeriousOrWorse(page: Page) {
-  // The production CSP (script-src 'self') refuses an injected <script> (addScriptTag), so
-  // axe is evaluated through the DevTools protocol instead, with the page's CSP left on.
-  await page.evaluate(
-    fs.readFileSync(
-      path.resolve(
-        import.meta.dirname,
-        "../../node_modules/axe-core/axe.min.js",
-      ),
-      "utf8",
-    ),
-  );
-  const result = await page.evaluate(async () => {
-    const axe = (
-      window as unknown as {
-        axe: {
-          run: () => Promise<{
-            violations: {
-              id: string;
-              impact: string | null;
-              help: string;
-              nodes: { target: string[] }[];
-            }[];
-          }>;
-        };
-      }
-    ).axe;
-    return axe.run();
-  });
-  return result.violations
-    .filter((v) => v.impact === "serious" || v.impact === "critical")
-    .map(
-      (v) =>
-        `${v.id} (${v.impact}): ${v.help} — ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`,
-    );
 }
 
 /** The visit card whose heading is `who` and whose work is `task`. */

@@ -5,8 +5,6 @@
 // started; says they are running late for the coving visit (the workshop's e-mail is checked in
 // the outbox); looks at the knock-on of another day; opens the visit page with the booking's
 // details and the thread. axe-core finds no serious or critical violations on either page.
-import fs from "node:fs";
-import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Locator, Page } from "playwright-core";
 import type { ProgrammeResponse } from "../../shared/schemas";
@@ -24,7 +22,14 @@ import { Drawing } from "../../server/modules/drawings/drawings.entity";
 import { OutboxMessage } from "../../server/infra/outbox/outbox.entity";
 import { Job } from "../../server/modules/jobs/jobs.entity";
 import { Task } from "../../server/modules/programme/programme.entity";
-import { launchBrowser, phone, shot, visible, watchConsole } from "./browser";
+import {
+  axeSeriousOrWorse,
+  launchBrowser,
+  phone,
+  shot,
+  visible,
+  watchConsole,
+} from "./browser";
 
 let t: TestApp;
 let browser: Browser;
@@ -66,43 +71,6 @@ const day = (local: string) =>
 const task = (name: string) => programme.tasks.find((x) => x.name === name)!;
 const result = (name: string) =>
   programme.result.tasks.find((x) => x.id === task(name).id)!;
-
-async function axeSeriousOrWorse(page: Page) {
-  // The production CSP (script-src 'self') refuses an injected <script> (addScriptTag), so axe
-  // runs through page.evaluate (DevTools protocol), with the page's CSP left on.
-  await page.evaluate(
-    fs.readFileSync(
-      path.resolve(
-        import.meta.dirname,
-        "../../node_modules/axe-core/axe.min.js",
-      ),
-      "utf8",
-    ),
-  );
-  const violations = await page.evaluate(async () => {
-    const axe = (
-      window as unknown as {
-        axe: {
-          run: () => Promise<{
-            violations: {
-              id: string;
-              impact: string | null;
-              help: string;
-              nodes: { target: string[] }[];
-            }[];
-          }>;
-        };
-      }
-    ).axe;
-    return (await axe.run()).violations;
-  });
-  return violations
-    .filter((v) => v.impact === "serious" || v.impact === "critical")
-    .map(
-      (v) =>
-        `${v.id} (${v.impact}): ${v.help} — ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`,
-    );
-}
 
 const card = (page: Page, taskName: string): Locator =>
   page

@@ -25,6 +25,7 @@ import { Job } from "../jobs/jobs.entity";
 import { localToday } from "../jobs/jobs.presenter";
 import { Trade } from "../trades/trades.entity";
 import { agoText } from "./attention.service";
+import { createJobFromStarter } from "../../../tests/setup/jobs";
 
 let t: TestApp;
 let owner: Session;
@@ -68,28 +69,13 @@ async function starterJob(
   title: string,
   handoverDate = weekdaysFrom(today, 60),
 ) {
-  const starters = (
-    await owner.agent.get(`/api/workshops/${alcoves.workshopId}/starters`)
-  ).body.starters;
-  const starter = starters.find(
-    (s: { name: string }) => s.name === "Alcove cabinets (pair)",
-  );
-  const res = await owner.agent
-    .post(`/api/workshops/${alcoves.workshopId}/jobs`)
-    .set("X-CSRF-Token", owner.csrf)
-    .send({
-      title,
-      customerId: alcoves.customerId,
-      siteAddress: "9 Example Row, Wetherfold",
-      postcode: "QX9 9AB",
-      area: "Example Row, Wetherfold",
-      holidayRegion: "GB-ENG",
-      starterId: starter.id,
-      status: "planned",
-      handoverDate,
-    })
-    .expect(201);
-  return { jobId: res.body.id as string, p: await programme(res.body.id) };
+  const jobId = await createJobFromStarter(owner, {
+    workshopId: alcoves.workshopId,
+    customerId: alcoves.customerId,
+    title,
+    handoverDate,
+  });
+  return { jobId, p: await programme(jobId) };
 }
 
 async function firstFree(jobId: string, taskId: string, businessName: string) {

@@ -19,6 +19,7 @@ import { Job } from "../jobs/jobs.entity";
 import { Trade } from "../trades/trades.entity";
 import { Booking } from "./bookings.entity";
 import { buildItipReply } from "./itip-reply";
+import { createJobFromStarter } from "../../../tests/setup/jobs";
 
 let t: TestApp;
 let owner: Session;
@@ -73,27 +74,12 @@ const mailTo = (to: string, pred: (m: CaughtMail) => boolean) =>
 async function readyJob(
   title: string,
 ): Promise<{ jobId: string; p: ProgrammeResponse }> {
-  const starters = (
-    await owner.agent.get(`/api/workshops/${alcoves.workshopId}/starters`)
-  ).body.starters;
-  const starter = starters.find(
-    (s: { name: string }) => s.name === "Alcove cabinets (pair)",
-  );
-  const res = await owner.agent
-    .post(`/api/workshops/${alcoves.workshopId}/jobs`)
-    .set("X-CSRF-Token", owner.csrf)
-    .send({
-      title,
-      customerId: alcoves.customerId,
-      siteAddress: "9 Example Row, Wetherfold",
-      postcode: "QX9 9AB",
-      area: "Example Row, Wetherfold",
-      holidayRegion: "GB-ENG",
-      starterId: starter.id,
-      status: "planned",
-    })
-    .expect(201);
-  return { jobId: res.body.id, p: await programme(res.body.id) };
+  const jobId = await createJobFromStarter(owner, {
+    workshopId: alcoves.workshopId,
+    customerId: alcoves.customerId,
+    title,
+  });
+  return { jobId, p: await programme(jobId) };
 }
 
 describe("scenario 1: book the plasterer after the carcasses are fixed", () => {
