@@ -26,6 +26,8 @@ export const visitReadinessSchema = z.object({
       plannedFinish: z.string().nullable(),
       /** The first start it allows. */
       allowsFrom: z.string(),
+      /** The predecessor is done: only time (the rest of its day, a lag) is left to wait. */
+      done: z.boolean(),
     }),
   ),
 });

@@ -16,6 +16,8 @@ import { demoAccounts, demoJobTitles } from "../factories/demo-scenario";
 import {
   apiGet,
   axeSeriousOrWorse,
+  dayText,
+  half,
   launchBrowser,
   phone,
   screensDir,
@@ -38,20 +40,6 @@ afterAll(async () => {
 });
 
 const signIn = () => signInPage(browser, t.url!, demoAccounts.owner.email);
-
-const WEEKDAY = ["Sun", "Mon", "Tue", "Wed", "Thu", "Fri", "Sat"];
-const MONTH = "Jan Feb Mar Apr May Jun Jul Aug Sep Oct Nov Dec".split(" ");
-/** "Thu 5 Mar" as the screens write it (the year only outside this year). */
-function dayText(local: string): string {
-  const d = new Date(`${local.slice(0, 10)}T12:00:00Z`);
-  const year =
-    d.getUTCFullYear() !== new Date().getFullYear()
-      ? ` ${d.getUTCFullYear()}`
-      : "";
-  return `${WEEKDAY[d.getUTCDay()]} ${d.getUTCDate()} ${MONTH[d.getUTCMonth()]}${year}`;
-}
-const half = (local: string) =>
-  local.slice(11, 16) >= "12:00" ? "afternoon" : "morning";
 
 const plasterer = "Ashby Plaster & Coving";
 const jobTitle = "Alcove cabinets, dining room";

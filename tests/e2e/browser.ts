@@ -139,3 +139,22 @@ export async function axeSeriousOrWorse(page: Page): Promise<string[]> {
         `${v.id} (${v.impact}): ${v.help} — ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`,
     );
 }
+
+const WEEKDAY = ["Sun", "Mon", "Tue", "Wed", "Thu", "Fri", "Sat"];
+const MONTH = "Jan Feb Mar Apr May Jun Jul Aug Sep Oct Nov Dec".split(" ");
+/**
+ * "Thu 5 Mar" as the screens write a date (brief, "Look and feel": the weekday with the date; the
+ * year only outside this year), worked out here rather than by the app's own formatter.
+ */
+export function dayText(local: string): string {
+  const d = new Date(`${local.slice(0, 10)}T12:00:00Z`);
+  const year =
+    d.getUTCFullYear() !== new Date().getFullYear()
+      ? ` ${d.getUTCFullYear()}`
+      : "";
+  return `${WEEKDAY[d.getUTCDay()]} ${d.getUTCDate()} ${MONTH[d.getUTCMonth()]}${year}`;
+}
+
+/** The half of the day a local start falls in, as the booking screens say it. */
+export const half = (local: string) =>
+  local.slice(11, 16) >= "12:00" ? "afternoon" : "morning";

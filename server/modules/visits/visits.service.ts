@@ -123,6 +123,9 @@ function presentVisit(
   const r = ctx.result.tasks.find((t) => t.id === b.taskId);
   const byId = new Map(ctx.result.tasks.map((t) => [t.id, t]));
   const names = new Map(ctx.data.tasks.map((t) => [t.id, t.name]));
+  const finished = new Set(
+    ctx.data.tasks.filter((t) => t.actualFinish).map((t) => t.id),
+  );
   const active = (ACTIVE_STATES as string[]).includes(b.state);
   const confirmed = b.state === "confirmed";
   const progress = task.actualFinish
@@ -163,6 +166,7 @@ function presentVisit(
         name: names.get(w.task) ?? "",
         plannedFinish: byId.get(w.task)?.plannedFinish ?? null,
         allowsFrom: w.allowsFrom,
+        done: finished.has(w.task),
       })),
     },
     caution: cautionFor(task.party, task.hazards),

@@ -54,6 +54,18 @@ export function readinessWords(v: Visit): {
     case "clear":
       return { text: "Clear to start", tone: "ok" };
     case "waiting":
+      // Everything it waits for is done; only the rest of that day (or a lag) is left: the brief's
+      // "clear to start from the next working day".
+      if (r.waitingOn.length > 0 && r.waitingOn.every((w) => w.done))
+        return {
+          text: `Clear to start from ${dayWords(
+            r.waitingOn
+              .map((w) => w.allowsFrom)
+              .sort()
+              .at(-1)!,
+          )}`,
+          tone: "ok",
+        };
       return {
         text: `Waiting on ${r.waitingOn
           .map(

@@ -39,13 +39,35 @@ export interface TaskActions {
   move: (taskId: string, step: -1 | 1) => Promise<unknown>;
 }
 
-function Readiness({ row, name }: { row: Row; name: (id: string) => string }) {
+function Readiness({
+  row,
+  name,
+  isDone,
+}: {
+  row: Row;
+  name: (id: string) => string;
+  isDone: (id: string) => boolean;
+}) {
   const r = row.result.readiness;
   if (r.state === "done") return <StatusBadge tone="ok">Done</StatusBadge>;
   if (r.state === "started")
     return <StatusBadge tone="accent">Started</StatusBadge>;
   if (r.state === "clear")
     return <StatusBadge tone="ok">Clear to start</StatusBadge>;
+  // Everything it waits for is done and only time is left (the rest of that day, a drying lag):
+  // the brief's "clear to start from the next working day".
+  if (r.waitingOn.length > 0 && r.waitingOn.every((w) => isDone(w.task)))
+    return (
+      <StatusBadge tone="ok">
+        Clear to start from{" "}
+        {dayText(
+          r.waitingOn
+            .map((w) => w.allowsFrom)
+            .sort()
+            .at(-1)!,
+        )}
+      </StatusBadge>
+    );
   // Not a StatusBadge: the names can be long, so this one wraps on a phone.
   return (
     <span className="inline-flex max-w-full items-start gap-1.5 rounded border border-wait/40 bg-wait-wash px-2 py-0.5 text-xs font-medium text-ink">
@@ -92,6 +114,8 @@ export function TaskList({
 }: TaskListProps) {
   const name = (id: string) =>
     programme.tasks.find((t) => t.id === id)?.name ?? "a removed task";
+  const isDone = (id: string) =>
+    !!programme.tasks.find((t) => t.id === id)?.actualFinish;
   const ordered = reordering
     ? [...rows].sort((a, b) => a.task.sortOrder - b.task.sortOrder)
     : rows;
@@ -137,7 +161,7 @@ export function TaskList({
               {r.critical ? (
                 <StatusBadge tone="risk">Critical</StatusBadge>
               ) : null}
-              <Readiness row={row} name={name} />
+              <Readiness row={row} name={name} isDone={isDone} />
             </div>
             <p className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
               <span>
