@@ -30,6 +30,9 @@ const signInAs = (email: string, viewport = desktop) =>
   signInPage(browser, t.url!, email, { viewport, viaGuard: true });
 
 const nav = (page: Page) => page.getByRole("navigation", { name: "Main" });
+/** The labels of the main navigation's links, in order. */
+const navLabels = async (page: Page) =>
+  (await nav(page).getByRole("link").allInnerTexts()).map((l) => l.trim());
 
 describe("each demo role in the browser", () => {
   it("the owner sees the workshop's three jobs and the admin screens", async () => {
@@ -38,6 +41,13 @@ describe("each demo role in the browser", () => {
       await visible(page.getByRole("link", { name: title }));
     await visible(nav(page).getByRole("link", { name: "Trades" }));
     await visible(nav(page).getByRole("link", { name: "Members" }));
+    await visible(page.getByRole("heading", { name: "Jobs", level: 1 }));
+    expect(await navLabels(page)).toEqual([
+      "Jobs",
+      "Calendar",
+      "Trades",
+      "Members",
+    ]);
     await shot(page, "owner-home-desktop");
 
     await nav(page).getByRole("link", { name: "Members" }).click();
@@ -88,6 +98,9 @@ describe("each demo role in the browser", () => {
       await countOf(page.getByRole("link", { name: demoJobTitles.bookcase })),
     ).toBe(0);
     expect(await countOf(page.getByRole("link", { name: "Trades" }))).toBe(0);
+    // The navigation names their home as its heading does, and their calendar.
+    await visible(page.getByRole("heading", { name: "Your visits", level: 1 }));
+    expect(await navLabels(page)).toEqual(["Your visits", "My calendar"]);
     await shot(page, "trade-home-phone");
     await page
       .getByRole("link", { name: demoJobTitles.alcoves })
@@ -116,14 +129,43 @@ describe("each demo role in the browser", () => {
     expect(
       await countOf(page.getByRole("link", { name: demoJobTitles.bookcase })),
     ).toBe(0);
+    await visible(page.getByRole("heading", { name: "Your visits", level: 1 }));
+    expect(await navLabels(page)).toEqual(["Your visits"]);
     await shot(page, "customer-home-phone");
     await page.getByRole("link", { name: demoJobTitles.alcoves }).click();
     await visible(
-      page.getByText(
-        "Keep the room free of dust for painting; windows closed.",
-      ),
+      page.getByRole("heading", { name: demoJobTitles.alcoves, level: 1 }),
     );
-    expect(await countOf(page.getByText(/out of plumb/))).toBe(0);
+    // Her job's page is her plain timeline (what to prepare for the decorator's visit), with
+    // her address; not the programme, the bookings' states or the list of parties.
+    await visible(
+      page
+        .getByTestId("visit")
+        .filter({ hasText: "Fill, caulk & paint" })
+        .getByText("Keep the room free of dust for painting; windows closed."),
+    );
+    await visible(page.getByText("14 Larkspur Terrace, Wetherfold"));
+    await visible(page.getByRole("link", { name: "← Your visits" }));
+    for (const heading of ["Programme", "Who's involved", "Bookings"])
+      expect(
+        await countOf(page.getByRole("heading", { name: heading })),
+        heading,
+      ).toBe(0);
+    const text = await page.locator("main").innerText();
+    // Never the workshop's notes, the float, a booking's state or a trade's phone or e-mail.
+    for (const never of [
+      "out of plumb",
+      "Float",
+      "float",
+      "Needs re-confirming",
+      "Asked: please confirm",
+      "To be confirmed",
+      "01632 960 114",
+      "01632 960 271",
+      "01632 960 388",
+      "dev@ashbyplaster.example.test",
+    ])
+      expect(text, never).not.toContain(never);
     await shot(page, "customer-job-phone");
     expect(problems).toEqual([]);
     await page.context().close();

@@ -15,6 +15,15 @@ import {
   weekdaysFrom,
 } from "../factories/demo-scenario";
 import { Job } from "../../server/modules/jobs/jobs.entity";
+import { User } from "../../server/modules/users/users.entity";
+import {
+  buildBooking,
+  buildCustomer,
+  buildJob,
+  buildTask,
+  buildTrade,
+  buildWorkshop,
+} from "../factories/builders";
 import { localToday } from "../../server/modules/jobs/jobs.presenter";
 import { samplePng } from "../setup/uploads";
 import {
@@ -22,7 +31,9 @@ import {
   desktop,
   launchBrowser,
   phone,
+  countOf,
   shot,
+  signInPage,
   visible,
   watchConsole,
 } from "./browser";
@@ -343,5 +354,215 @@ describe("the customer's timeline on a phone", () => {
     expect(await axeSeriousOrWorse(desk)).toEqual([]);
     expect(deskProblems).toEqual([]);
     await context.close();
+  });
+});
+
+describe("the customer's job page", () => {
+  it("is the same plain timeline as her home, and a look there counts as her last look", async () => {
+    const alcoves = await t.db.ds.manager.findOneByOrFail(Job, {
+      title: "Alcove cabinets, front room",
+    });
+    // The owner slips Hang doors a day further (scenario 4), after her last look at a desk.
+    const owner = await signIn(t, demoAccounts.owner.email);
+    const p = (
+      await owner.agent.get(`/api/jobs/${alcoves.id}/programme`).expect(200)
+    ).body as ProgrammeResponse;
+    const doors = p.tasks.find((x) => x.name === "Hang doors")!;
+    await owner.agent
+      .post(`/api/jobs/${alcoves.id}/programme/apply`)
+      .set("X-CSRF-Token", owner.csrf)
+      .send({
+        version: p.version,
+        changes: [{ taskId: doors.id, notEarlierThan: day(6) }],
+      })
+      .expect(200);
+
+    // Straight to the job's page (from a link): the sign-in brings her back to it.
+    const context = await browser.newContext({ viewport: phone });
+    const page = await context.newPage();
+    const pageProblems = watchConsole(page);
+    await page.goto(`${t.url}/jobs/${alcoves.id}`);
+    await page.waitForURL(/\/sign-in/);
+    await page.getByLabel("E-mail").fill(demoAccounts.customer.email);
+    await page.getByLabel("Password").fill(DEMO_PASSWORD);
+    const seen = seenPosted(page);
+    await page.getByRole("button", { name: "Sign in" }).click();
+    await page.waitForURL((u) => u.pathname === `/jobs/${alcoves.id}`);
+    await visible(page.getByRole("heading", { name: alcoves.title, level: 1 }));
+
+    // Each visit as on her home: who, the day, the arrival window, what to prepare.
+    const template = visitCard(
+      page,
+      "Plasterer — Ashby Plaster & Coving",
+      "Template coving",
+    );
+    await visible(template);
+    expect(await template.getByTestId("visit-days").textContent()).toBe(
+      dayText(day(1)),
+    );
+    expect(await template.getByTestId("visit-arrival").textContent()).toBe(
+      "Morning",
+    );
+    const carcasses = visitCard(
+      page,
+      "Hollin & Vane Joinery",
+      "Fix carcasses & scribes",
+    );
+    expect(await carcasses.getByTestId("visit-prepare").textContent()).toBe(
+      "Clear both alcoves and the floor in front of them.",
+    );
+    // What moved since her last look stands out, with the day it was.
+    const hang = visitCard(page, "Hollin & Vane Joinery", "Hang doors");
+    expect(await hang.getAttribute("data-changed")).toBe("true");
+    expect(await hang.getByTestId("visit-days").textContent()).toBe(
+      dayText(day(6)),
+    );
+    expect(await hang.getByTestId("visit-was").textContent()).toContain(
+      dayText(day(5)),
+    );
+    // Her away dates, the drawing shared with her and the thread, as on her home; her address.
+    await visible(page.getByRole("heading", { name: "Dates you'll be away" }));
+    await visible(
+      page
+        .getByRole("list", { name: "Drawings" })
+        .getByRole("heading", { name: "Elevation, alcoves" }),
+    );
+    await visible(
+      page.getByText("The doors are sprayed and arrive next week."),
+    );
+    await visible(page.getByText("14 Larkspur Terrace, Wetherfold"));
+    const text = await page.locator("main").innerText();
+    for (const never of [
+      "out of plumb",
+      "Sprayed doors",
+      "Float",
+      "float",
+      "To be confirmed",
+      "Needs re-confirming",
+      "Who's involved",
+      "01632 960 114",
+      "01632 960 271",
+      "01632 960 388",
+      "dev@ashbyplaster.example.test",
+      "Check the finisher's invoice before paying.",
+    ])
+      expect(text, never).not.toContain(never);
+    await seen;
+    await shot(page, "timeline-06-customer-job-page-phone");
+    expect(await axeSeriousOrWorse(page)).toEqual([]);
+
+    // The look on the job's page was recorded: neither page highlights it again.
+    await page.reload();
+    await visible(hang);
+    expect(await page.locator('[data-changed="true"]').count()).toBe(0);
+    await page.getByRole("link", { name: "← Your visits" }).click();
+    await visible(page.getByRole("heading", { name: "Your visits", level: 1 }));
+    await visible(hang);
+    expect(await page.locator('[data-changed="true"]').count()).toBe(0);
+    expect(pageProblems).toEqual([]);
+    await context.close();
+  });
+});
+
+describe("a trade who is also a customer", () => {
+  it("sees their visits as a trade and, below, the visits to their own home", async () => {
+    // The demo plasterer has their own utility room fitted by another workshop.
+    const m = t.db.ds.manager;
+    const dev = await m.findOneByOrFail(User, {
+      email: demoAccounts.trade.email,
+    });
+    const brook = await buildWorkshop(m, { name: "Brook Lane Kitchens" });
+    const asCustomer = await buildCustomer(m, brook, {
+      name: dev.name,
+      email: dev.email,
+      userId: dev.id,
+    });
+    const utility = await buildJob(m, brook, asCustomer, {
+      title: "Utility room cupboards",
+      siteAddress: "3 Mill Row, Wetherfold",
+      status: "planned",
+    });
+    const fenwick = await buildTrade(m, brook, {
+      kind: "electrician",
+      businessName: "Fenwick Electrical",
+      phone: "01632 960 901",
+    });
+    const sockets = await buildTask(m, utility, {
+      name: "Move the sockets",
+      party: "electrician",
+      durationDays: 0.5,
+      customerNote: "Clear the worktop by the window.",
+    });
+    await buildBooking(m, sockets, fenwick, {
+      state: "confirmed",
+      start: `${day(2)}T08:00`,
+      finish: `${day(2)}T12:00`,
+      arrivalWindow: "morning",
+    });
+
+    const { page, problems: devProblems } = await signInPage(
+      browser,
+      t.url!,
+      demoAccounts.trade.email,
+      { viewport: phone },
+    );
+    await visible(page.getByRole("heading", { name: "Your visits", level: 1 }));
+    expect(
+      (
+        await page
+          .getByRole("navigation", { name: "Main" })
+          .getByRole("link")
+          .allInnerTexts()
+      ).map((l) => l.trim()),
+    ).toEqual(["Your visits", "My calendar"]);
+
+    // As a trade: the template visit on the alcove job, on its day.
+    const tradeVisit = page
+      .getByTestId("visit-card")
+      .filter({ has: page.getByRole("heading", { name: "Template coving" }) });
+    await visible(tradeVisit);
+    expect(await tradeVisit.getByTestId("visit-when").innerText()).toContain(
+      dayText(day(1)),
+    );
+
+    // As a customer, under its own heading: the electrician's visit to their home.
+    const home = page.getByRole("region", { name: "Visits to your home" });
+    await visible(home);
+    await visible(home.getByRole("link", { name: "Utility room cupboards" }));
+    const sock = visitCard(
+      page,
+      "Electrician — Fenwick Electrical",
+      "Move the sockets",
+    );
+    await visible(sock);
+    expect(await home.getByTestId("visit").count()).toBe(1);
+    expect(await sock.getByTestId("visit-days").textContent()).toBe(
+      dayText(day(2)),
+    );
+    expect(await sock.getByTestId("visit-arrival").textContent()).toBe(
+      "Morning",
+    );
+    expect(await sock.getByTestId("visit-prepare").textContent()).toBe(
+      "Clear the worktop by the window.",
+    );
+    // Their work as a trade stays above: the alcove job is not one of their homes.
+    expect(await home.getByTestId("visit-card").count()).toBe(0);
+    expect(await home.innerText()).not.toContain("Alcove cabinets, front room");
+    expect(await home.innerText()).not.toContain("01632 960 901");
+    await page.waitForLoadState("networkidle");
+    await shot(page, "timeline-07-trade-and-customer-home-phone");
+    expect(await axeSeriousOrWorse(page)).toEqual([]);
+
+    // Their customer job's page is the customer's plain view.
+    await home.getByRole("link", { name: "Utility room cupboards" }).click();
+    await visible(
+      page.getByRole("heading", { name: "Utility room cupboards", level: 1 }),
+    );
+    await visible(sock);
+    expect(
+      await countOf(page.getByRole("heading", { name: "Programme" })),
+    ).toBe(0);
+    expect(devProblems).toEqual([]);
+    await page.context().close();
   });
 });

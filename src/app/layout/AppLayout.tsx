@@ -1,7 +1,7 @@
 import type { ReactNode } from "react";
 import { NavLink, useNavigate } from "react-router-dom";
 import { useSignOut } from "../../features/auth/api/sign-out";
-import type { Viewer } from "../../features/auth/viewer";
+import { homeTitle, type Viewer } from "../../features/auth/viewer";
 import { Button, cx } from "../../components/ui";
 import { errorMessage } from "../../lib/api-client";
 import { useActiveWorkshop } from "../active-workshop";
@@ -14,15 +14,14 @@ interface NavItem {
 }
 
 function navItems(viewer: Viewer, isOwnerOfActive: boolean): NavItem[] {
+  // The first item reads as the home page's heading does.
+  const home = { to: "/", label: homeTitle(viewer) };
   if (!viewer.isMember)
     return viewer.user.trades.length > 0
-      ? [
-          { to: "/", label: "Jobs" },
-          { to: "/my-calendar", label: "My calendar" },
-        ]
-      : [{ to: "/", label: "Jobs" }];
+      ? [home, { to: "/my-calendar", label: "My calendar" }]
+      : [home];
   const items: NavItem[] = [
-    { to: "/", label: "Jobs" },
+    home,
     { to: "/calendar", label: "Calendar" },
     { to: "/trades", label: "Trades" },
   ];

@@ -9,10 +9,27 @@ import { VisitTimeline } from "../../features/timeline/components/VisitTimeline"
 // A customer uploads nothing and shares nothing: the drawings list only shows what is shared.
 const noSharing = { tradeKinds: [], trades: [], customerName: null };
 
-/** One of the customer's jobs: its visits, away dates, drawings shared with them and the thread. */
+/**
+ * What a customer sees of one job, on her home and on the job's page alike (brief, scenario 3):
+ * who comes when and what to prepare, what changed since her last look and the handover (the
+ * timeline), the dates she will be away, the drawings shared with her and the thread. Never the
+ * float, a booking's internal state or a trade's contact details. One column, phone first.
+ */
+export function CustomerJobView({ jobId }: { jobId: string }) {
+  return (
+    <div className="flex max-w-3xl min-w-0 flex-col gap-6">
+      <VisitTimeline jobId={jobId} />
+      <AwayDatesEditor jobId={jobId} />
+      <JobDrawings jobId={jobId} shareOptions={noSharing} />
+      <JobThread jobId={jobId} />
+    </div>
+  );
+}
+
+/** One of the customer's jobs on her home: its title (a link to its page), then its view. */
 function CustomerJob({ job }: { job: JobSummary }) {
-  // The job's title links to its page (its details and parties), and names the job when the
-  // customer has more than one.
+  // The title names the job when the customer has more than one, and leads to its page (the
+  // address and access notes).
   return (
     <section
       aria-labelledby={`job-${job.id}-title`}
@@ -29,28 +46,30 @@ function CustomerJob({ job }: { job: JobSummary }) {
           · {job.workshopName}
         </span>
       </h2>
-      {/* One column, phone first: what comes next, then the days away, then the rest. */}
-      <div className="flex max-w-3xl flex-col gap-6">
-        <VisitTimeline jobId={job.id} />
-        <AwayDatesEditor jobId={job.id} />
-        <JobDrawings jobId={job.id} shareOptions={noSharing} />
-        <JobThread jobId={job.id} />
-      </div>
+      <CustomerJobView jobId={job.id} />
     </section>
   );
 }
 
-/**
- * The customer's home (brief, scenario 3): for each of their jobs, who arrives when and what to
- * prepare, the dates they will be away, the drawings shared with them and the whole-job thread;
- * their calendar feed once, for all of them.
- */
-export function CustomerHome({ jobs }: { jobs: JobSummary[] }) {
+/** Each of the customer's jobs, one after another. */
+export function CustomerJobs({ jobs }: { jobs: JobSummary[] }) {
   return (
     <div className="flex flex-col gap-10">
       {jobs.map((job) => (
         <CustomerJob key={job.id} job={job} />
       ))}
+    </div>
+  );
+}
+
+/**
+ * The customer's home: for each of her jobs, its view (above); her calendar feed once, for all
+ * of them.
+ */
+export function CustomerHome({ jobs }: { jobs: JobSummary[] }) {
+  return (
+    <div className="flex flex-col gap-10">
+      <CustomerJobs jobs={jobs} />
       <div className="max-w-3xl">
         <FeedLink />
       </div>

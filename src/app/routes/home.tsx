@@ -15,11 +15,11 @@ import {
   Section,
 } from "../../components/ui";
 import { errorMessage } from "../../lib/api-client";
-import type { Membership } from "../../features/auth/viewer";
+import { homeTitle, type Membership } from "../../features/auth/viewer";
 import { useActiveWorkshop } from "../active-workshop";
 import { useViewer } from "../layout/guards";
 import { TradeHome } from "./trade-home";
-import { CustomerHome } from "./customer-home";
+import { CustomerHome, CustomerJobs } from "./customer-home";
 
 function NewJobPanel({
   workshop,
@@ -55,6 +55,41 @@ function NewJobPanel({
   );
 }
 
+/**
+ * A trade who is also a customer (their own home being fitted): below their visits as a trade,
+ * the visits to their home, job by job, as any customer sees them.
+ */
+function VisitsToYourHome() {
+  const jobs = useJobs();
+  const own = (jobs.data ?? []).filter((j) => j.viewerRole === "customer");
+  return (
+    <section
+      aria-labelledby="visits-to-your-home"
+      className="mt-10 flex flex-col gap-6 border-t border-rule pt-8"
+    >
+      <div>
+        <h2 id="visits-to-your-home" className="text-xl font-semibold">
+          Visits to your home
+        </h2>
+        <p className="text-sm text-ink-soft">
+          Jobs where you are the customer: who comes to your home, and when.
+        </p>
+      </div>
+      {jobs.isPending ? (
+        <LoadingState label="Loading your jobs…" />
+      ) : jobs.isError ? (
+        <ErrorState error={jobs.error} onRetry={() => jobs.refetch()} />
+      ) : own.length === 0 ? (
+        <EmptyState title="No jobs at your home yet">
+          When the workshop adds your install, it appears here.
+        </EmptyState>
+      ) : (
+        <CustomerJobs jobs={own} />
+      )}
+    </section>
+  );
+}
+
 /** Home: the workshop's jobs for members; a trade's or customer's own jobs otherwise. */
 export function HomeRoute() {
   const viewer = useViewer();
@@ -75,13 +110,20 @@ export function HomeRoute() {
     !isMember &&
     viewer.user.trades.length === 0 &&
     viewer.user.customers.length > 0;
-  // A trade's home is their visits across every workshop, not a list of jobs.
-  if (!isMember && viewer.user.trades.length > 0) return <TradeHome />;
+  // A trade's home is their visits across every workshop, not a list of jobs; a trade who is
+  // also a customer gets the visits to their own home below.
+  if (!isMember && viewer.user.trades.length > 0)
+    return (
+      <>
+        <TradeHome />
+        {viewer.user.customers.length > 0 ? <VisitsToYourHome /> : null}
+      </>
+    );
 
   return (
     <>
       <PageHeader
-        title={isMember ? "Jobs" : isCustomer ? "Your visits" : "Your jobs"}
+        title={homeTitle(viewer)}
         eyebrow={active?.workshopName}
         description={
           isMember

@@ -30,6 +30,9 @@ import {
 } from "../../components/ui";
 import { isApiError } from "../../lib/api-client";
 import { useScrollTarget } from "../../lib/use-scroll-target";
+import { homeTitle } from "../../features/auth/viewer";
+import { useViewer } from "../layout/guards";
+import { CustomerJobView } from "./customer-home";
 import { shareOptionsOf } from "./drawing";
 
 // FullCalendar loads only when a member opens a job, not with the main bundle.
@@ -37,11 +40,13 @@ const JobCalendar = lazy(
   () => import("../../features/calendar/components/JobCalendar"),
 );
 
+/** Back to the home page, by its heading ("Your visits" for a trade or a customer). */
 function BackLink() {
+  const viewer = useViewer();
   return (
     <p className="mb-3 text-sm">
       <Link to="/" className="text-accent underline underline-offset-2">
-        ← All jobs
+        ← {viewer.isMember ? "All jobs" : homeTitle(viewer)}
       </Link>
     </p>
   );
@@ -100,19 +105,37 @@ export function JobRoute() {
 
   const j = job.data;
   const isWorkshop = j.viewerRole === "owner" || j.viewerRole === "fitter";
+  const eyebrow = (
+    <span className="flex flex-wrap items-center gap-2">
+      <span>{j.workshopName}</span>
+      <span aria-hidden="true">·</span>
+      <span>{j.area}</span>
+      <JobStatusBadge status={j.status} />
+    </span>
+  );
+  if (j.viewerRole === "customer") {
+    // The customer's page for her job is the same plain view as her home (who comes when, what
+    // to prepare, what changed since she last looked), beside her address and access notes. Not
+    // the programme's tasks, the bookings' states or the list of parties.
+    return (
+      <>
+        <BackLink />
+        <PageHeader title={j.title} eyebrow={eyebrow} />
+        <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
+          <CustomerJobView jobId={j.id} />
+          <div className="flex min-w-0 flex-col gap-6">
+            <JobDetailsSection job={j} />
+          </div>
+        </div>
+      </>
+    );
+  }
   return (
     <>
       <BackLink />
       <PageHeader
         title={j.title}
-        eyebrow={
-          <span className="flex flex-wrap items-center gap-2">
-            <span>{j.workshopName}</span>
-            <span aria-hidden="true">·</span>
-            <span>{j.area}</span>
-            <JobStatusBadge status={j.status} />
-          </span>
-        }
+        eyebrow={eyebrow}
         actions={
           isWorkshop && !editing ? (
             <Button variant="secondary" onClick={() => setEditing(true)}>
@@ -132,40 +155,28 @@ export function JobRoute() {
       ) : null}
       <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
         <div className="flex min-w-0 flex-col gap-6">
-          {/* The customer comes for who arrives when (their visits); everyone else
-              for the programme first. */}
-          {j.viewerRole === "customer" ? (
-            <>
-              <JobBookingsSection job={j} />
-              <JobTasksSection job={j} />
-              <JobDrawings jobId={j.id} shareOptions={shareOptionsOf(j)} />
-            </>
+          <JobTasksSection job={j} />
+          {isWorkshop ? (
+            // The workshop books and answers here; a trade sees the bookings read-only.
+            <JobBookings
+              jobId={j.id}
+              workshopId={j.workshopId}
+              tasks={j.tasks.map((t) => ({
+                id: t.id,
+                name: t.name,
+                party: t.party,
+                caution: t.detail?.caution ?? null,
+              }))}
+              onChanged={() =>
+                void queryClient.invalidateQueries({
+                  queryKey: jobKeys.detail(j.id),
+                })
+              }
+            />
           ) : (
-            <>
-              <JobTasksSection job={j} />
-              {isWorkshop ? (
-                // The workshop books and answers here; others see the bookings read-only.
-                <JobBookings
-                  jobId={j.id}
-                  workshopId={j.workshopId}
-                  tasks={j.tasks.map((t) => ({
-                    id: t.id,
-                    name: t.name,
-                    party: t.party,
-                    caution: t.detail?.caution ?? null,
-                  }))}
-                  onChanged={() =>
-                    void queryClient.invalidateQueries({
-                      queryKey: jobKeys.detail(j.id),
-                    })
-                  }
-                />
-              ) : (
-                <JobBookingsSection job={j} />
-              )}
-              <JobDrawings jobId={j.id} shareOptions={shareOptionsOf(j)} />
-            </>
+            <JobBookingsSection job={j} />
           )}
+          <JobDrawings jobId={j.id} shareOptions={shareOptionsOf(j)} />
           {/* Every role who sees the job has its thread (their audiences only). */}
           <JobThread jobId={j.id} />
         </div>

@@ -35,6 +35,19 @@ export function describeViewer(user: SessionUser): Viewer {
   };
 }
 
+/**
+ * The home page's heading, which is also its label in the top navigation: a member's home is the
+ * workshop's jobs; a trade's and a customer's is their visits; anyone else's, their jobs.
+ */
+export function homeTitle(
+  viewer: Viewer,
+): "Jobs" | "Your visits" | "Your jobs" {
+  if (viewer.isMember) return "Jobs";
+  if (viewer.user.trades.length > 0 || viewer.user.customers.length > 0)
+    return "Your visits";
+  return "Your jobs";
+}
+
 export function isOwner(
   membership: { role: MemberRole } | null | undefined,
 ): boolean {

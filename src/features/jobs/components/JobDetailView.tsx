@@ -62,13 +62,16 @@ export function JobDetailsSection({ job }: { job: JobDetail }) {
             <span className="whitespace-pre-line">{job.accessNotes}</span>
           </DetailRow>
         ) : null}
-        <DetailRow label="Handover">
-          {job.handoverDate ? (
-            <span className="font-mono">{formatDate(job.handoverDate)}</span>
-          ) : (
-            <span className="text-ink-soft">Not set yet</span>
-          )}
-        </DetailRow>
+        {/* The customer's timeline shows the handover, with how it changed since her last look. */}
+        {job.viewerRole !== "customer" ? (
+          <DetailRow label="Handover">
+            {job.handoverDate ? (
+              <span className="font-mono">{formatDate(job.handoverDate)}</span>
+            ) : (
+              <span className="text-ink-soft">Not set yet</span>
+            )}
+          </DetailRow>
+        ) : null}
         <DetailRow label="Site days">
           <span className="font-mono">{formatWeekdays(job.siteWeekdays)}</span>
         </DetailRow>
@@ -141,15 +144,7 @@ function lagText(lag: number, unit: "workingDays" | "elapsedHours"): string {
     : `, ${sign}${n} ${n === 1 ? "hour" : "hours"}`;
 }
 
-function TaskItem({
-  task,
-  job,
-  isCustomer,
-}: {
-  task: TaskView;
-  job: JobDetail;
-  isCustomer: boolean;
-}) {
+function TaskItem({ task, job }: { task: TaskView; job: JobDetail }) {
   const waitsFor = job.links
     .filter((l) => l.toTaskId === task.id)
     .map((l) => ({
@@ -168,7 +163,7 @@ function TaskItem({
         </span>
         <TaskStatusBadge status={task.status} />
       </div>
-      {waitsFor.length > 0 && !isCustomer ? (
+      {waitsFor.length > 0 ? (
         <p className="text-sm text-ink-soft">
           Waits for{" "}
           {waitsFor.map((w, i) => (
@@ -230,8 +225,8 @@ function TaskItem({
   );
 }
 
+/** The programme's tasks, for the workshop and a trade (a customer sees her timeline instead). */
 export function JobTasksSection({ job }: { job: JobDetail }) {
-  const isCustomer = job.viewerRole === "customer";
   const plans = job.viewerRole === "owner" || job.viewerRole === "fitter";
   return (
     <Section
@@ -263,12 +258,7 @@ export function JobTasksSection({ job }: { job: JobDetail }) {
         // The server returns tasks in their stored sortOrder; the list keeps that order.
         <ol className="flex flex-col divide-y divide-rule">
           {job.tasks.map((task) => (
-            <TaskItem
-              key={task.id}
-              task={task}
-              job={job}
-              isCustomer={isCustomer}
-            />
+            <TaskItem key={task.id} task={task} job={job} />
           ))}
         </ol>
       )}
@@ -276,20 +266,15 @@ export function JobTasksSection({ job }: { job: JobDetail }) {
   );
 }
 
+/** A trade's read-only list of their bookings on the job (a customer sees her timeline instead). */
 export function JobBookingsSection({ job }: { job: JobDetail }) {
-  const isCustomer = job.viewerRole === "customer";
-  // "Visit" is how a booking is shown to the customer (brief, Words table).
-  const title = isCustomer ? "Visits" : "Bookings";
   const taskName = (id: string) => job.tasks.find((t) => t.id === id)?.name;
   return (
-    <Section title={title} id="job-bookings">
+    <Section title="Bookings" id="job-bookings">
       {job.bookings.length === 0 ? (
-        <EmptyState
-          title={isCustomer ? "No visits planned yet" : "No bookings yet"}
-        >
-          {isCustomer
-            ? "When a trade is booked to come to your home, the day and arrival time appear here."
-            : "Trades booked for this job's tasks appear here with their answers."}
+        <EmptyState title="No bookings yet">
+          Trades booked for this job&rsquo;s tasks appear here with their
+          answers.
         </EmptyState>
       ) : (
         <ul className="flex flex-col divide-y divide-rule">
@@ -302,7 +287,7 @@ export function JobBookingsSection({ job }: { job: JobDetail }) {
                 <div className="flex flex-wrap items-center gap-2">
                   <span className="font-medium">{b.tradeBusinessName}</span>
                   <PartyChip party={b.tradeKind} />
-                  <BookingStateBadge state={b.state} asVisit={isCustomer} />
+                  <BookingStateBadge state={b.state} />
                 </div>
                 {taskName(b.taskId) ? (
                   <p className="text-sm text-ink-soft">
