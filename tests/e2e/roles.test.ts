@@ -158,7 +158,7 @@ describe("each demo role in the browser", () => {
       "Float",
       "float",
       "Needs re-confirming",
-      "Asked: please confirm",
+      "Sent: please confirm",
       "To be confirmed",
       "01632 960 114",
       "01632 960 271",

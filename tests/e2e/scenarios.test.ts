@@ -498,6 +498,9 @@ describe("the three used-by scenarios, as the three people", () => {
       .getByRole("button", { name: `Propose ${dayText(proposed)}` })
       .click();
     await visible(dev.getByText(/You proposed to start/));
+    await expect
+      .poll(() => dev.locator("main").getByTestId("visit-state").innerText())
+      .toBe(`Date proposed: ${dayText(proposed)}, waiting for ${workshopName}`);
     await visible(dev.getByText(dayText(proposed), { exact: false }).first());
     const b = await t.db.ds.manager.findOneByOrFail(Booking, { id: bookingId });
     expect(b.state).toBe("date-proposed");

@@ -28,6 +28,7 @@ import { localToday } from "../../server/modules/jobs/jobs.presenter";
 import { samplePng } from "../setup/uploads";
 import {
   axeSeriousOrWorse,
+  dayText,
   desktop,
   launchBrowser,
   phone,
@@ -51,18 +52,6 @@ afterAll(async () => {
   await browser?.close();
   await t?.close();
 });
-
-const WEEKDAY = ["Sun", "Mon", "Tue", "Wed", "Thu", "Fri", "Sat"];
-const MONTH = "Jan Feb Mar Apr May Jun Jul Aug Sep Oct Nov Dec".split(" ");
-/** "Thu 5 Mar" as the screens write it (the year only outside this year). */
-function dayText(local: string): string {
-  const d = new Date(`${local.slice(0, 10)}T12:00:00Z`);
-  const year =
-    d.getUTCFullYear() !== new Date().getFullYear()
-      ? ` ${d.getUTCFullYear()}`
-      : "";
-  return `${WEEKDAY[d.getUTCDay()]} ${d.getUTCDate()} ${MONTH[d.getUTCMonth()]}${year}`;
-}
 
 /** The visit card whose heading is `who` and whose work is `task`. */
 const visitCard = (page: Page, who: string, task: string): Locator =>

@@ -111,7 +111,7 @@ describe("the trade's home and visit page on a phone", () => {
       template.getByTestId("visit-arrival").innerText(),
     ).resolves.toBe("Morning");
     await expect(template.getByTestId("visit-state").innerText()).resolves.toBe(
-      "Asked: please confirm",
+      "Sent: please confirm",
     );
     // "Waiting on <task> (planned <its planned finish>)", the programme's own dates.
     const wait = result("Template coving").readiness.waitingOn;

@@ -15,13 +15,27 @@ const noSharing = { tradeKinds: [], trades: [], customerName: null };
  * timeline), the dates she will be away, the drawings shared with her and the thread. Never the
  * float, a booking's internal state or a trade's contact details. One column, phone first.
  */
-export function CustomerJobView({ jobId }: { jobId: string }) {
+export function CustomerJobView({
+  jobId,
+  oneOfSeveral = false,
+}: {
+  jobId: string;
+  /** On her home, beside her other jobs: each section gets an id of its own (no repeated ids). */
+  oneOfSeveral?: boolean;
+}) {
   return (
     <div className="flex max-w-3xl min-w-0 flex-col gap-6">
       <VisitTimeline jobId={jobId} />
       <AwayDatesEditor jobId={jobId} />
-      <JobDrawings jobId={jobId} shareOptions={noSharing} />
-      <JobThread jobId={jobId} />
+      <JobDrawings
+        jobId={jobId}
+        shareOptions={noSharing}
+        sectionId={oneOfSeveral ? `drawings-${jobId}` : undefined}
+      />
+      <JobThread
+        jobId={jobId}
+        sectionId={oneOfSeveral ? `thread-${jobId}` : undefined}
+      />
     </div>
   );
 }
@@ -46,7 +60,7 @@ function CustomerJob({ job }: { job: JobSummary }) {
           · {job.workshopName}
         </span>
       </h2>
-      <CustomerJobView jobId={job.id} />
+      <CustomerJobView jobId={job.id} oneOfSeveral />
     </section>
   );
 }

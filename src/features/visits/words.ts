@@ -14,7 +14,7 @@ export function daysWords(v: Pick<Visit, "start" | "finish">): string {
   return a === b ? dayWords(a) : `${dayWords(a)} – ${dayWords(b)}`;
 }
 
-/** The booking state as the trade reads it, and its tone. */
+/** The booking state as the trade reads it (the Words table's state, then what it asks of them), and its tone. */
 export function stateWords(v: Visit): {
   text: string;
   tone: "ok" | "wait" | "risk" | "accent" | "muted";
@@ -23,20 +23,20 @@ export function stateWords(v: Visit): {
     case "confirmed":
       return { text: "Confirmed", tone: "ok" };
     case "sent":
-      return { text: "Asked: please confirm", tone: "accent" };
+      return { text: "Sent: please confirm", tone: "accent" };
     case "needs-reconfirming":
-      return { text: "Dates moved: please confirm again", tone: "accent" };
+      return { text: "Needs re-confirming: the dates moved", tone: "accent" };
     case "date-proposed":
       return {
-        text: `You proposed ${v.proposedStart ? dayWords(v.proposedStart) : "another start"}: waiting for ${v.workshopName}`,
+        text: `Date proposed: ${v.proposedStart ? dayWords(v.proposedStart) : "another start"}, waiting for ${v.workshopName}`,
         tone: "wait",
       };
     case "declined":
-      return { text: "You said you can't make it", tone: "muted" };
+      return { text: "Declined", tone: "muted" };
     case "cancelled":
       return { text: `Cancelled by ${v.workshopName}`, tone: "muted" };
     case "draft":
-      return { text: "Not sent yet", tone: "muted" };
+      return { text: "Draft: not sent yet", tone: "muted" };
   }
 }
 

@@ -19,10 +19,16 @@ import { KindChip, RevLabel } from "./KindChip";
 interface JobDrawingsProps {
   jobId: string;
   shareOptions: ShareOptions;
+  /** The section's id (the job page's `#job-drawings`); a page with several jobs gives each its own. */
+  sectionId?: string;
 }
 
 /** The job page's drawings, templates and site photos, with the upload for those who may. */
-export function JobDrawings({ jobId, shareOptions }: JobDrawingsProps) {
+export function JobDrawings({
+  jobId,
+  shareOptions,
+  sectionId = "job-drawings",
+}: JobDrawingsProps) {
   const list = useJobDrawings(jobId);
   const [adding, setAdding] = useState(false);
   const [added, setAdded] = useState<DrawingDetail | null>(null);
@@ -34,7 +40,7 @@ export function JobDrawings({ jobId, shareOptions }: JobDrawingsProps) {
   return (
     <Section
       title="Drawings"
-      id="job-drawings"
+      id={sectionId}
       description={
         isTrade
           ? "Drawings shared with you, and the templates and photos you add."

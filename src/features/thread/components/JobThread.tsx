@@ -71,21 +71,33 @@ type Filter = "all" | ThreadAudience;
 export function JobThread({
   jobId,
   audience,
+  sectionId = "job-thread",
 }: {
   jobId: string;
   /** Open filtered to this audience, and write to it by default (a trade's visit page: "Trades & workshop"). */
   audience?: ThreadAudience;
+  /** The section's id (the job page's `#job-thread`); a page with several jobs' threads gives each its own. */
+  sectionId?: string;
 }) {
   // Keyed by job: the divider, the scroll position and the composer start afresh on another job.
-  return <JobThreadView key={jobId} jobId={jobId} audience={audience} />;
+  return (
+    <JobThreadView
+      key={jobId}
+      jobId={jobId}
+      audience={audience}
+      sectionId={sectionId}
+    />
+  );
 }
 
 function JobThreadView({
   jobId,
   audience,
+  sectionId,
 }: {
   jobId: string;
   audience?: ThreadAudience;
+  sectionId: string;
 }) {
   const client = useQueryClient();
   const thread = useThread(jobId);
@@ -305,12 +317,12 @@ function JobThreadView({
 
   return (
     <section
-      id="job-thread"
-      aria-labelledby="job-thread-heading"
+      id={sectionId}
+      aria-labelledby={`${sectionId}-heading`}
       className="rounded border border-rule bg-card"
     >
       <div className="border-b border-rule px-4 py-3">
-        <h2 id="job-thread-heading" className="text-base font-semibold">
+        <h2 id={`${sectionId}-heading`} className="text-base font-semibold">
           Thread
           <UnreadBadge count={unreadCount} />
         </h2>
