@@ -139,6 +139,8 @@ export const bookingOptionsResponseSchema = z.object({
   earliestStart: z.string(),
   latestStart: z.string(),
   keepsHandover: z.boolean(),
+  /** The job's handover date; null when none is agreed (the window then keeps the planned finish). */
+  handoverDate: z.string().nullable(),
   trades: z.array(
     z.object({
       tradeId: idSchema,

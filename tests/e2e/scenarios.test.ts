@@ -298,6 +298,8 @@ describe("the three used-by scenarios, as the three people", () => {
     await visible(
       choice.getByText(`Free from ${dayText(firstStart)} ${half(firstStart)}`),
     );
+    // The handover is agreed on this job: the window says what keeps it.
+    await visible(panel.getByText(/keeps? handover\./));
     await choice.click();
     expect(await panel.getByLabel("Start", { exact: true }).inputValue()).toBe(
       firstStart.slice(0, 10),

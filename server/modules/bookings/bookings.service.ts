@@ -300,6 +300,7 @@ export async function bookingOptions(
     earliestStart: window.earliestStart,
     latestStart: window.latestStart,
     keepsHandover: window.keepsHandover,
+    handoverDate: job.handoverDate,
     trades: options,
   };
 }

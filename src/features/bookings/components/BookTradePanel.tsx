@@ -110,6 +110,13 @@ export function BookTradePanel(props: BookTradePanelProps) {
   );
 }
 
+/**
+ * What the start window keeps: the agreed handover, or — with none agreed yet — the programme's
+ * planned finish (the engine then reads its own early finish as the target).
+ */
+const keptWords = (o: BookingOptionsResponse) =>
+  o.handoverDate ? "handover" : "the planned finish";
+
 function WindowLine({ o }: { o: BookingOptionsResponse }) {
   if (!o.keepsHandover)
     return (
@@ -123,15 +130,15 @@ function WindowLine({ o }: { o: BookingOptionsResponse }) {
     return (
       <p className="text-sm">
         Only a start on{" "}
-        <span className="font-mono">{dayWords(o.earliestStart)}</span> keeps
-        handover.
+        <span className="font-mono">{dayWords(o.earliestStart)}</span> keeps{" "}
+        {keptWords(o)}.
       </p>
     );
   return (
     <p className="text-sm">
       Starts from <span className="font-mono">{dayWords(o.earliestStart)}</span>{" "}
-      to <span className="font-mono">{dayWords(o.latestStart)}</span> keep
-      handover.
+      to <span className="font-mono">{dayWords(o.latestStart)}</span> keep{" "}
+      {keptWords(o)}.
     </p>
   );
 }
@@ -140,9 +147,12 @@ function TradeChoice({
   trade,
   checked,
   register,
+  kept,
 }: {
   trade: TradeOption;
   checked: boolean;
+  /** "handover", or "the planned finish" when no handover is agreed. */
+  kept: string;
   register: UseFormRegisterReturn<"tradeId">;
 }) {
   const f = trade.firstFree;
@@ -175,7 +185,7 @@ function TradeChoice({
         )}
         {f?.pastLateStart ? (
           <span className="text-sm font-medium text-risk">
-            Past the latest start: handover would move
+            Past the latest start: {kept} would move
           </span>
         ) : null}
         {trade.declined ? (
@@ -348,6 +358,7 @@ function BookForm({
             key={t.tradeId}
             trade={t}
             checked={t.tradeId === tradeId}
+            kept={keptWords(options)}
             register={form.register("tradeId", {
               onChange: () => {
                 setConflict(null);
@@ -413,7 +424,7 @@ function BookForm({
       ) : null}
       {afterLatest ? (
         <p className="-mt-2 text-sm font-medium text-risk">
-          Past the latest start: handover would move
+          Past the latest start: {keptWords(options)} would move
         </p>
       ) : null}
 
