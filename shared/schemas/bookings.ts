@@ -194,6 +194,8 @@ export const linkPageResponseSchema = z.object({
   /** Working days the trade is free for the task's length, within the next weeks. */
   freeDates: z.array(z.string()),
   handoverKept: z.boolean(),
+  /** The job's handover date; null when none is agreed (the window then keeps the planned finish). */
+  handoverDate: z.string().nullable(),
   answeredAt: z.string().nullable(),
   canAnswer: z.boolean(),
 });

@@ -160,6 +160,8 @@ describe("booking a trade and their answer by link", () => {
     // Not yet confirmed and not shared: no street address on the page.
     expect(await trade.getByText(siteAddress).count()).toBe(0);
     await visible(trade.getByText(/Fix carcasses & scribes/));
+    // No handover agreed on this job: the window keeps the programme's planned finish.
+    await visible(trade.getByText("Start dates that keep the planned finish"));
     await shot(trade, "booking-link-phone");
     expect(await axeSeriousOrWorse(trade)).toEqual([]);
 

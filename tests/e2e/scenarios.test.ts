@@ -368,6 +368,10 @@ describe("the three used-by scenarios, as the three people", () => {
     const main = await squash(dev.locator("main"));
     expect(main).toContain("It waits for Fix carcasses & scribes — done");
     expect(main).toMatch(/Caution/);
+    // The handover is agreed: the start dates are the ones that keep it.
+    expect(main).toMatch(
+      /Start dates that keep handover (Only a start on|Starts from)/,
+    );
     // The full address only once confirmed.
     expect(main).not.toContain(siteAddress);
     await shot(dev, "scenario-2a-link-phone");

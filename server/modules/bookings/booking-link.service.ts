@@ -140,6 +140,7 @@ export async function bookingPage(
     windowDates,
     freeDates,
     handoverKept: window.keepsHandover,
+    handoverDate: l.job.handoverDate,
     answeredAt: b.answeredAt?.toISOString() ?? null,
     canAnswer:
       current &&

@@ -117,3 +117,10 @@ export const kindNoun = (party: Party) => kindNouns[party];
 /** With its article: "a plasterer", "an electrician". */
 export const aKind = (party: Party) =>
   `${/^[aeiou]/.test(kindNouns[party]) ? "an" : "a"} ${kindNouns[party]}`;
+
+/**
+ * What a start window keeps: the agreed handover, or — with none agreed yet — the programme's
+ * planned finish (the engine then reads its own early finish as the target).
+ */
+export const keptWords = (handoverDate: string | null) =>
+  handoverDate ? "handover" : "the planned finish";

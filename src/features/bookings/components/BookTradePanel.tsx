@@ -32,6 +32,7 @@ import {
   dateOf,
   dayWords,
   halfOf,
+  keptWords,
   kindNoun,
   startWords,
 } from "../words";
@@ -110,13 +111,6 @@ export function BookTradePanel(props: BookTradePanelProps) {
   );
 }
 
-/**
- * What the start window keeps: the agreed handover, or — with none agreed yet — the programme's
- * planned finish (the engine then reads its own early finish as the target).
- */
-const keptWords = (o: BookingOptionsResponse) =>
-  o.handoverDate ? "handover" : "the planned finish";
-
 function WindowLine({ o }: { o: BookingOptionsResponse }) {
   if (!o.keepsHandover)
     return (
@@ -131,14 +125,14 @@ function WindowLine({ o }: { o: BookingOptionsResponse }) {
       <p className="text-sm">
         Only a start on{" "}
         <span className="font-mono">{dayWords(o.earliestStart)}</span> keeps{" "}
-        {keptWords(o)}.
+        {keptWords(o.handoverDate)}.
       </p>
     );
   return (
     <p className="text-sm">
       Starts from <span className="font-mono">{dayWords(o.earliestStart)}</span>{" "}
       to <span className="font-mono">{dayWords(o.latestStart)}</span> keep{" "}
-      {keptWords(o)}.
+      {keptWords(o.handoverDate)}.
     </p>
   );
 }
@@ -358,7 +352,7 @@ function BookForm({
             key={t.tradeId}
             trade={t}
             checked={t.tradeId === tradeId}
-            kept={keptWords(options)}
+            kept={keptWords(options.handoverDate)}
             register={form.register("tradeId", {
               onChange: () => {
                 setConflict(null);
@@ -424,7 +418,7 @@ function BookForm({
       ) : null}
       {afterLatest ? (
         <p className="-mt-2 text-sm font-medium text-risk">
-          Past the latest start: {keptWords(options)} would move
+          Past the latest start: {keptWords(options.handoverDate)} would move
         </p>
       ) : null}
 

@@ -20,7 +20,7 @@ import {
 import { errorMessage, isApiError } from "../../../lib/api-client";
 import { useAnswerByLink } from "../api/answer-by-link";
 import { useLinkPage } from "../api/get-link-page";
-import { dayWords, todayLocal, visitWords } from "../words";
+import { dayWords, keptWords, todayLocal, visitWords } from "../words";
 import { MarkedDatePicker } from "./DatePicker";
 
 type AnswerValues = z.input<typeof linkAnswerBodySchema>;
@@ -87,24 +87,25 @@ function WaitsOn({ page }: { page: LinkPageResponse }) {
 
 function StartWindow({ page }: { page: LinkPageResponse }) {
   const d = page.windowDates;
+  const kept = page.handoverDate ? "the handover date" : "the planned finish";
   if (d.length === 0 || !page.handoverKept)
     return (
       <p className="text-sm">
-        No start keeps the handover date now; the workshop is re-planning.
+        No start keeps {kept} now; the workshop is re-planning.
       </p>
     );
   if (d.length === 1)
     return (
       <p className="text-sm">
         Only a start on <span className="font-mono">{dayWords(d[0])}</span>{" "}
-        keeps the handover date.
+        keeps {kept}.
       </p>
     );
   return (
     <p className="text-sm">
       Starts from <span className="font-mono">{dayWords(d[0])}</span> to{" "}
-      <span className="font-mono">{dayWords(d[d.length - 1])}</span> keep the
-      handover date.
+      <span className="font-mono">{dayWords(d[d.length - 1])}</span> keep {kept}
+      .
     </p>
   );
 }
@@ -337,6 +338,7 @@ export function BookingAnswerForm({
           <MarkedDatePicker
             label="Choose the start you propose"
             windowDates={page.windowDates}
+            kept={keptWords(page.handoverDate)}
             freeDates={page.freeDates}
             from={todayLocal()}
             value={proposed ?? null}
@@ -353,8 +355,9 @@ export function BookingAnswerForm({
           page.windowDates.length > 0 &&
           !page.windowDates.includes(proposed) ? (
             <p className="text-sm text-wait-ink">
-              {dayWords(proposed)} is outside the dates that keep handover; the
-              workshop may not be able to accept it.
+              {dayWords(proposed)} is outside the dates that keep{" "}
+              {keptWords(page.handoverDate)}; the workshop may not be able to
+              accept it.
             </p>
           ) : null}
           <TextArea
@@ -473,7 +476,7 @@ export function BookingFacts({ page: p }: { page: LinkPageResponse }) {
           <Row label="It waits for">
             <WaitsOn page={p} />
           </Row>
-          <Row label="Start dates that keep handover">
+          <Row label={`Start dates that keep ${keptWords(p.handoverDate)}`}>
             <StartWindow page={p} />
           </Row>
           {p.customerNote ? (

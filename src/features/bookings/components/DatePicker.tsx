@@ -9,6 +9,8 @@ interface MarkedDatePickerProps {
   label: string;
   /** Dates that keep handover (inside the start window). */
   windowDates: string[];
+  /** What the window keeps: "handover", or "the planned finish" when none is agreed. */
+  kept: string;
   /** The trade's own free start dates. */
   freeDates: string[];
   /** The first day that may be chosen (today). */
@@ -24,6 +26,7 @@ interface MarkedDatePickerProps {
 export function MarkedDatePicker({
   label,
   windowDates,
+  kept,
   freeDates,
   from,
   value,
@@ -53,7 +56,7 @@ export function MarkedDatePicker({
             aria-hidden="true"
             className="inline-block h-1 w-4 rounded-sm bg-accent"
           />
-          Keeps handover
+          Keeps {kept}
         </li>
         <li className="flex items-center gap-1.5">
           <span
@@ -83,7 +86,7 @@ export function MarkedDatePicker({
           const isFree = free.has(d);
           const chosen = value === d;
           const marks = [
-            keeps ? "keeps handover" : null,
+            keeps ? `keeps ${kept}` : null,
             isFree ? "you're free" : null,
           ].filter(Boolean);
           return (
