@@ -25,4 +25,5 @@ export {
 export type { ParseResult } from "./schema";
 export { bankHolidayDays, PUBLISHED_ADDITIONS } from "./holidays";
 export { isWorkingDay, workingDaysBetween } from "./calendar";
+export { clearFromWhenDone } from "./readiness";
 export * from "./types";

@@ -1,6 +1,7 @@
 // A visit in the trade's plain words (brief, "Words": booking states, clear to start, waiting on;
 // "Look and feel": dates with the weekday, the 24-hour clock).
 import type { Visit } from "../../../shared/schemas";
+import { clearFromWhenDone } from "../../../shared/programme";
 import { formatDateShort } from "../../lib/format";
 
 /** "Thu 5 Mar" for a local date or date-time (the year only outside this one). */
@@ -53,19 +54,11 @@ export function readinessWords(v: Visit): {
       return { text: "Started", tone: "accent" };
     case "clear":
       return { text: "Clear to start", tone: "ok" };
-    case "waiting":
-      // Everything it waits for is done; only the rest of that day (or a lag) is left: the brief's
-      // "clear to start from the next working day".
-      if (r.waitingOn.length > 0 && r.waitingOn.every((w) => w.done))
-        return {
-          text: `Clear to start from ${dayWords(
-            r.waitingOn
-              .map((w) => w.allowsFrom)
-              .sort()
-              .at(-1)!,
-          )}`,
-          tone: "ok",
-        };
+    case "waiting": {
+      // Everything it waits for is done; only time is left (the rest of that day, a drying lag).
+      const from = clearFromWhenDone(r.waitingOn);
+      if (from)
+        return { text: `Clear to start from ${dayWords(from)}`, tone: "ok" };
       return {
         text: `Waiting on ${r.waitingOn
           .map(
@@ -75,6 +68,7 @@ export function readinessWords(v: Visit): {
           .join(", ")}`,
         tone: "wait",
       };
+    }
   }
 }
 

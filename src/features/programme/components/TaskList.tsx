@@ -9,6 +9,7 @@ import {
   PartyChip,
   StatusBadge,
 } from "../../../components/ui";
+import { clearFromWhenDone } from "../../../../shared/programme";
 import type { CreateLinkInput } from "../api/create-link";
 import type { ProgressInput } from "../api/record-progress";
 import {
@@ -54,19 +55,13 @@ function Readiness({
     return <StatusBadge tone="accent">Started</StatusBadge>;
   if (r.state === "clear")
     return <StatusBadge tone="ok">Clear to start</StatusBadge>;
-  // Everything it waits for is done and only time is left (the rest of that day, a drying lag):
-  // the brief's "clear to start from the next working day".
-  if (r.waitingOn.length > 0 && r.waitingOn.every((w) => isDone(w.task)))
+  // Everything it waits for is done; only time is left (the rest of that day, a drying lag).
+  const from = clearFromWhenDone(
+    r.waitingOn.map((w) => ({ ...w, done: isDone(w.task) })),
+  );
+  if (from)
     return (
-      <StatusBadge tone="ok">
-        Clear to start from{" "}
-        {dayText(
-          r.waitingOn
-            .map((w) => w.allowsFrom)
-            .sort()
-            .at(-1)!,
-        )}
-      </StatusBadge>
+      <StatusBadge tone="ok">Clear to start from {dayText(from)}</StatusBadge>
     );
   // Not a StatusBadge: the names can be long, so this one wraps on a phone.
   return (
