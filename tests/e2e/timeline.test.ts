@@ -504,6 +504,14 @@ describe("a trade who is also a customer", () => {
           .allInnerTexts()
       ).map((l) => l.trim()),
     ).toEqual(["Your visits", "My calendar"]);
+    // The top bar names both roles.
+    await visible(
+      page
+        .getByRole("banner")
+        .getByText("Trade · Ashby Plaster & Coving / Customer", {
+          exact: true,
+        }),
+    );
 
     // As a trade: the template visit on the alcove job, on its day.
     const tradeVisit = page

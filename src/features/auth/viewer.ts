@@ -22,6 +22,9 @@ export function describeViewer(user: SessionUser): Viewer {
   } else if (user.trades.length > 0) {
     const names = [...new Set(user.trades.map((t) => t.businessName))];
     roleDescription = `${roleLabels.trade} · ${names.join(", ")}`;
+    // A trade who also has work done at home sees both homes; the top bar names both roles.
+    if (user.customers.length > 0)
+      roleDescription += ` / ${roleLabels.customer}`;
   } else if (user.customers.length > 0) {
     roleDescription = roleLabels.customer;
   } else {
