@@ -522,8 +522,9 @@ export async function runningLate(
       `Running late: now arriving ${body.arrivalTime} on ${noteDay(day)}.${note}`,
       { runningLate: { day, arrivalTime: body.arrivalTime } },
     );
-    // "Trades & workshop": the trades after them plan around it; the customer is not in it.
-    await postSystemNote(m, l.job, "trades", `${line}${note}`);
+    // "Trades & workshop": the trades after them plan around it; the customer is not in it. Their
+    // own words go to the workshop only (history and e-mail): system notes carry nobody's notes.
+    await postSystemNote(m, l.job, "trades", line);
     await notifyWorkshop(
       m,
       l,

@@ -437,8 +437,10 @@ describe("running late", () => {
     const note = notes.find((n) => n.text.includes("running late"));
     expect(note?.audience).toBe("trades");
     expect(note?.text).toBe(
-      "Farrow Plastering is running late for Skim ceiling: now arriving 10:30 on Mon 5 Apr. “Van at the tyre place”",
+      "Farrow Plastering is running late for Skim ceiling: now arriving 10:30 on Mon 5 Apr.",
     );
+    // Their own words reach the workshop (the e-mail and the booking's history), not the trades.
+    expect(notes.some((n) => n.text.includes("tyre place"))).toBe(false);
     const mail = await t.db.ds.manager.findBy(OutboxMessage, {
       to: In([demoAccounts.owner.email, demoAccounts.fitter.email]),
     });
@@ -454,8 +456,9 @@ describe("running late", () => {
     ).body.bookings;
     const mine = bookings.find((x: { id: string }) => x.id === f.mine.id);
     expect(mine.history.at(-1).note).toMatch(
-      /^Running late: now arriving 10:30/,
+      /^Running late: now arriving 10:30 .*“Van at the tyre place”$/,
     );
+    expect(late[0].text).toContain("Van at the tyre place");
     await post(kit, `/api/visits/${f.mine.id}/running-late`, {
       arrivalTime: "25:00",
     }).expect(400);

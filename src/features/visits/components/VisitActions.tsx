@@ -65,6 +65,7 @@ function RunningLateForm({
       <TextField
         id={`${id}-note`}
         label="Anything to add (optional)"
+        hint="Only the workshop sees this; the thread says the new time."
         value={note}
         maxLength={300}
         onChange={(e) => setNote(e.target.value)}
