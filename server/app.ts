@@ -35,6 +35,7 @@ import { registerVisitRoutes } from "./modules/visits/visits.router";
 import { registerThreadRoutes } from "./modules/thread/thread.router";
 import { registerTimelineRoutes } from "./modules/timeline/timeline.router";
 import { registerAttentionRoutes } from "./modules/attention/attention.router";
+import { registerOutboxRoutes } from "./modules/outbox/outbox.router";
 import {
   DEFAULT_NOTICE_DELAY_MS,
   sendThreadNotices,
@@ -203,6 +204,7 @@ export function createApp(deps: AppDeps): SitecueApp {
   registerThreadRoutes(api, threadDeps);
   registerTimelineRoutes(api, deps.ds);
   registerAttentionRoutes(api, deps.ds);
+  registerOutboxRoutes(api, deps.ds);
   if (deps.mailbox) registerDevMailRoutes(api, deps.mailbox);
   api.add({
     method: "get",

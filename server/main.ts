@@ -7,7 +7,7 @@ import { seedDemoIfEmpty } from "./db/seed";
 import { mountClient } from "./http/client";
 import { createMailer } from "./infra/mail/mailer";
 import { startSmtpFake, type SmtpFake } from "./infra/mail/smtp-fake";
-import { OutboxWorker } from "./infra/outbox/outbox";
+import { OutboxWorker, pruneSentMail } from "./infra/outbox/outbox";
 import { startInboundSmtp } from "./infra/mail/inbound";
 import { startS3Fake, type S3Fake } from "./infra/storage/s3-fake";
 import { createStorage } from "./infra/storage/storage";
@@ -167,6 +167,20 @@ async function main() {
         ),
       );
   }, 60 * 1000);
+  // Sent e-mail older than OUTBOX_KEEP_DAYS: pruned hourly in bounded batches (SKIP LOCKED, so
+  // processes pruning at once take different rows). Failed rows stay until sent again.
+  const prune = () =>
+    pruneSentMail(ds, { keepDays: env.OUTBOX_KEEP_DAYS })
+      .then((n) => {
+        if (n) log(`Outbox: pruned ${n} sent e-mail(s)`);
+      })
+      .catch((err) =>
+        console.warn(
+          `[sitecue] outbox pruning: ${err instanceof Error ? err.message : String(err)}`,
+        ),
+      );
+  void prune();
+  const outboxPrune = setInterval(prune, 60 * 60 * 1000);
   log(`Sitecue is ready at ${appUrl}${took}`);
 
   let closing = false;
@@ -180,6 +194,7 @@ async function main() {
     await sitecue.close();
     clearInterval(reminders);
     clearInterval(threadNotices);
+    clearInterval(outboxPrune);
     await inbound.close();
     await outbox.stop();
     mailer.close();

@@ -49,6 +49,8 @@ const envSchema = z.object({
     .min(0)
     .max(24 * 60)
     .default(5),
+  /** Days a sent e-mail is kept in the outbox before it is pruned (failed ones stay until sent again). */
+  OUTBOX_KEEP_DAYS: z.coerce.number().int().min(1).max(3650).default(30),
   /** The largest upload accepted, in bytes (25 MB unless set). */
   UPLOAD_MAX_BYTES: z.coerce
     .number()

@@ -117,6 +117,8 @@ export type Action =
   | "customers.read"
   | "customers.create"
   | "jobs.list"
+  // Sending a failed e-mail of the workshop again.
+  | "outbox.retry"
   | "jobs.create"
   | "job.read"
   | "job.readFull"
@@ -278,6 +280,7 @@ export function can(actor: Actor, action: Action, resource: Resource): boolean {
     case "customers.read":
     case "customers.create":
     case "jobs.list":
+    case "outbox.retry":
     case "jobs.create":
     case "job.update":
     case "job.readFull":

@@ -144,6 +144,8 @@ export const expected: Record<string, Row> = {
   "GET /workshops/:workshopId/bookings/unanswered": staff(200),
   // The maker's attention list across the workshop's jobs: owners and fitters only.
   "GET /workshops/:workshopId/attention": staff(200),
+  // Sending a failed e-mail of the workshop again (the attention list's "Send again").
+  "POST /workshops/:workshopId/outbox/:messageId/retry": staff(200),
   // The confirmation link works without an account, for that one booking: whoever holds it.
   "GET /booking-links/:token": all(200),
   "POST /booking-links/:token/answer": all(200),

@@ -9,6 +9,7 @@ import {
 } from "../../tests/setup/test-app";
 import {
   buildBooking,
+  buildFailedMail,
   buildJob,
   buildLink,
   buildTask,
@@ -423,6 +424,10 @@ const requests: Record<
   }),
   "GET /workshops/:workshopId/attention": async () => ({
     path: `/api/workshops/${ids.workshopId}/attention`,
+  }),
+  // A fresh failed e-mail of the demo workshop per role, so each request finds one to send again.
+  "POST /workshops/:workshopId/outbox/:messageId/retry": async () => ({
+    path: `/api/workshops/${ids.workshopId}/outbox/${(await buildFailedMail(t.db.ds.manager, ids.workshopId)).id}/retry`,
   }),
   "GET /booking-links/:token": async () => ({
     path: `/api/booking-links/${(await linkedBooking()).token}`,

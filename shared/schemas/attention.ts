@@ -10,6 +10,8 @@ export const attentionKinds = [
   "handover-at-risk",
   "clash",
   "customer-away",
+  // An e-mail that never went: whoever it was for does not know (a booking, an invitation).
+  "mail-failed",
   // A trade is waiting for the workshop.
   "declined",
   "date-proposed",
@@ -32,7 +34,10 @@ export const attentionItemSchema = z.object({
   id: z.string(),
   kind: attentionKindSchema,
   tone: z.enum(attentionTones),
-  job: z.object({ id: idSchema, title: z.string(), area: z.string() }),
+  /** The job it is about; null for what is the workshop's alone (an e-mail that failed). */
+  job: z
+    .object({ id: idSchema, title: z.string(), area: z.string() })
+    .nullable(),
   task: z
     .object({ id: idSchema, name: z.string(), party: partySchema })
     .nullable(),
@@ -50,8 +55,15 @@ export const attentionItemSchema = z.object({
   since: z.string().nullable(),
   /** How long it has waited, in words ("for 3 working days", "for 5 hours"); null when not a wait. */
   waited: z.string().nullable(),
-  /** The one fix: a label and the client path of the screen where it is fixed. */
-  action: z.object({ label: z.string(), to: z.string() }),
+  /**
+   * The one fix: a label and the client path of the screen where it is fixed, or, when one click
+   * fixes it there and then, the outbox message to send again
+   * (`POST /workshops/:workshopId/outbox/:messageId/retry`).
+   */
+  action: z.union([
+    z.object({ label: z.string(), to: z.string() }),
+    z.object({ label: z.string(), retryMessageId: idSchema }),
+  ]),
 });
 export type AttentionItem = z.infer<typeof attentionItemSchema>;
 

@@ -18,3 +18,13 @@ export const caughtMailSchema = z.object({
   ),
 });
 export type CaughtMail = z.infer<typeof caughtMailSchema>;
+
+/** `POST /workshops/:workshopId/outbox/:messageId/retry`: a failed e-mail back in the queue. */
+export const outboxRetryResponseSchema = z.object({
+  id: z.string(),
+  /** The Message-ID header it keeps (RFC 5322 §3.6.4), angle brackets included. */
+  messageId: z.string(),
+  to: z.string(),
+  state: z.literal("pending"),
+});
+export type OutboxRetryResponse = z.infer<typeof outboxRetryResponseSchema>;

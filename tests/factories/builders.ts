@@ -1,7 +1,9 @@
 // Test builders: one set, used by the tests and by the demo seed (style.md). Each inserts one
 // record with sensible invented defaults and returns it.
 import type { EntityManager } from "typeorm";
+import { randomUUID } from "node:crypto";
 import { newId } from "../../server/db/columns";
+import { OutboxMessage } from "../../server/infra/outbox/outbox.entity";
 import { hashPassword } from "../../server/modules/auth/passwords";
 import { Booking } from "../../server/modules/bookings/bookings.entity";
 import { Customer } from "../../server/modules/customers/customers.entity";
@@ -247,4 +249,38 @@ export async function buildBooking(
   });
   await m.insert(Booking, b);
   return b;
+}
+
+/**
+ * An outbox e-mail of the workshop that has given up (state `failed`), as the worker leaves one
+ * after a permanent SMTP refusal. Written straight to the table, so no worker picks it up first.
+ */
+export async function buildFailedMail(
+  m: EntityManager,
+  workshopId: string,
+  o: Partial<OutboxMessage> = {},
+): Promise<OutboxMessage> {
+  const n = seq();
+  const row = m.create(OutboxMessage, {
+    id: newId(),
+    workshopId,
+    messageId: `<${randomUUID()}@sitecue.example.test>`,
+    to: `failed-${n}@example.test`,
+    subject: `Booking ${n}`,
+    text: `Message ${n}`,
+    html: null,
+    calendar: null,
+    state: "failed",
+    attempts: 1,
+    nextAttemptAt: new Date(),
+    lastError:
+      "Can't send mail - all recipients were rejected: 550 5.1.1 Recipient address rejected: mailbox unavailable",
+    lastAttemptAt: new Date(),
+    claimedBy: null,
+    claimedAt: null,
+    sentAt: null,
+    ...o,
+  });
+  await m.insert(OutboxMessage, row);
+  return row;
 }

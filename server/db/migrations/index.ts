@@ -7,6 +7,7 @@ import { Thread1765238400000 } from "./1765238400000-Thread";
 import { StoredFiles1765065600000 } from "./1765065600000-stored-files";
 import { Drawings1765152000000 } from "./1765152000000-Drawings";
 import { TimelineViews1765324800000 } from "./1765324800000-timeline-views";
+import { OutboxFailures1765411200000 } from "./1765411200000-outbox-failures";
 
 /** Migration classes in order (classes, not a glob, so vitest and tsx load them alike). */
 export const migrations = [
@@ -19,4 +20,5 @@ export const migrations = [
   Drawings1765152000000,
   Thread1765238400000,
   TimelineViews1765324800000,
+  OutboxFailures1765411200000,
 ];

@@ -14,6 +14,13 @@ export interface SmtpFake {
     pred: (m: CaughtMail) => boolean,
     timeoutMs?: number,
   ): Promise<CaughtMail>;
+  /**
+   * Refuses RCPT TO for this address (case-insensitive) with a permanent 550, as a real server
+   * does for a mailbox that does not exist (RFC 5321 §4.2.2), until `accept` is called.
+   */
+  refuse(address: string): void;
+  /** Takes an address off the refused list. */
+  accept(address: string): void;
   close(): Promise<void>;
 }
 
@@ -53,6 +60,7 @@ export async function startSmtpFake(
   opts: { port?: number; dir?: string } = {},
 ): Promise<SmtpFake> {
   const store: CaughtMail[] = [];
+  const refused = new Set<string>();
   const waiters = new Set<{
     pred: (m: CaughtMail) => boolean;
     resolve: (m: CaughtMail) => void;
@@ -72,6 +80,14 @@ export async function startSmtpFake(
     authOptional: true,
     disabledCommands: ["STARTTLS"],
     logger: false,
+    onRcptTo(address, _session, callback) {
+      if (!refused.has(address.address.toLowerCase())) return callback();
+      const err: Error & { responseCode?: number } = new Error(
+        `5.1.1 <${address.address}>: Recipient address rejected: mailbox unavailable`,
+      );
+      err.responseCode = 550;
+      callback(err);
+    },
     onData(stream, _session, callback) {
       simpleParser(stream)
         .then((parsed) => {
@@ -135,6 +151,8 @@ export async function startSmtpFake(
         waiters.add(w);
       });
     },
+    refuse: (a) => void refused.add(a.toLowerCase()),
+    accept: (a) => void refused.delete(a.toLowerCase()),
     close: () => new Promise<void>((resolve) => server.close(() => resolve())),
   };
 }

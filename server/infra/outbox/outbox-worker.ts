@@ -31,6 +31,15 @@ export interface OutboxWorkerOptions {
 export const defaultBackoff = (attempts: number) =>
   Math.min(2 ** attempts * 1000, 15 * 60_000);
 
+/** nodemailer marks an SMTP 5xx reply `permanent` (with its `responseCode`). */
+const isPermanent = (err: unknown) =>
+  typeof err === "object" &&
+  err !== null &&
+  "responseCode" in err &&
+  typeof err.responseCode === "number" &&
+  err.responseCode >= 500 &&
+  err.responseCode < 600;
+
 const describe = (err: unknown) =>
   (err instanceof Error ? err.message : String(err)).slice(0, 2000);
 
@@ -38,7 +47,8 @@ const describe = (err: unknown) =>
  * Sends what `enqueueMail` queued, at least once. A poll claims due rows in a short transaction
  * (`FOR UPDATE SKIP LOCKED`, so workers in several processes never claim the same row), marks
  * them `sending`, and sends each outside the transaction with its stored Message-ID. A failure
- * goes back to `pending` with backoff, or `failed` after `maxAttempts`. A worker that dies between
+ * goes back to `pending` with backoff, or `failed` after `maxAttempts` (at once when the server's
+ * reply is a permanent 5xx). A worker that dies between
  * sending and marking leaves a `sending` row whose lease runs out; the next poll anywhere takes it
  * back, so it is resent (same Message-ID) rather than lost.
  */
@@ -139,7 +149,7 @@ export class OutboxWorker {
         // A lost claim counts as an attempt: a message that kills its worker must not loop forever.
         // MariaDB assigns left to right, so `state` is decided from the attempts before this one.
         await m.query(
-          "UPDATE outbox_messages SET state = IF(attempts + 1 >= ?, 'failed', 'pending'), attempts = attempts + 1, lastError = CONCAT('Claim by ', claimedBy, ' expired before it was marked sent (it may have been delivered)'), claimedBy = NULL, claimedAt = NULL, nextAttemptAt = UTC_TIMESTAMP(3) WHERE id IN (?)",
+          "UPDATE outbox_messages SET state = IF(attempts + 1 >= ?, 'failed', 'pending'), attempts = attempts + 1, lastError = CONCAT('Claim by ', claimedBy, ' expired before it was marked sent (it may have been delivered)'), lastAttemptAt = claimedAt, claimedBy = NULL, claimedAt = NULL, nextAttemptAt = UTC_TIMESTAMP(3) WHERE id IN (?)",
           [this.maxAttempts, stale.map((r) => r.id)],
         );
         this.log(
@@ -197,7 +207,10 @@ export class OutboxWorker {
 
   private async failed(row: OutboxMessage, err: unknown): Promise<void> {
     const attempts = row.attempts + 1;
-    const gaveUp = attempts >= this.maxAttempts;
+    // A 5xx reply is a permanent refusal (RFC 5321 §4.2.1: "the same request … will fail
+    // again"): retrying it for three hours only hides it from the workshop, so it fails now and
+    // waits for someone to fix the address and send it again.
+    const gaveUp = attempts >= this.maxAttempts || isPermanent(err);
     const delayUs = Math.max(0, Math.round(this.backoff(attempts) * 1000));
     await this.ds
       .createQueryBuilder()
@@ -206,6 +219,7 @@ export class OutboxWorker {
         state: gaveUp ? "failed" : "pending",
         attempts,
         lastError: describe(err),
+        lastAttemptAt: () => "UTC_TIMESTAMP(3)",
         claimedBy: null,
         claimedAt: null,
         nextAttemptAt: () => "UTC_TIMESTAMP(3) + INTERVAL :delayUs MICROSECOND",

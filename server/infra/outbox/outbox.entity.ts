@@ -23,6 +23,9 @@ export interface OutboxCalendar {
  */
 @Entity("outbox_messages")
 @Index("ix_outbox_due", ["state", "nextAttemptAt"])
+// Pruning takes the oldest sent rows (pruneSentMail); the attention list a workshop's failed ones.
+@Index("ix_outbox_sent", ["state", "sentAt"])
+@Index("ix_outbox_workshop_state", ["workshopId", "state"])
 export class OutboxMessage {
   @IdColumn() id!: string;
   @RefColumn({ nullable: true }) workshopId!: string | null;
@@ -46,6 +49,8 @@ export class OutboxMessage {
   @Column({ type: "int", default: 0 }) attempts!: number;
   @InstantColumn() nextAttemptAt!: Date;
   @Column({ type: "text", nullable: true }) lastError!: string | null;
+  /** When the last failed attempt ended (the database's clock); what "last tried" reads. */
+  @InstantColumn({ nullable: true }) lastAttemptAt!: Date | null;
   @TextColumn(100, { nullable: true }) claimedBy!: string | null;
   @InstantColumn({ nullable: true }) claimedAt!: Date | null;
   @InstantColumn({ nullable: true }) sentAt!: Date | null;

@@ -7,7 +7,14 @@ import {
 import { createMailer, type Mailer } from "../mail/mailer";
 import { startSmtpFake, type SmtpFake } from "../mail/smtp-fake";
 import { OutboxMessage } from "./outbox.entity";
-import { enqueueMail, OutboxWorker, type OutboxWorkerOptions } from "./outbox";
+import {
+  enqueueMail,
+  OutboxWorker,
+  pruneSentMail,
+  requeueFailedMail,
+  type OutboxWorkerOptions,
+} from "./outbox";
+import { newId } from "../../db/columns";
 
 let db: TestDatabase;
 let fake: SmtpFake;
@@ -365,5 +372,138 @@ describe("OutboxWorker", () => {
       "sent",
     ]);
     for (const t of to) expect(caughtFor(fake, t)).toHaveLength(1);
+  });
+
+  it("gives up at once on a permanent SMTP refusal (5xx), records when, and sends it after a re-queue with the same Message-ID", async () => {
+    const to = address();
+    const other = address();
+    fake.refuse(to);
+    const { id, messageId } = await queue(to, { workshopId: newId() });
+    await queue(other);
+    const w = worker({ maxAttempts: 10 });
+    // RFC 5321 §4.2.1: a 5yz reply is permanent; the other message in the batch still goes.
+    expect(await w.runOnce()).toBe(1);
+    const repo = db.ds.getRepository(OutboxMessage);
+    const failed = await repo.findOneByOrFail({ id });
+    expect(failed).toMatchObject({ state: "failed", attempts: 1 });
+    expect(failed.lastError).toMatch(/550 5\.1\.1/);
+    expect(failed.lastAttemptAt).toBeInstanceOf(Date);
+    expect(Math.abs(failed.lastAttemptAt!.getTime() - Date.now())).toBeLessThan(
+      60_000,
+    );
+    expect(logged.at(-1)).toContain("giving up");
+    expect(caughtFor(fake, to)).toHaveLength(0);
+    expect(caughtFor(fake, other)).toHaveLength(1);
+    expect(await w.runOnce()).toBe(0);
+
+    // Only a failed row of the same workshop goes back.
+    expect(await requeueFailedMail(db.ds.manager, id, newId())).toBe(false);
+    fake.accept(to);
+    const row = await repo.findOneByOrFail({ id });
+    expect(await requeueFailedMail(db.ds.manager, id, row.workshopId!)).toBe(
+      true,
+    );
+    expect(await requeueFailedMail(db.ds.manager, id, row.workshopId!)).toBe(
+      false,
+    );
+    expect(await repo.findOneByOrFail({ id })).toMatchObject({
+      state: "pending",
+      attempts: 0,
+      lastError: null,
+      lastAttemptAt: null,
+    });
+    expect(await w.runOnce()).toBe(1);
+    const [mail, ...more] = caughtFor(fake, to);
+    expect(more).toHaveLength(0);
+    expect(mail.messageId).toBe(messageId);
+    expect(await repo.findOneByOrFail({ id })).toMatchObject({
+      state: "sent",
+      messageId,
+    });
+  });
+
+  it("a 4xx or a refused connection is still retried, not given up on", async () => {
+    const down = await startSmtpFake();
+    const port = down.port;
+    await down.close();
+    const transport = createMailer({
+      host: "127.0.0.1",
+      port,
+      secure: false,
+      from: "x@sitecue.example.test",
+    });
+    try {
+      await queue(address());
+      expect(await worker({ transport }).runOnce()).toBe(0);
+      const [r] = await rows();
+      expect(r).toMatchObject({ state: "pending", attempts: 1 });
+      expect(r.lastAttemptAt).toBeInstanceOf(Date);
+    } finally {
+      transport.close();
+    }
+  });
+});
+
+describe("pruneSentMail", () => {
+  const DAY = 86_400_000;
+  /** A row as the worker leaves it, sent (or failed, or pending) `daysAgo` days ago. */
+  async function aged(state: OutboxMessage["state"], daysAgo: number) {
+    const at = new Date(Date.now() - daysAgo * DAY);
+    const { id } = await queue(address());
+    await db.ds.getRepository(OutboxMessage).update(id, {
+      state,
+      sentAt: state === "sent" ? at : null,
+      lastAttemptAt: state === "failed" ? at : null,
+      nextAttemptAt: at,
+    });
+    return id;
+  }
+  const left = async () =>
+    (await rows()).map((r) => r.id).sort((a, b) => a.localeCompare(b));
+
+  it("deletes sent rows older than the retention in bounded batches; keeps recent sent, failed and pending ones", async () => {
+    const old: string[] = [];
+    for (let i = 0; i < 7; i++) old.push(await aged("sent", 31 + i));
+    const kept = [
+      await aged("sent", 29),
+      await aged("sent", 0),
+      await aged("failed", 90),
+      await aged("pending", 90),
+    ];
+    // maxBatches bounds one call: two batches of three.
+    expect(
+      await pruneSentMail(db.ds, { keepDays: 30, batchSize: 3, maxBatches: 2 }),
+    ).toBe(6);
+    // Oldest first: the one left of the old ones is the newest of them (31 days).
+    expect(await left()).toEqual(
+      [old[0], ...kept].sort((a, b) => a.localeCompare(b)),
+    );
+    expect(await pruneSentMail(db.ds, { keepDays: 30, batchSize: 3 })).toBe(1);
+    expect(await pruneSentMail(db.ds, { keepDays: 30, batchSize: 3 })).toBe(0);
+    expect(await left()).toEqual([...kept].sort((a, b) => a.localeCompare(b)));
+    // A shorter retention takes the 29-day one too, never the failed or pending ones.
+    expect(await pruneSentMail(db.ds, { keepDays: 1 })).toBe(1);
+    expect((await rows()).map((r) => r.state).sort()).toEqual([
+      "failed",
+      "pending",
+      "sent",
+    ]);
+  });
+
+  it("two processes pruning at once delete each old row once, without errors", async () => {
+    const second = createDataSource(db.settings);
+    await second.initialize();
+    try {
+      for (let i = 0; i < 40; i++) await aged("sent", 40);
+      const recent = await aged("sent", 2);
+      const [a, b] = await Promise.all([
+        pruneSentMail(db.ds, { keepDays: 30, batchSize: 4 }),
+        pruneSentMail(second, { keepDays: 30, batchSize: 4 }),
+      ]);
+      expect(a + b).toBe(40);
+      expect(await left()).toEqual([recent]);
+    } finally {
+      await second.destroy();
+    }
   });
 });

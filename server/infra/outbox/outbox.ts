@@ -1,5 +1,5 @@
 import { randomUUID } from "node:crypto";
-import type { EntityManager } from "typeorm";
+import type { DataSource, EntityManager } from "typeorm";
 import { newId } from "../../db/columns";
 import { OutboxMessage, type OutboxCalendar } from "./outbox.entity";
 
@@ -45,4 +45,67 @@ export async function enqueueMail(
     nextAttemptAt: () => "UTC_TIMESTAMP(3)",
   });
   return { id, messageId };
+}
+
+/** How long sent rows are kept unless configured (`OUTBOX_KEEP_DAYS`). */
+export const DEFAULT_KEEP_DAYS = 30;
+
+/**
+ * Deletes `sent` rows whose `sentAt` is more than `keepDays` days ago (by the database's clock),
+ * oldest first, at most `batchSize` rows per statement and `maxBatches` statements per call, so a
+ * large backlog never holds many locks or a long transaction. Each batch is a plain (non-locking)
+ * read of ids on the (state, sentAt) index, then one DELETE by primary key: processes pruning at
+ * once may pick the same ids, but the second DELETE only waits for the first and finds them gone
+ * (both lock primary keys in ascending order, so they cannot deadlock; a locking read of the
+ * secondary index with SKIP LOCKED did, in tests). A sent row never changes again, so deleting by
+ * id alone is safe. `pending`, `sending` and `failed` rows are never touched: a failed message
+ * stays until someone sends it again. Returns how many rows this call deleted.
+ */
+export async function pruneSentMail(
+  ds: DataSource,
+  o: { keepDays: number; batchSize?: number; maxBatches?: number },
+): Promise<number> {
+  const batchSize = o.batchSize ?? 500;
+  const maxBatches = o.maxBatches ?? 100;
+  const keepUs = Math.round(o.keepDays * 86_400_000_000);
+  let deleted = 0;
+  for (let i = 0; i < maxBatches; i++) {
+    const old: { id: string }[] = await ds.query(
+      "SELECT id FROM outbox_messages WHERE state = 'sent' AND sentAt < UTC_TIMESTAMP(3) - INTERVAL ? MICROSECOND ORDER BY sentAt LIMIT ?",
+      [keepUs, batchSize],
+    );
+    if (!old.length) break;
+    const result: { affectedRows: number } = await ds.query(
+      "DELETE FROM outbox_messages WHERE id IN (?)",
+      [old.map((r) => r.id)],
+    );
+    deleted += result.affectedRows;
+    if (old.length < batchSize) break;
+  }
+  return deleted;
+}
+
+/**
+ * Puts a `failed` message of this workshop back in the queue: `pending`, due now, attempts from
+ * zero, with its Message-ID unchanged (so a copy that did arrive after all folds with the new
+ * one). False when there is no such row in `failed` (already re-queued, sent, or not theirs).
+ */
+export async function requeueFailedMail(
+  m: EntityManager,
+  id: string,
+  workshopId: string,
+): Promise<boolean> {
+  const result = await m
+    .createQueryBuilder()
+    .update(OutboxMessage)
+    .set({
+      state: "pending",
+      attempts: 0,
+      lastError: null,
+      lastAttemptAt: null,
+      nextAttemptAt: () => "UTC_TIMESTAMP(3)",
+    })
+    .where({ id, workshopId, state: "failed" })
+    .execute();
+  return (result.affected ?? 0) > 0;
 }

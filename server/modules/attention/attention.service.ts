@@ -19,6 +19,8 @@ import { notFound } from "../../http/errors";
 import { Booking } from "../bookings/bookings.entity";
 import { Job } from "../jobs/jobs.entity";
 import { localToday } from "../jobs/jobs.presenter";
+import { localNow } from "../visits/visits.service";
+import { failedMailOf, shortReason } from "../outbox/outbox.service";
 import { loadProgramme } from "../programme/programme-input";
 import { Trade } from "../trades/trades.entity";
 import { unreadSummary } from "../thread/thread.service";
@@ -146,7 +148,7 @@ export function compareAttention(a: Ranked, b: Ranked): number {
     rank(a) - rank(b) ||
     (a.due ?? "9").localeCompare(b.due ?? "9") ||
     (a.item.since ?? "9").localeCompare(b.item.since ?? "9") ||
-    a.item.job.title.localeCompare(b.item.job.title) ||
+    (a.item.job?.title ?? "").localeCompare(b.item.job?.title ?? "") ||
     a.item.id.localeCompare(b.item.id)
   );
 }
@@ -179,9 +181,36 @@ export async function attentionFor(
     holidayRegion: workshop.holidayRegion,
     daysOff: [],
   };
-  const zone = jobs[0]?.timeZone ?? "Europe/London";
+  const zone = jobs[0]?.timeZone ?? workshop.timeZone;
   const today = localToday(zone, now);
-  if (!jobs.length) return { today, jobsChecked: 0, items: [] };
+  const ranked: Ranked[] = [];
+
+  // E-mail the outbox gave up on: whoever it was for never heard (a booking, an invitation).
+  for (const mail of await failedMailOf(m, workshopId)) {
+    const tried = mail.lastAttemptAt ?? mail.createdAt;
+    const [day, time] = localNow(zone, tried);
+    const waited = agoText(tried, now, zone, workshopCalendar);
+    ranked.push({
+      due: null,
+      item: {
+        id: `mail-failed:${mail.id}`,
+        kind: "mail-failed",
+        tone: "risk",
+        job: null,
+        task: null,
+        trade: null,
+        bookingId: null,
+        sentence: `The e-mail to ${mail.to} about “${mail.subject}” could not be sent (last tried ${dayText(day)} at ${time}): ${shortReason(mail.lastError)}.`,
+        since: tried.toISOString(),
+        waited,
+        action: { label: "Send again", retryMessageId: mail.id },
+      },
+    });
+  }
+  if (!jobs.length) {
+    ranked.sort(compareAttention);
+    return { today, jobsChecked: 0, items: ranked.map((r) => r.item) };
+  }
 
   const jobIds = jobs.map((j) => j.id);
   const [allBookings, trades, unread, awayClashes] = await Promise.all([
@@ -210,7 +239,6 @@ export async function attentionFor(
     }),
   );
 
-  const ranked: Ranked[] = [];
   const ago = (d: Date, job: Job) =>
     agoText(d, now, job.timeZone, workshopCalendar);
 

@@ -4,19 +4,24 @@ import {
   Button,
   EmptyState,
   ErrorState,
+  FormError,
   LinkButton,
   LoadingState,
+  Notice,
   PartyChip,
   Section,
   StatusBadge,
 } from "../../../components/ui";
+import { errorMessage } from "../../../lib/api-client";
 import { useAttention } from "../api/get-attention";
+import { useRetryMail } from "../api/retry-mail";
 
 /** Each kind's label beside its sentence (words always; the colour only repeats them). */
 const kindLabels: Record<AttentionKind, string> = {
   "handover-at-risk": "Handover at risk",
   clash: "Clash",
   "customer-away": "Customer away",
+  "mail-failed": "E-mail not sent",
   declined: "Declined",
   "date-proposed": "Date proposed",
   "needs-reconfirming": "Needs re-confirming",
@@ -30,8 +35,27 @@ const toneOf = { risk: "risk", wait: "wait", info: "neutral" } as const;
 /** Enough to act on at a glance; the rest one click away. */
 const FIRST = 8;
 
-function Item({ item, index }: { item: AttentionItem; index: number }) {
+interface SendAgain {
+  /** The message being sent again, while its request is out. */
+  busyId: string | null;
+  /** The message whose request was refused, and why. */
+  error: { id: string; message: string } | null;
+  send: (messageId: string) => void;
+}
+
+function Item({
+  item,
+  index,
+  sendAgain,
+}: {
+  item: AttentionItem;
+  index: number;
+  sendAgain: SendAgain;
+}) {
   const headingId = `attention-${index}`;
+  const action = item.action;
+  const variant = item.tone === "info" ? "secondary" : "primary";
+  const className = "justify-self-start sm:justify-self-end";
   return (
     <li
       aria-labelledby={headingId}
@@ -46,7 +70,9 @@ function Item({ item, index }: { item: AttentionItem; index: number }) {
           <StatusBadge tone={toneOf[item.tone]}>
             {kindLabels[item.kind]}
           </StatusBadge>
-          <span className="font-semibold">{item.job.title}</span>
+          {item.job ? (
+            <span className="font-semibold">{item.job.title}</span>
+          ) : null}
           {item.task ? (
             <>
               <span aria-hidden="true" className="text-ink-soft">
@@ -57,17 +83,35 @@ function Item({ item, index }: { item: AttentionItem; index: number }) {
             </>
           ) : null}
         </p>
-        <p className="text-sm text-ink-soft">{item.sentence}</p>
+        <p className="break-words text-sm text-ink-soft">{item.sentence}</p>
+        {"retryMessageId" in action &&
+        sendAgain.error?.id === action.retryMessageId ? (
+          <FormError message={sendAgain.error.message} />
+        ) : null}
       </div>
-      <LinkButton
-        to={item.action.to}
-        size="sm"
-        variant={item.tone === "info" ? "secondary" : "primary"}
-        className="justify-self-start sm:justify-self-end"
-        aria-describedby={headingId}
-      >
-        {item.action.label}
-      </LinkButton>
+      {"retryMessageId" in action ? (
+        // Fixed here and now (no screen to go to): a button, not a link.
+        <Button
+          size="sm"
+          variant={variant}
+          className={className}
+          aria-describedby={headingId}
+          busy={sendAgain.busyId === action.retryMessageId}
+          onClick={() => sendAgain.send(action.retryMessageId)}
+        >
+          {action.label}
+        </Button>
+      ) : (
+        <LinkButton
+          to={action.to}
+          size="sm"
+          variant={variant}
+          className={className}
+          aria-describedby={headingId}
+        >
+          {action.label}
+        </LinkButton>
+      )}
     </li>
   );
 }
@@ -79,6 +123,22 @@ function Item({ item, index }: { item: AttentionItem; index: number }) {
 export function AttentionList({ workshopId }: { workshopId: string }) {
   const attention = useAttention(workshopId);
   const [all, setAll] = useState(false);
+  const retry = useRetryMail(workshopId);
+  const [resent, setResent] = useState<string | null>(null);
+  const [retryError, setRetryError] = useState<SendAgain["error"]>(null);
+  const sendAgain: SendAgain = {
+    busyId: retry.isPending ? (retry.variables ?? null) : null,
+    error: retryError,
+    send: (messageId) => {
+      setResent(null);
+      setRetryError(null);
+      retry.mutate(messageId, {
+        onSuccess: (queued) => setResent(queued.to),
+        onError: (err) =>
+          setRetryError({ id: messageId, message: errorMessage(err) }),
+      });
+    },
+  };
 
   let body: React.ReactNode;
   if (attention.isPending)
@@ -104,7 +164,7 @@ export function AttentionList({ workshopId }: { workshopId: string }) {
             aria-label="Needs you now"
           >
             {shown.map((item, i) => (
-              <Item key={item.id} item={item} index={i} />
+              <Item key={item.id} item={item} index={i} sendAgain={sendAgain} />
             ))}
           </ol>
           {items.length > FIRST ? (
@@ -135,7 +195,15 @@ export function AttentionList({ workshopId }: { workshopId: string }) {
           : "Across the open jobs, most urgent first."
       }
     >
-      {body}
+      <div className="flex flex-col gap-3">
+        {resent ? (
+          <Notice>
+            The e-mail to {resent} is back in the queue and will be sent again
+            in a moment.
+          </Notice>
+        ) : null}
+        {body}
+      </div>
     </Section>
   );
 }
