@@ -217,6 +217,24 @@ describe("the owner's home: what needs attention now", () => {
     ).toBe(true);
     await shot(page, "attention-01-owner-home");
     expect(await axeSeriousOrWorse(page)).toEqual([]);
+
+    // The demo's thread: the plasterer's and the fitter's evening messages wait for the owner
+    // (tests/factories/demo-thread.ts): one item for the job, with the thread's own count.
+    const unread = api.items.filter(
+      (i) => i.kind === "unread" && i.job.title === demoJobTitles.alcoves,
+    );
+    expect(unread).toHaveLength(1);
+    expect(unread[0].sentence).toMatch(/^2 unread messages in the thread;/);
+    // Messages come last, so past the first eight the list is opened (as the screen offers).
+    if (api.items.length > 8)
+      await section
+        .getByRole("button", { name: `Show all ${api.items.length}` })
+        .click();
+    const unreadItem = item(page, demoJobTitles.alcoves, unread[0].sentence);
+    expect(await unreadItem.count()).toBe(1);
+    expect(
+      await unreadItem.getByRole("link", { name: "Read the thread" }).count(),
+    ).toBe(1);
   });
 
   it("“Book the next plasterer” lands on that booking with the booking options open", async () => {

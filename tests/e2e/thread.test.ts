@@ -3,7 +3,8 @@
 // polling (no reload) and never the second, and may not post "Workshop only"; the unread badge
 // counts and clears once the thread has been on screen; text is text ("<b>" stays four
 // characters) with safe links; a photo goes up with progress and shows as a thumbnail; a refused
-// file keeps what was typed; the customer sees only "Whole job". Chromium against the built
+// file keeps what was typed; the customer sees only "Whole job", and the demo's own conversation
+// (tests/factories/demo-thread.ts) keeps to its audiences too. Chromium against the built
 // client (production CSP), axe-core on each role's page.
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -15,6 +16,7 @@ import { postSystemNote } from "../../server/modules/thread/thread-notes";
 import { startTestApp, type TestApp } from "../setup/test-app";
 import { samplePng, sampleElf } from "../setup/uploads";
 import { demoAccounts, demoJobTitles } from "../factories/demo-scenario";
+import { demoThreadTexts } from "../factories/demo-thread";
 import {
   axeSeriousOrWorse,
   desktop,
@@ -49,6 +51,12 @@ const tradesText =
 const tradesLink = "https://example.test/coving/ogee-90";
 const wholeJob = "The dust sheets stay down until the decorator has been.";
 const systemText = "Kestrel Decorating confirmed Fill, caulk & paint.";
+// The demo's own conversation on the job (tests/factories/demo-thread.ts), one per audience.
+const demo = {
+  job: demoThreadTexts.carcassesUp,
+  trades: demoThreadTexts.covingAnswer,
+  workshop: demoThreadTexts.fitterShims,
+};
 
 /** The job page by its address (what a link in a notice e-mail opens). */
 async function openJob(
@@ -134,8 +142,22 @@ describe("the job thread", () => {
     expect(box!.y).toBeGreaterThan(phone.height);
     const api = await apiThread(trade.page, jobId);
     unreadBefore = api.unreadCount;
-    expect(unreadBefore).toBeGreaterThanOrEqual(1);
+    // The demo has him read up to his own message of yesterday evening: the note alone is new.
+    expect(unreadBefore).toBe(1);
+    expect(api.messages.filter((m) => m.unread).map((m) => m.text)).toEqual([
+      systemText,
+    ]);
     expect(api.visibleAudiences).not.toContain("workshop");
+    // The demo's conversation: the whole-job and trades messages, never the workshop's own.
+    await visible(messages(trade.page).getByText(demo.job, { exact: false }));
+    await visible(
+      messages(trade.page).getByText(demo.trades, { exact: false }),
+    );
+    expect(
+      await thread(trade.page)
+        .getByText(demo.workshop, { exact: false })
+        .count(),
+    ).toBe(0);
     await expect
       .poll(() => badge(trade.page).textContent(), { timeout: 10_000 })
       .toBe(`${unreadBefore} unread`);
@@ -150,7 +172,21 @@ describe("the job thread", () => {
 
   it("the owner posts a Workshop only and then a Trades & workshop message", async () => {
     owner = await signInAs(demoAccounts.owner.email);
+    // Before the job page is open: the demo left her the plasterer's and the fitter's evening
+    // messages unread, and the note above is new too.
+    expect(
+      (await apiThread(owner.page, jobId)).messages
+        .filter((m) => m.unread)
+        .map((m) => m.text),
+    ).toEqual([
+      expect.stringContaining(demoThreadTexts.scribeGap),
+      expect.stringContaining(demoThreadTexts.fitterShims),
+      systemText,
+    ]);
     await openJob(owner.page, jobId);
+    // She sees every audience of the demo's conversation.
+    for (const text of Object.values(demo))
+      await visible(messages(owner.page).getByText(text, { exact: false }));
     const select = thread(owner.page).getByLabel("Who sees it");
     expect(await select.locator("option").allTextContents()).toEqual([
       threadAudienceLabels.job,
@@ -319,9 +355,9 @@ describe("the job thread", () => {
     // The whole job page: thread, calendar, bookings and drawings together.
     expect(await axeSeriousOrWorse(page)).toEqual([]);
 
-    // Another job of the demo has no messages yet (its API says so first).
-    const otherId = (await jobByTitle(demoJobTitles.wardrobe)).id;
-    await openJob(page, otherId, demoJobTitles.wardrobe);
+    // The bookcase job, still under survey, has no messages yet (its API says so first).
+    const otherId = (await jobByTitle(demoJobTitles.bookcase)).id;
+    await openJob(page, otherId, demoJobTitles.bookcase);
     expect((await apiThread(page, otherId)).messages).toEqual([]);
     await visible(thread(page).getByText("No messages yet"));
     await thread(page).screenshot({
@@ -338,6 +374,15 @@ describe("the job thread", () => {
     await openJob(page, jobId);
     await visible(messages(page).getByText(wholeJob));
     expect(await thread(page).getByText(workshopOnly).count()).toBe(0);
+    // The demo's conversation: her own job's messages only.
+    await visible(messages(page).getByText(demo.job, { exact: false }));
+    await visible(
+      messages(page).getByText(demoThreadTexts.customerReply, { exact: false }),
+    );
+    for (const text of [demo.trades, demo.workshop])
+      expect(await thread(page).getByText(text, { exact: false }).count()).toBe(
+        0,
+      );
     expect(
       await thread(page).getByText("Coving template first thing").count(),
     ).toBe(0);

@@ -14,6 +14,7 @@ import {
   DEMO_PASSWORD,
   weekdaysFrom,
 } from "../factories/demo-scenario";
+import { demoThreadTexts } from "../factories/demo-thread";
 import { Job } from "../../server/modules/jobs/jobs.entity";
 import { User } from "../../server/modules/users/users.entity";
 import {
@@ -172,6 +173,25 @@ describe("the customer's timeline on a phone", () => {
 
     // The rest of her home: the thread, drawings shared with her, the feed, away dates.
     await visible(page.getByRole("heading", { name: /^Thread/ }));
+    // The demo's conversation as she sees it: the whole job's messages, hers among them, never
+    // the trades' or the workshop's (tests/factories/demo-thread.ts).
+    for (const said of [
+      demoThreadTexts.weekAhead,
+      demoThreadTexts.customerReply,
+      demoThreadTexts.carcassesUp,
+    ])
+      await visible(page.getByText(said, { exact: false }));
+    for (const hidden of [
+      demoThreadTexts.covingProfile,
+      demoThreadTexts.scribeGap,
+      demoThreadTexts.fitterLeftWall,
+      demoThreadTexts.fitterShims,
+      demoThreadTexts.wardrobeSurvey,
+    ])
+      expect(
+        await page.getByText(hidden, { exact: false }).count(),
+        hidden,
+      ).toBe(0);
     await visible(page.getByRole("heading", { name: "Drawings" }));
     await visible(page.getByRole("heading", { name: "Calendar feed" }));
     await visible(page.getByRole("heading", { name: "Dates you'll be away" }));

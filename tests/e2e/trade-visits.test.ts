@@ -18,6 +18,7 @@ import {
   DEMO_DRAWING_TITLE,
   loadDemoDrawings,
 } from "../factories/demo-drawings";
+import { demoThreadTexts } from "../factories/demo-thread";
 import { Drawing } from "../../server/modules/drawings/drawings.entity";
 import { OutboxMessage } from "../../server/infra/outbox/outbox.entity";
 import { Job } from "../../server/modules/jobs/jobs.entity";
@@ -304,13 +305,25 @@ describe("the trade's home and visit page on a phone", () => {
     await expect(thread.getByLabel("Who sees it").inputValue()).resolves.toBe(
       "trades",
     );
+    // The demo's trades conversation is there too (the coving profile and the scribe gap).
+    await visible(
+      thread.getByText(demoThreadTexts.scribeGap, { exact: false }),
+    );
     await thread.getByRole("button", { name: "All" }).click();
     await visible(thread.getByText(/Started: Template coving/));
+    // Under "All": the demo's whole-job messages, never the workshop's own.
+    await visible(
+      thread.getByText(demoThreadTexts.carcassesUp, { exact: false }),
+    );
     for (const other of [
       "01632 960 271",
       "nell@",
       "out of plumb",
       "Sprayed doors",
+      demoThreadTexts.fitterLeftWall,
+      demoThreadTexts.ownerFinisher,
+      demoThreadTexts.fitterShims,
+      demoThreadTexts.wardrobeSurvey,
     ])
       expect(await main.innerText()).not.toContain(other);
     await shot(page, "trade-visit-page");

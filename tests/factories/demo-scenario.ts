@@ -17,6 +17,7 @@ import {
 import { addDefaultStarters } from "../../server/modules/starters/starters.service";
 import type { Storage } from "../../server/infra/storage/storage";
 import { loadDemoDrawings } from "./demo-drawings";
+import { setDemoReadMarkers, writeDemoThread } from "./demo-thread";
 
 export const DEMO_PASSWORD = "sitecue-demo";
 
@@ -47,7 +48,7 @@ export function weekdaysFrom(today: string, n: number): string {
   return d.toISOString().slice(0, 10);
 }
 
-/** Loads the whole demo scenario in one transaction; with `storage`, also the demo drawing. */
+/** Loads the whole demo scenario in one transaction (then the thread's read markers); with `storage`, also the demo drawing. */
 export async function loadDemoScenario(
   ds: DataSource,
   today: string,
@@ -56,7 +57,7 @@ export async function loadDemoScenario(
   const day = (n: number) => weekdaysFrom(today, n);
   /** An instant n days before now (when invitations went out). */
   const daysAgo = (n: number) => new Date(Date.now() - n * 86_400_000);
-  await ds.transaction(async (m) => {
+  const readMarkers = await ds.transaction(async (m) => {
     const workshop = await buildWorkshop(m, {
       name: "Hollin & Vane Joinery",
       town: "Wetherfold",
@@ -331,7 +332,23 @@ export async function loadDemoScenario(
       notEarlierThan: day(3),
       hazards: [],
     });
+
+    // A few days of the thread (demo-thread.ts): every audience on the alcoves, the workshop's own
+    // notes on the wardrobe.
+    return writeDemoThread(
+      m,
+      { alcoves, wardrobe },
+      {
+        owner,
+        fitter,
+        trade: tradeUser,
+        customer: rosaUser,
+        tradeBusinessName: plasterer.businessName,
+      },
+      day,
+    );
   });
+  await setDemoReadMarkers(ds, readMarkers);
   // The demo drawing needs the bucket; without one (most API tests) the scenario has no drawings.
   if (opts.storage)
     await loadDemoDrawings(

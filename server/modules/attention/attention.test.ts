@@ -133,10 +133,27 @@ async function byLink(bookingId: string) {
 }
 
 describe("who may see it", () => {
-  it("the owner and the fitter get the same list; the demo's unanswered bookings are on it", async () => {
+  it("the owner and the fitter get the same list but for their own unread; the demo's unanswered bookings are on it", async () => {
     const a = await attention(owner);
     const b = await attention(fitter);
-    expect(b.items.map((i) => i.id)).toEqual(a.items.map((i) => i.id));
+    const shared = (r: AttentionResponse) =>
+      r.items.filter((i) => i.kind !== "unread").map((i) => i.id);
+    expect(shared(b)).toEqual(shared(a));
+    // Unread is per person: the demo's owner has not read the newest two alcove messages (the
+    // plasterer's and the fitter's); the fitter, who wrote last, has read everything.
+    expect(
+      a.items
+        .filter((i) => i.kind === "unread")
+        .map((i) => [i.job.title, i.sentence]),
+    ).toEqual([
+      [
+        demoJobTitles.alcoves,
+        expect.stringMatching(
+          /^2 unread messages in the thread; the newest (.+ ago|on .+)\.$/,
+        ),
+      ],
+    ]);
+    expect(b.items.filter((i) => i.kind === "unread")).toEqual([]);
     expect(a.jobsChecked).toBe(3);
     const template = a.items.find(
       (i) => i.kind === "awaiting-answer" && i.task?.name === "Template coving",

@@ -19,7 +19,14 @@ import {
   buildUser,
   linkTradeUser,
 } from "../../../tests/factories/builders";
-import { demoAccounts } from "../../../tests/factories/demo-scenario";
+import {
+  demoAccounts,
+  demoJobTitles,
+} from "../../../tests/factories/demo-scenario";
+import {
+  demoThreadCounts,
+  demoThreadTexts,
+} from "../../../tests/factories/demo-thread";
 import type {
   ThreadAudience,
   ThreadMessage,
@@ -27,6 +34,7 @@ import type {
 } from "../../../shared/schemas";
 import { OutboxMessage } from "../../infra/outbox/outbox.entity";
 import { Customer } from "../customers/customers.entity";
+import { Job } from "../jobs/jobs.entity";
 import { StoredFile } from "../files/files.entity";
 import { Trade } from "../trades/trades.entity";
 import { Workshop } from "../workshops/workshops.entity";
@@ -147,6 +155,130 @@ const thread = async (
   (await who.agent.get(`/api/jobs/${jobId}/thread${query}`).expect(200)).body;
 
 const texts = (r: ThreadResponse) => r.messages.map((x) => x.text);
+
+describe("the demo's thread", () => {
+  // Runs first: nothing else has posted on the demo jobs yet.
+  const T = demoThreadTexts;
+  const demoJob = (title: string) =>
+    t.db.ds.manager.findOneByOrFail(Job, { title });
+  const has = (r: ThreadResponse, text: string) =>
+    texts(r).some((x) => x.includes(text));
+  const tradesTexts = [T.covingProfile, T.covingAnswer, T.scribeGap];
+  const workshopTexts = [T.fitterLeftWall, T.ownerFinisher, T.fitterShims];
+  const jobTexts = [T.weekAhead, T.customerReply, T.carcassesUp];
+
+  it("the alcove job has a few days of messages in every audience, read up to where each person left off", async () => {
+    const { id } = await demoJob(demoJobTitles.alcoves);
+    const owner = await thread(s.owner, id);
+    const byAudience = (r: ThreadResponse) =>
+      Object.fromEntries(
+        (["job", "trades", "workshop"] as const).map((a) => [
+          a,
+          r.messages.filter((x) => x.audience === a).length,
+        ]),
+      );
+    expect(byAudience(owner)).toEqual(demoThreadCounts.alcoves);
+    expect(owner.messages.every((x) => x.kind === "message")).toBe(true);
+    // Oldest first, a few working days back to yesterday, never in the future.
+    const times = owner.messages.map((x) => Date.parse(x.createdAt));
+    expect(times).toEqual([...times].sort((a, b) => a - b));
+    expect(times[0]).toBeLessThan(Date.now() - 2 * 86_400_000);
+    expect(times[0]).toBeGreaterThan(Date.now() - 10 * 86_400_000);
+    expect(times.at(-1)).toBeLessThan(Date.now());
+    // The owner has not read the plasterer's and the fitter's evening messages.
+    expect(owner.unreadCount).toBe(demoThreadCounts.alcovesUnread.owner);
+    expect(owner.messages.filter((x) => x.unread).map((x) => x.text)).toEqual([
+      expect.stringContaining(T.scribeGap),
+      expect.stringContaining(T.fitterShims),
+    ]);
+    expect((await thread(s.fitter, id)).unreadCount).toBe(
+      demoThreadCounts.alcovesUnread.fitter,
+    );
+    // Authors as posting labels them.
+    const authorOf = (text: string) =>
+      owner.messages.find((x) => x.text.includes(text))?.author;
+    expect(authorOf(T.covingAnswer)).toEqual({
+      name: demoAccounts.trade.name,
+      label: "Ashby Plaster & Coving",
+      role: "trade",
+    });
+    expect(authorOf(T.customerReply)).toEqual({
+      name: demoAccounts.customer.name,
+      label: "Customer",
+      role: "customer",
+    });
+    expect(authorOf(T.fitterShims)).toEqual({
+      name: demoAccounts.fitter.name,
+      label: "Workshop",
+      role: "workshop",
+    });
+    // No contact details in any message: no phone numbers, no e-mail addresses.
+    for (const m of owner.messages) {
+      expect(m.text).not.toMatch(/\b0\d{3,4} ?\d{3} ?\d{3,4}\b/);
+      expect(m.text).not.toContain("@");
+    }
+    // In the story the notice e-mails went out long ago: the demo owes none.
+    expect(await t.db.ds.manager.count(ThreadNotice)).toBe(0);
+  });
+
+  it("keeps each demo audience to its people: the plasterer never sees Workshop only, the customer only the whole job", async () => {
+    const { id } = await demoJob(demoJobTitles.alcoves);
+    for (const who of ["dev", "kit"] as const) {
+      const r = await thread(s[who], id);
+      for (const x of [...jobTexts, ...tradesTexts])
+        expect(has(r, x), `${who}: ${x}`).toBe(true);
+      for (const x of workshopTexts)
+        expect(has(r, x), `${who}: ${x}`).toBe(false);
+    }
+    // Dev read up to his own message; Kit (a person of the decorator) never opened it.
+    expect((await thread(s.dev, id)).unreadCount).toBe(
+      demoThreadCounts.alcovesUnread.trade,
+    );
+    expect((await thread(s.kit, id)).unreadCount).toBe(
+      demoThreadCounts.alcoves.job + demoThreadCounts.alcoves.trades,
+    );
+    const rosaView = await thread(s.rosa, id);
+    expect(rosaView.messages.every((x) => x.audience === "job")).toBe(true);
+    for (const x of jobTexts) expect(has(rosaView, x), x).toBe(true);
+    for (const x of [...tradesTexts, ...workshopTexts])
+      expect(has(rosaView, x), x).toBe(false);
+    // She read up to her reply: the workshop's update yesterday is new to her.
+    expect(rosaView.unreadCount).toBe(demoThreadCounts.alcovesUnread.customer);
+    expect(
+      rosaView.messages.filter((x) => x.unread).map((x) => x.text),
+    ).toEqual([expect.stringContaining(T.carcassesUp)]);
+    // The unread lists agree: the owner's only unread job is the alcoves.
+    const ownerUnread = (
+      await s.owner.agent.get("/api/thread/unread").expect(200)
+    ).body;
+    expect(ownerUnread).toMatchObject({
+      total: demoThreadCounts.alcovesUnread.owner,
+      jobs: [
+        {
+          jobId: id,
+          jobTitle: demoJobTitles.alcoves,
+          unreadCount: demoThreadCounts.alcovesUnread.owner,
+        },
+      ],
+    });
+  });
+
+  it("the wardrobe job has the workshop's own notes, read, and nothing its customer sees", async () => {
+    const { id } = await demoJob(demoJobTitles.wardrobe);
+    const owner = await thread(s.owner, id);
+    expect(owner.messages.map((x) => x.audience)).toEqual(
+      Array(demoThreadCounts.wardrobe.workshop).fill("workshop"),
+    );
+    expect(has(owner, T.wardrobeSurvey)).toBe(true);
+    expect(owner.unreadCount).toBe(0);
+    expect((await thread(s.fitter, id)).unreadCount).toBe(0);
+    const tom = await thread(s.tom, id);
+    expect(tom.audiences).toEqual(["job"]);
+    expect(tom.messages).toEqual([]);
+    const { id: bookcase } = await demoJob(demoJobTitles.bookcase);
+    expect((await thread(s.owner, bookcase)).messages).toEqual([]);
+  });
+});
 
 describe("audiences", () => {
   it("offers each role exactly the audiences the roles table gives it; others get 404", async () => {
