@@ -221,7 +221,7 @@ describe("the owner's home: what needs attention now", () => {
     // The demo's thread: the plasterer's and the fitter's evening messages wait for the owner
     // (tests/factories/demo-thread.ts): one item for the job, with the thread's own count.
     const unread = api.items.filter(
-      (i) => i.kind === "unread" && i.job.title === demoJobTitles.alcoves,
+      (i) => i.kind === "unread" && i.job?.title === demoJobTitles.alcoves,
     );
     expect(unread).toHaveLength(1);
     expect(unread[0].sentence).toMatch(/^2 unread messages in the thread;/);

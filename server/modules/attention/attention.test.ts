@@ -144,7 +144,7 @@ describe("who may see it", () => {
     expect(
       a.items
         .filter((i) => i.kind === "unread")
-        .map((i) => [i.job.title, i.sentence]),
+        .map((i) => [i.job?.title, i.sentence]),
     ).toEqual([
       [
         demoJobTitles.alcoves,
