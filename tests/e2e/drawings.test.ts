@@ -24,6 +24,7 @@ import { demoAccounts, demoJobTitles } from "../factories/demo-scenario";
 import {
   apiGet,
   axeSeriousOrWorse,
+  dayText,
   desktop,
   launchBrowser,
   phone,
@@ -142,18 +143,6 @@ function elevationPdf(label: string, side: number): Buffer {
 
 const revA = elevationPdf("Elevation, both alcoves - Rev A", 1100);
 const revB = elevationPdf("Elevation, both alcoves - Rev B", 1000);
-
-const WEEKDAY = ["Sun", "Mon", "Tue", "Wed", "Thu", "Fri", "Sat"];
-const MONTH = "Jan Feb Mar Apr May Jun Jul Aug Sep Oct Nov Dec".split(" ");
-/** "Thu 5 Mar" as the screens write a date (the year only outside this year). */
-function dayText(local: string): string {
-  const d = new Date(`${local.slice(0, 10)}T12:00:00Z`);
-  const year =
-    d.getUTCFullYear() !== new Date().getFullYear()
-      ? ` ${d.getUTCFullYear()}`
-      : "";
-  return `${WEEKDAY[d.getUTCDay()]} ${d.getUTCDate()} ${MONTH[d.getUTCMonth()]}${year}`;
-}
 
 /** The readiness the programme gives a task, in the brief's words (Words table: clear to start / waiting on). */
 function expectedReadiness(p: ProgrammeResponse, taskId: string): string {

@@ -171,6 +171,22 @@ async function ashbyBusy(excludeTask: string) {
   };
 }
 
+/** Rosa signs in on a phone: her page, its console problems, the snug job's section and its coving-template visit. */
+async function rosaOnPhone() {
+  const { page: rosa, problems } = await signInPage(
+    browser,
+    t.url!,
+    demoAccounts.customer.email,
+    { viewport: phone },
+  );
+  const job = rosa.getByRole("region", { name: new RegExp(`^${jobTitle}`) });
+  const visit = job
+    .getByRole("list", { name: "Coming visits" })
+    .getByTestId("visit")
+    .filter({ hasText: "Template coving" });
+  return { rosa, problems, job, visit };
+}
+
 describe("the three used-by scenarios, as the three people", () => {
   let maker: Page;
   let makerProblems: string[];
@@ -398,12 +414,7 @@ describe("the three used-by scenarios, as the three people", () => {
   }, 90_000);
 
   it("3a. the customer sees on her phone when each trade arrives on the snug job", async () => {
-    const { page: rosa, problems } = await signInPage(
-      browser,
-      t.url!,
-      demoAccounts.customer.email,
-      { viewport: phone },
-    );
+    const { rosa, problems, job, visit } = await rosaOnPhone();
     const seen = rosa.waitForResponse(
       (r) =>
         r.url().endsWith(`/jobs/${jobId}/timeline/seen`) &&
@@ -411,11 +422,6 @@ describe("the three used-by scenarios, as the three people", () => {
       { timeout: 15_000 },
     );
     await visible(rosa.getByRole("heading", { name: "Your visits" }));
-    const job = rosa.getByRole("region", { name: new RegExp(`^${jobTitle}`) });
-    const visit = job
-      .getByRole("list", { name: "Coming visits" })
-      .getByTestId("visit")
-      .filter({ hasText: "Template coving" });
     await visible(visit);
     expect(await visit.getByRole("heading").innerText()).toBe(
       `Plasterer — ${plasterer}`,
@@ -565,18 +571,8 @@ describe("the three used-by scenarios, as the three people", () => {
   }, 90_000);
 
   it("3b. on her next look the customer sees the plasterer's visit highlighted, with the day it was", async () => {
-    const { page: rosa, problems } = await signInPage(
-      browser,
-      t.url!,
-      demoAccounts.customer.email,
-      { viewport: phone },
-    );
+    const { rosa, problems, job, visit } = await rosaOnPhone();
     await visible(rosa.getByRole("heading", { name: "Your visits" }));
-    const job = rosa.getByRole("region", { name: new RegExp(`^${jobTitle}`) });
-    const visit = job
-      .getByRole("list", { name: "Coming visits" })
-      .getByTestId("visit")
-      .filter({ hasText: "Template coving" });
     await visible(visit);
     await expect.poll(() => visit.getAttribute("data-changed")).toBe("true");
     expect(await visit.getByText("Changed", { exact: true }).count()).toBe(1);

@@ -11,6 +11,7 @@ import type { ProgrammeResponse } from "../../shared/schemas";
 import { signIn, startTestApp, type TestApp } from "../setup/test-app";
 import {
   demoAccounts,
+  demoJobTitles,
   DEMO_PASSWORD,
   weekdaysFrom,
 } from "../factories/demo-scenario";
@@ -53,6 +54,30 @@ afterAll(async () => {
   await browser?.close();
   await t?.close();
 });
+
+/**
+ * The owner moves the demo alcove job's "Hang doors" to not earlier than `to`, through the
+ * programme's apply (scenario 4); returns the job.
+ */
+async function slipHangDoors(to: string): Promise<Job> {
+  const alcoves = await t.db.ds.manager.findOneByOrFail(Job, {
+    title: demoJobTitles.alcoves,
+  });
+  const owner = await signIn(t, demoAccounts.owner.email);
+  const p = (
+    await owner.agent.get(`/api/jobs/${alcoves.id}/programme`).expect(200)
+  ).body as ProgrammeResponse;
+  const doors = p.tasks.find((x) => x.name === "Hang doors")!;
+  await owner.agent
+    .post(`/api/jobs/${alcoves.id}/programme/apply`)
+    .set("X-CSRF-Token", owner.csrf)
+    .send({
+      version: p.version,
+      changes: [{ taskId: doors.id, notEarlierThan: to }],
+    })
+    .expect(200);
+  return alcoves;
+}
 
 /** The visit card whose heading is `who` and whose work is `task`. */
 const visitCard = (page: Page, who: string, task: string): Locator =>
@@ -202,22 +227,7 @@ describe("the customer's timeline on a phone", () => {
   });
 
   it("after the owner slips Hang doors, the electrician's moved visit shows as changed with its old day", async () => {
-    const alcoves = await t.db.ds.manager.findOneByOrFail(Job, {
-      title: "Alcove cabinets, front room",
-    });
-    const owner = await signIn(t, demoAccounts.owner.email);
-    const p = (
-      await owner.agent.get(`/api/jobs/${alcoves.id}/programme`).expect(200)
-    ).body as ProgrammeResponse;
-    const doors = p.tasks.find((x) => x.name === "Hang doors")!;
-    await owner.agent
-      .post(`/api/jobs/${alcoves.id}/programme/apply`)
-      .set("X-CSRF-Token", owner.csrf)
-      .send({
-        version: p.version,
-        changes: [{ taskId: doors.id, notEarlierThan: day(5) }],
-      })
-      .expect(200);
+    await slipHangDoors(day(5));
 
     await page.reload();
     const secondFix = visitCard(
@@ -368,23 +378,8 @@ describe("the customer's timeline on a phone", () => {
 
 describe("the customer's job page", () => {
   it("is the same plain timeline as her home, and a look there counts as her last look", async () => {
-    const alcoves = await t.db.ds.manager.findOneByOrFail(Job, {
-      title: "Alcove cabinets, front room",
-    });
     // The owner slips Hang doors a day further (scenario 4), after her last look at a desk.
-    const owner = await signIn(t, demoAccounts.owner.email);
-    const p = (
-      await owner.agent.get(`/api/jobs/${alcoves.id}/programme`).expect(200)
-    ).body as ProgrammeResponse;
-    const doors = p.tasks.find((x) => x.name === "Hang doors")!;
-    await owner.agent
-      .post(`/api/jobs/${alcoves.id}/programme/apply`)
-      .set("X-CSRF-Token", owner.csrf)
-      .send({
-        version: p.version,
-        changes: [{ taskId: doors.id, notEarlierThan: day(6) }],
-      })
-      .expect(200);
+    const alcoves = await slipHangDoors(day(6));
 
     // Straight to the job's page (from a link): the sign-in brings her back to it.
     const context = await browser.newContext({ viewport: phone });

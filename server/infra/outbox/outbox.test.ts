@@ -59,6 +59,17 @@ function worker(o: Partial<OutboxWorkerOptions> = {}) {
   return w;
 }
 
+/** A mailer pointed at a loopback port where nothing listens (a fake started, then stopped). */
+async function mailerToNowhere(from = "x@sitecue.example.test") {
+  const down = await startSmtpFake();
+  const port = down.port;
+  await down.close();
+  return {
+    port,
+    transport: createMailer({ host: "127.0.0.1", port, secure: false, from }),
+  };
+}
+
 let serial = 0;
 /** A unique address per message, so each test reads only its own mail at the shared fake. */
 const address = () => `outbox-${Date.now()}-${++serial}@example.test`;
@@ -157,15 +168,9 @@ describe("enqueueMail", () => {
 
 describe("OutboxWorker", () => {
   it("loses nothing while the SMTP server is down, and sends everything exactly once when it is back", async () => {
-    const down = await startSmtpFake();
-    const port = down.port;
-    await down.close();
-    const transport = createMailer({
-      host: "127.0.0.1",
-      port,
-      secure: false,
-      from: "Sitecue <no-reply@sitecue.example.test>",
-    });
+    const { port, transport } = await mailerToNowhere(
+      "Sitecue <no-reply@sitecue.example.test>",
+    );
     const to = [address(), address(), address()];
     const ids = [];
     for (const t of to) ids.push((await queue(t)).messageId);
@@ -203,15 +208,7 @@ describe("OutboxWorker", () => {
   });
 
   it("waits out the backoff before trying again", async () => {
-    const down = await startSmtpFake();
-    const port = down.port;
-    await down.close();
-    const transport = createMailer({
-      host: "127.0.0.1",
-      port,
-      secure: false,
-      from: "x@sitecue.example.test",
-    });
+    const { transport } = await mailerToNowhere();
     try {
       await queue(address());
       const w = worker({ transport, backoff: () => 60_000 });
@@ -230,15 +227,7 @@ describe("OutboxWorker", () => {
   });
 
   it("marks a message failed after maxAttempts and leaves it alone after that", async () => {
-    const down = await startSmtpFake();
-    const port = down.port;
-    await down.close();
-    const transport = createMailer({
-      host: "127.0.0.1",
-      port,
-      secure: false,
-      from: "x@sitecue.example.test",
-    });
+    const { transport } = await mailerToNowhere();
     try {
       await queue(address());
       const w = worker({ transport, maxAttempts: 3 });
@@ -423,15 +412,7 @@ describe("OutboxWorker", () => {
   });
 
   it("a 4xx or a refused connection is still retried, not given up on", async () => {
-    const down = await startSmtpFake();
-    const port = down.port;
-    await down.close();
-    const transport = createMailer({
-      host: "127.0.0.1",
-      port,
-      secure: false,
-      from: "x@sitecue.example.test",
-    });
+    const { transport } = await mailerToNowhere();
     try {
       await queue(address());
       expect(await worker({ transport }).runOnce()).toBe(0);
