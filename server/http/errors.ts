@@ -17,6 +17,8 @@ export type ErrorCode =
   | "file-type-refused"
   | "file-missing"
   | "too-many-files"
+  | "upload-incomplete"
+  | "upload-malformed"
   | "rate-limited"
   | "unprocessable"
   | "internal";

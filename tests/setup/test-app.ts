@@ -134,18 +134,27 @@ export async function startTestApp(
 export interface Session {
   agent: TestAgent;
   csrf: string;
+  /** The session's `Cookie` header value, for requests written by hand on a raw socket. */
+  cookie: string;
 }
 
-/** A fresh anonymous session (it has a CSRF token but nobody signed in). */
-export async function anonymous(t: TestApp): Promise<Session> {
-  const agent = request.agent(t.sitecue.app);
+/** The `name=value` pairs of a response's Set-Cookie headers, as a Cookie header. */
+const cookiesOf = (res: request.Response) =>
+  ([] as string[])
+    .concat(res.headers["set-cookie"] ?? [])
+    .map((c) => c.split(";")[0])
+    .join("; ");
+
+/** A fresh anonymous session (it has a CSRF token but nobody signed in). `t` may be a base URL. */
+export async function anonymous(t: TestApp | string): Promise<Session> {
+  const agent = request.agent(typeof t === "string" ? t : t.sitecue.app);
   const res = await agent.get("/api/auth/session").expect(200);
-  return { agent, csrf: res.body.csrfToken };
+  return { agent, csrf: res.body.csrfToken, cookie: cookiesOf(res) };
 }
 
 /** Signs in through the real route and returns the session. */
 export async function signIn(
-  t: TestApp,
+  t: TestApp | string,
   email: string,
   password = DEMO_PASSWORD,
 ): Promise<Session> {
@@ -158,5 +167,10 @@ export async function signIn(
     throw new Error(
       `Sign-in as ${email} failed: ${res.status} ${JSON.stringify(res.body)}`,
     );
-  return { agent: s.agent, csrf: res.body.csrfToken };
+  // Sign-in renews the session (and so its cookie); keep the old one if it was not re-sent.
+  return {
+    agent: s.agent,
+    csrf: res.body.csrfToken,
+    cookie: cookiesOf(res) || s.cookie,
+  };
 }

@@ -1,3 +1,4 @@
+import zlib from "node:zlib";
 import sharp from "sharp";
 
 // Sample files for upload tests, made here rather than checked in, so each is exactly what the
@@ -97,4 +98,47 @@ export function sampleSvg(): Buffer {
   return Buffer.from(
     '<?xml version="1.0"?>\n<svg xmlns="http://www.w3.org/2000/svg" width="10" height="10"><script>alert(1)</script><rect width="10" height="10"/></svg>\n',
   );
+}
+
+/** A PNG of noise: it barely compresses, so its size is about width × height × 3 bytes (for size-limit tests). */
+export function noisyPng(width = 300, height = 300): Promise<Buffer> {
+  return sharp({
+    create: {
+      width,
+      height,
+      channels: 3,
+      background: "#808080",
+      noise: { type: "gaussian", mean: 128, sigma: 40 },
+    },
+  })
+    .png({ compressionLevel: 0 })
+    .toBuffer();
+}
+
+/**
+ * A tiny PNG whose header claims `width` × `height` pixels (a "decompression bomb" shape): the
+ * signature, an IHDR chunk (8-bit RGB), one IDAT holding a single deflated row, and IEND
+ * (PNG spec, ISO/IEC 15948 §5.3, §11.2.2). Readers see the dimensions long before the data runs out.
+ */
+export function hugeDimensionPng(width = 20_000, height = 20_000): Buffer {
+  const chunk = (type: string, data: Buffer) => {
+    const len = Buffer.alloc(4);
+    len.writeUInt32BE(data.length);
+    const body = Buffer.concat([Buffer.from(type, "latin1"), data]);
+    const crc = Buffer.alloc(4);
+    crc.writeUInt32BE(zlib.crc32(body));
+    return Buffer.concat([len, body, crc]);
+  };
+  const ihdr = Buffer.alloc(13);
+  ihdr.writeUInt32BE(width, 0);
+  ihdr.writeUInt32BE(height, 4);
+  ihdr[8] = 8; // bit depth
+  ihdr[9] = 2; // colour type: truecolour (RGB)
+  const row = Buffer.alloc(1 + width * 3); // filter byte 0, then black pixels
+  return Buffer.concat([
+    Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]),
+    chunk("IHDR", ihdr),
+    chunk("IDAT", zlib.deflateSync(row)),
+    chunk("IEND", Buffer.alloc(0)),
+  ]);
 }

@@ -1,10 +1,11 @@
 import { createHash } from "node:crypto";
 import path from "node:path";
-import { PassThrough, Transform, type Readable } from "node:stream";
+import { finished, PassThrough, Transform, type Readable } from "node:stream";
+import { pipeline } from "node:stream/promises";
 import type { Request, Response } from "express";
 import { fileTypeFromBuffer } from "file-type";
 import multer, { MulterError } from "multer";
-import sharp, { type Metadata } from "sharp";
+import sharp from "sharp";
 import type { DataSource } from "typeorm";
 import type { z } from "zod";
 import { ALLOWED_UPLOAD_LABELS } from "../../../shared/schemas/files";
@@ -24,6 +25,12 @@ export interface FilesDeps {
 /** Bytes read before deciding a file's type (file-type needs up to 4100 for some formats). */
 const SNIFF_BYTES = 4100;
 const THUMBNAIL_SIZE = 480;
+/**
+ * The most pixels Sitecue decodes from one image (sharp's `limitInputPixels`): a decompression
+ * bomb (a few KB claiming 20,000 × 20,000) stops here. 100 megapixels is well beyond any phone
+ * camera or scanned drawing.
+ */
+const MAX_IMAGE_PIXELS = 100_000_000;
 
 /** The sniffed type → what Sitecue stores it as. */
 const ACCEPTED: Record<string, { mimeType: string; extension: string }> = {
@@ -204,12 +211,50 @@ class BucketEngine implements multer.StorageEngine {
   /** The name of the file being received, for multer's own size refusal. */
   current = "The file";
 
-  private async store(file: Express.Multer.File): Promise<Received> {
-    this.current = file.originalname || "The file";
-    const { head, ended } = await peek(file.stream, SNIFF_BYTES);
-    const type = await classify(head, file.originalname || "The file");
+  /** Every object key this request has put in the bucket, so a refusal can remove them all. */
+  readonly keys = new Set<string>();
+  /** The files still being received; a refusal waits for them before cleaning up. */
+  private readonly pending = new Set<Promise<unknown>>();
+  /** Errors this engine refused with (storage failures among them), as opposed to busboy's. */
+  private readonly thrown = new WeakSet<object>();
+
+  /** Resolves once no file of this request is still being received or stored. */
+  async settled(): Promise<void> {
+    while (this.pending.size) await Promise.allSettled([...this.pending]);
+  }
+
+  /** Whether `err` came from this engine rather than from reading the multipart body. */
+  threw(err: unknown): boolean {
+    return typeof err === "object" && err !== null && this.thrown.has(err);
+  }
+
+  private store(file: Express.Multer.File): Promise<Received> {
+    const p = this.receive(file);
+    this.pending.add(p);
+    void p.then(
+      () => this.pending.delete(p),
+      (err: unknown) => {
+        if (typeof err === "object" && err !== null) this.thrown.add(err);
+        this.pending.delete(p);
+      },
+    );
+    return p;
+  }
+
+  private async receive(file: Express.Multer.File): Promise<Received> {
+    const name = file.originalname || "The file";
+    this.current = name;
+    const source = file.stream;
+    const { head, ended } = await peek(source, SNIFF_BYTES).catch((err) => {
+      throw unreadableUpload(err);
+    });
+    const type = await classify(head, name);
     const storageKey = `workshops/${this.workshopId}/${newId()}.${type.extension}`;
+    const image = IMAGE_TYPES.has(type.mimeType);
     const hash = createHash("sha256");
+    // An image is kept whole for sharp (bounded by the size limit); sharp buffers a streamed
+    // input whole anyway, and a buffer input has no stream left to emit an error.
+    const imageChunks: Buffer[] = [];
     let size = 0;
     const maxBytes = this.maxBytes;
     const counter = new Transform({
@@ -220,76 +265,58 @@ class BucketEngine implements multer.StorageEngine {
             new HttpError(413, "file-too-large", tooLarge(file, maxBytes)),
           );
         hash.update(chunk);
+        if (image) imageChunks.push(chunk);
         done(null, chunk);
       },
     });
     const toBucket = new PassThrough();
-    counter.pipe(toBucket);
-    const image = IMAGE_TYPES.has(type.mimeType);
-    const thumb = image
-      ? // "truncated" refuses a cut-off image (an interrupted phone upload) but not the
-        // harmless warnings some cameras' JPEGs raise; the pixel limit stops decompression bombs.
-        sharp({ failOn: "truncated", limitInputPixels: 100_000_000 })
-      : null;
-    if (thumb) counter.pipe(thumb);
+    // stream.pipeline wires both streams' errors: a refusal in the counter destroys the body
+    // lib-storage reads (which aborts its multipart upload), and the other way round.
+    const piped = pipeline(counter, toBucket);
+    this.keys.add(storageKey);
+    const uploaded = this.storage.put(storageKey, toBucket, type.mimeType);
+    // A failed bucket upload stops reading: end the pipeline too, or the request would stall.
+    uploaded.catch((err: Error) => {
+      if (!toBucket.writableFinished) toBucket.destroy(err);
+    });
+    // Its errors reach us through `piped` and `uploaded`; after the pipeline has finished nothing
+    // else listens, and an 'error' with no listener would end the process.
+    toBucket.on("error", () => undefined);
+    // The part's stream belongs to busboy and is never destroyed here (busboy would wait on it
+    // for ever); its failure — the request cut off, a damaged body — stops the pipeline instead.
+    const stopWatching = finished(source, { writable: false }, (err) => {
+      if (err) counter.destroy(unreadableUpload(err));
+    });
     counter.write(head);
     if (ended) counter.end();
-    else file.stream.pipe(counter);
-    const failed = new Promise<never>((_, reject) => {
-      const stop = (err: Error) => {
-        // Ends the bucket upload (lib-storage aborts its multipart upload) and the thumbnail.
-        toBucket.destroy(err);
-        thumb?.destroy(err);
-        reject(err);
-      };
-      counter.once("error", stop);
-      file.stream.once("error", stop);
-    });
-    failed.catch(() => undefined); // handled where it is raced; never unhandled
-
-    const uploaded = this.storage.put(storageKey, toBucket, type.mimeType);
-    const thumbnail = thumb
-      ? Promise.all([
-          thumb.metadata(),
-          thumb
-            .clone()
-            .rotate()
-            .resize(THUMBNAIL_SIZE, THUMBNAIL_SIZE, {
-              fit: "inside",
-              withoutEnlargement: true,
-            })
-            .webp({ quality: 80 })
-            .toBuffer(),
-        ])
-      : null;
-    thumbnail?.catch(() => undefined); // awaited below, after the bucket upload
-    let thumbnailKey: string | null = null;
-    let width: number | null = null;
-    let height: number | null = null;
+    else if (!counter.destroyed) source.pipe(counter);
     try {
-      await Promise.race([uploaded, failed]);
-      if (thumbnail) {
-        let meta: Metadata;
-        let small: Buffer;
-        try {
-          [meta, small] = await Promise.race([thumbnail, failed]);
-        } catch (err) {
-          if (err instanceof HttpError) throw err;
-          throw new HttpError(
-            415,
-            "file-type-refused",
-            `${file.originalname} could not be read as an image; it may be damaged. Sitecue accepts ${ALLOWED_UPLOAD_LABELS}.`,
-          );
-        }
-        width = meta.autoOrient?.width ?? meta.width ?? null;
-        height = meta.autoOrient?.height ?? meta.height ?? null;
-        thumbnailKey = `${storageKey}.thumb.webp`;
-        await this.storage.put(thumbnailKey, bufferStream(small), "image/webp");
-      }
+      await Promise.all([piped, uploaded]);
     } catch (err) {
-      await uploaded.catch(() => undefined);
-      await removeObjects(this.storage, [storageKey, thumbnailKey]);
-      throw err;
+      // Let busboy read on to the end of the request, so the refusal can be answered.
+      source.unpipe(counter);
+      source.resume();
+      await Promise.allSettled([piped, uploaded]);
+      await removeObjects(this.storage, [storageKey]);
+      throw err instanceof HttpError ? err : (counter.errored ?? err);
+    } finally {
+      stopWatching();
+    }
+    let thumbnail: Thumbnail | null = null;
+    const thumbnailKey = image ? `${storageKey}.thumb.webp` : null;
+    if (thumbnailKey) {
+      this.keys.add(thumbnailKey);
+      try {
+        thumbnail = await makeThumbnail(Buffer.concat(imageChunks, size), name);
+        await this.storage.put(
+          thumbnailKey,
+          bufferStream(thumbnail.webp),
+          "image/webp",
+        );
+      } catch (err) {
+        await removeObjects(this.storage, [storageKey, thumbnailKey]);
+        throw err;
+      }
     }
     return {
       storageKey,
@@ -298,11 +325,101 @@ class BucketEngine implements multer.StorageEngine {
       extension: type.extension,
       sizeBytes: size,
       sha256: hash.digest("hex"),
-      width,
-      height,
+      width: thumbnail?.width ?? null,
+      height: thumbnail?.height ?? null,
       cleanName: cleanFileName(file.originalname, type.extension),
     };
   }
+}
+
+interface Thumbnail {
+  webp: Buffer;
+  width: number | null;
+  height: number | null;
+}
+
+const damagedImage = (name: string) =>
+  new HttpError(
+    415,
+    "file-type-refused",
+    `${name} could not be read as an image; it may be damaged. Sitecue accepts ${ALLOWED_UPLOAD_LABELS}.`,
+  );
+
+const thousands = (n: number) => n.toLocaleString("en-GB");
+
+/** Reads an image's size and makes its 480 px WebP thumbnail; refuses one too large in pixels or damaged. */
+async function makeThumbnail(input: Buffer, name: string): Promise<Thumbnail> {
+  // The header alone gives the dimensions, so a decompression bomb is refused, in pixels, before
+  // anything is decoded (sharp's own limit below would only say "exceeds pixel limit").
+  const meta = await sharp(input, { limitInputPixels: false })
+    .metadata()
+    .catch(() => {
+      throw damagedImage(name);
+    });
+  const width = meta.autoOrient?.width ?? meta.width ?? null;
+  const height = meta.autoOrient?.height ?? meta.height ?? null;
+  if (width && height && width * height > MAX_IMAGE_PIXELS) {
+    const side = thousands(Math.floor(Math.sqrt(MAX_IMAGE_PIXELS)));
+    throw new HttpError(
+      413,
+      "file-too-large",
+      `${name} is ${thousands(width)} × ${thousands(height)} pixels; Sitecue takes images of up to ${MAX_IMAGE_PIXELS / 1_000_000} megapixels (for example ${side} × ${side}). Save it smaller and send it again.`,
+    );
+  }
+  // "truncated" refuses a cut-off image (an interrupted phone upload) but not the harmless
+  // warnings some cameras' JPEGs raise.
+  const webp = await sharp(input, {
+    failOn: "truncated",
+    limitInputPixels: MAX_IMAGE_PIXELS,
+  })
+    .rotate()
+    .resize(THUMBNAIL_SIZE, THUMBNAIL_SIZE, {
+      fit: "inside",
+      withoutEnlargement: true,
+    })
+    .webp({ quality: 80 })
+    .toBuffer()
+    .catch(() => {
+      throw damagedImage(name);
+    });
+  return { webp, width, height };
+}
+
+/**
+ * A multipart body busboy could not read, in Sitecue's words: 400, never a 500 (the client sent
+ * it). Busboy's errors carry only a message, so that is what tells them apart.
+ */
+function unreadableUpload(err: unknown): HttpError {
+  if (err instanceof HttpError) return err;
+  const message = (err as Error | undefined)?.message ?? "";
+  if (
+    /^(Unexpected end of (form|file)|Request (aborted|closed))$/.test(
+      message,
+    ) ||
+    (err as { code?: string }).code === "ERR_STREAM_PREMATURE_CLOSE"
+  )
+    return new HttpError(
+      400,
+      "upload-incomplete",
+      "The upload ended before the whole form arrived (the connection may have dropped). Nothing was kept: please send it again.",
+    );
+  if (/boundary/i.test(message))
+    return new HttpError(
+      400,
+      "upload-malformed",
+      "The upload could not be read: its Content-Type names no multipart boundary. Send it as multipart/form-data, as a browser form does.",
+    );
+  if (/part header/i.test(message))
+    return new HttpError(
+      400,
+      "upload-malformed",
+      "The upload could not be read: the headers of one of its parts are malformed (a file name with a line break in it, for example).",
+    );
+  return new HttpError(
+    400,
+    "upload-malformed",
+    "The upload could not be read as multipart/form-data.",
+  );
 }
 
 const bufferStream = (b: Buffer) => {
@@ -322,14 +439,16 @@ async function removeObjects(
     if (key) await storage.delete(key).catch(() => undefined);
 }
 
-/** multer's own refusals, in Sitecue's words. */
+/** multer's and busboy's refusals, in Sitecue's words; the engine's own errors pass through. */
 function uploadError(
   err: unknown,
   engine: BucketEngine,
   maxBytes: number,
   maxFiles: number,
 ): unknown {
-  if (!(err instanceof MulterError)) return err;
+  if (err instanceof HttpError || engine.threw(err)) return err;
+  // Anything else multer passes on comes from reading the body (busboy, the request itself).
+  if (!(err instanceof MulterError)) return unreadableUpload(err);
   switch (err.code) {
     case "LIMIT_FILE_SIZE":
       return new HttpError(
@@ -382,6 +501,8 @@ export async function receiveUploads<F extends z.ZodType>(
   const engine = new BucketEngine(deps.storage, opts.workshopId, deps.maxBytes);
   const upload = multer({
     storage: engine,
+    // RFC 7578 §4.2: a file name is sent as UTF-8 (what browsers do); busboy's default is latin1.
+    defParamCharset: "utf8",
     limits: {
       fileSize: deps.maxBytes,
       files: maxFiles,
@@ -390,21 +511,27 @@ export async function receiveUploads<F extends z.ZodType>(
       parts: maxFiles + 50,
     },
   }).array("file", maxFiles);
-  await new Promise<void>((resolve, reject) =>
-    upload(req, res, (err?: unknown) =>
-      err
-        ? reject(uploadError(err, engine, deps.maxBytes, maxFiles))
-        : resolve(),
-    ),
-  );
+  // Every object put for this request, removed on any refusal. multer answers an aborted request
+  // at once, while a file may still be on its way to the bucket: wait for the engine first.
+  const cleanUp = async () => {
+    await engine.settled();
+    await removeObjects(deps.storage, [...engine.keys]);
+  };
+  try {
+    await new Promise<void>((resolve, reject) =>
+      upload(req, res, (err?: unknown) =>
+        err
+          ? reject(uploadError(err, engine, deps.maxBytes, maxFiles))
+          : resolve(),
+      ),
+    );
+  } catch (err) {
+    await cleanUp();
+    throw err;
+  }
   const received = ((req.files as ReceivedFile[] | undefined) ?? []).filter(
     (f): f is ReceivedFile & Received => !!f.storageKey,
   );
-  const cleanUp = () =>
-    removeObjects(
-      deps.storage,
-      received.flatMap((f) => [f.storageKey, f.thumbnailKey]),
-    );
   try {
     if ((opts.required ?? true) && received.length === 0)
       throw new HttpError(
@@ -437,10 +564,20 @@ export async function receiveUploads<F extends z.ZodType>(
   }
 }
 
-/** RFC 6266 Content-Disposition with an ASCII fallback and the UTF-8 name (RFC 8187). */
+/**
+ * RFC 8187 §3.2.1 ext-value: UTF-8, every byte outside attr-char %-encoded. encodeURIComponent
+ * leaves ' ( ) * unencoded, which are not attr-char (the ' would end the language tag).
+ */
+const extValue = (name: string) =>
+  `UTF-8''${encodeURIComponent(name).replace(
+    /['()*]/g,
+    (c) => `%${c.charCodeAt(0).toString(16).toUpperCase()}`,
+  )}`;
+
+/** RFC 6266 Content-Disposition with an ASCII fallback and the UTF-8 name (RFC 6266 §4.3, RFC 8187). */
 function contentDisposition(kind: "inline" | "attachment", name: string) {
   const ascii = name.replace(/[^\x20-\x7e]/g, "_").replace(/["\\]/g, "_");
-  return `${kind}; filename="${ascii}"; filename*=UTF-8''${encodeURIComponent(name)}`;
+  return `${kind}; filename="${ascii}"; filename*=${extValue(name)}`;
 }
 
 /** Streams a stored file to the response; call it after the permission check. */
