@@ -1,6 +1,12 @@
 import { z } from "zod";
 import { idSchema, partySchema } from "./common";
-import { hazardSchema, lagUnitSchema, linkKindSchema } from "./programme";
+import {
+  hazardSchema,
+  lagSchema,
+  lagUnitSchema,
+  linkKindSchema,
+  refineLag,
+} from "./programme";
 
 export const starterTaskSchema = z.object({
   key: z
@@ -21,15 +27,17 @@ export const starterTaskSchema = z.object({
 });
 export type StarterTask = z.output<typeof starterTaskSchema>;
 
-export const starterLinkSchema = z.object({
-  from: z.string().min(1).max(40),
-  to: z.string().min(1).max(40),
-  kind: linkKindSchema.default("FS"),
-  lag: z.number().min(-60).max(2000).default(0),
-  lagUnit: lagUnitSchema.default("workingDays"),
-  /** Why this lag: a trade default, marked "common practice" where it is one. */
-  note: z.string().max(300).default(""),
-});
+export const starterLinkSchema = z
+  .object({
+    from: z.string().min(1).max(40),
+    to: z.string().min(1).max(40),
+    kind: linkKindSchema.default("FS"),
+    lag: lagSchema.default(0),
+    lagUnit: lagUnitSchema.default("workingDays"),
+    /** Why this lag: a trade default, marked "common practice" where it is one. */
+    note: z.string().max(300).default(""),
+  })
+  .superRefine(refineLag);
 export type StarterLink = z.output<typeof starterLinkSchema>;
 
 export const starterBodySchema = z

@@ -136,8 +136,9 @@ export function BookingAnswerBanner({ page }: { page: LinkPageResponse }) {
       <>
         <p className="font-semibold">This booking was cancelled</p>
         <p className="text-sm">
-          {page.workshopName} has cancelled it. Nothing more to do; it has left
-          your calendar too.
+          {page.workshopName} cancelled it
+          {page.cancelledOn ? ` on ${dayWords(page.cancelledOn)}` : ""}. There
+          is nothing to confirm; it has left your calendar too.
         </p>
       </>,
     );
