@@ -58,7 +58,8 @@ export function refineLag(
 ): void {
   if (l.lag === undefined || l.lagUnit === undefined) return;
   const problem = lagProblem(l.lag, l.lagUnit);
-  if (problem) ctx.addIssue({ code: "custom", path: ["lag"], message: problem });
+  if (problem)
+    ctx.addIssue({ code: "custom", path: ["lag"], message: problem });
 }
 
 export const versionSchema = z

@@ -57,7 +57,10 @@ async function resolve(
 }
 
 /** The day (local to the job, YYYY-MM-DD) the booking was cancelled, from its history; null if unknown. */
-async function cancelledOn(m: EntityManager, l: Loaded): Promise<string | null> {
+async function cancelledOn(
+  m: EntityManager,
+  l: Loaded,
+): Promise<string | null> {
   if (l.booking.state !== "cancelled") return null;
   const event = await m.findOne(BookingEvent, {
     where: { bookingId: l.booking.id, toState: "cancelled" },

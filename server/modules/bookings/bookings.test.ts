@@ -277,14 +277,7 @@ describe("scenario 2: a trade confirms by link", () => {
     })
       .format(new Date())
       .replace(",", "");
-    const page = (await anon.get(`/api/booking-links/${token}`).expect(200))
-      .body;
-    expect(page).toMatchObject({
-      status: "cancelled",
-      state: "cancelled",
-      cancelledOn: parts,
-      canAnswer: false,
-    });
+    // The trade presses Confirm on the page they opened before the cancel.
     const answer = await anon
       .post(`/api/booking-links/${token}/answer`)
       .set("X-CSRF-Token", csrf)
@@ -294,6 +287,15 @@ describe("scenario 2: a trade confirms by link", () => {
       `Hollin & Vane Joinery cancelled this booking on ${today}, so there is nothing to confirm.`,
     );
     expect(answer.body.error.message).not.toMatch(/dates/);
+    // The page (re-read after a 409) says who cancelled it and when, and offers no answer.
+    const page = (await anon.get(`/api/booking-links/${token}`).expect(200))
+      .body;
+    expect(page).toMatchObject({
+      status: "cancelled",
+      state: "cancelled",
+      cancelledOn: parts,
+      canAnswer: false,
+    });
     expect(
       (await t.db.ds.manager.findOneByOrFail(Booking, { id: booking.id }))
         .state,
