@@ -13,7 +13,8 @@ export const hazardSchema = z.enum(["electrical", "height", "tall-unit"]);
 export const linkKindSchema = z.enum(["FS", "SS", "FF"]);
 export const lagUnitSchema = z.enum(["workingDays", "elapsedHours"]);
 
-const durationSchema = z
+/** A task's length in working days, in half days (one slot); tasks and starters share it. */
+export const durationSchema = z
   .number({ message: "Enter the duration in working days" })
   .min(0, "A duration cannot be negative")
   .max(250, "Keep a task under 250 working days")

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { idSchema, partySchema } from "./common";
 import {
+  durationSchema,
   hazardSchema,
   lagSchema,
   lagUnitSchema,
@@ -17,11 +18,7 @@ export const starterTaskSchema = z.object({
     .regex(/^[a-z0-9-]+$/, "Use lower-case letters, digits and -"),
   name: z.string().trim().min(1, "Give the task a name").max(160),
   party: partySchema,
-  durationDays: z
-    .number()
-    .min(0)
-    .max(250)
-    .refine((d) => Number.isInteger(d * 2), "Use whole or half days"),
+  durationDays: durationSchema,
   hazards: z.array(hazardSchema).max(3).default([]),
   customerNote: z.string().max(1000).default(""),
 });
