@@ -12,6 +12,7 @@ export type ErrorCode =
   | "token-invalid"
   | "version-conflict"
   | "conflict"
+  | "gone"
   | "too-large"
   | "file-too-large"
   | "file-type-refused"

@@ -294,7 +294,8 @@ export function prepare(input: ProgrammeInput): Prepared {
       continue;
     }
     if (f === to) {
-      problems.push(`${where}: a task cannot wait for itself`);
+      // Named as the person knows the task (its name; the id when it has none).
+      problems.push(`${names[f]} cannot wait for itself`);
       continue;
     }
     eFrom[e] = f;
@@ -377,6 +378,7 @@ export function prepare(input: ProgrammeInput): Prepared {
     outStart,
     outEdges,
     ids,
+    names,
   );
 
   return {
@@ -450,7 +452,7 @@ function slotInstant(
   return t;
 }
 
-/** Kahn's algorithm; a loop is reported with the tasks in it, in link order. */
+/** Kahn's algorithm; a loop is reported with the tasks in it (by name), in link order. */
 function topologicalOrder(
   n: number,
   m: number,
@@ -461,6 +463,7 @@ function topologicalOrder(
   outStart: Int32Array,
   outEdges: Int32Array,
   ids: string[],
+  names: string[],
 ): Int32Array {
   const indeg = new Int32Array(n);
   for (let e = 0; e < m; e++) indeg[eTo[e]]++;
@@ -506,8 +509,9 @@ function topologicalOrder(
       if (ids[loop[k]] < ids[loop[first]]) first = k;
     loop = [...loop.slice(first), ...loop.slice(0, first)];
     for (const t of loop) reported[t] = 1;
+    // Tasks by name (the id when unnamed): the message reaches people, who never see ids.
     problems.push(
-      `Links form a loop: ${[...loop, loop[0]].map((t) => ids[t]).join(" → ")}`,
+      `Links form a loop: ${[...loop, loop[0]].map((t) => names[t]).join(" → ")}`,
     );
   }
   throw new ProgrammeInputError(problems);

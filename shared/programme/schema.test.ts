@@ -60,12 +60,23 @@ describe("parseProgrammeInput", () => {
     });
   });
 
-  it("rejects a loop, naming its tasks", () => {
+  it("rejects a loop, naming its tasks by name", () => {
     const input = example();
     input.links.push({ from: "template", to: "fix" });
     expect(parseProgrammeInput(input)).toEqual({
       ok: false,
-      problems: ["Links form a loop: fix → template → fix"],
+      problems: [
+        "Links form a loop: Fix carcasses & scribes → Template coving → Fix carcasses & scribes",
+      ],
+    });
+  });
+
+  it("rejects a task that waits for itself, by name", () => {
+    const input = example();
+    input.links.push({ from: "template", to: "template" });
+    expect(parseProgrammeInput(input)).toEqual({
+      ok: false,
+      problems: ["Template coving cannot wait for itself"],
     });
   });
 

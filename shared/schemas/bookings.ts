@@ -165,6 +165,8 @@ export const bookingCheckSchema = z.object({
 /** What the trade sees on the confirmation-link page (no account needed). */
 export const linkPageResponseSchema = z.object({
   status: z.enum(["current", "dates-changed", "cancelled"]),
+  /** The day the workshop cancelled it (YYYY-MM-DD, local to the job), when cancelled. */
+  cancelledOn: z.string().nullable(),
   workshopName: z.string(),
   tradeBusinessName: z.string(),
   taskName: z.string(),

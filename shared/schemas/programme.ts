@@ -13,7 +13,8 @@ export const hazardSchema = z.enum(["electrical", "height", "tall-unit"]);
 export const linkKindSchema = z.enum(["FS", "SS", "FF"]);
 export const lagUnitSchema = z.enum(["workingDays", "elapsedHours"]);
 
-const durationSchema = z
+/** A task's length in working days, in half days (one slot); tasks and starters share it. */
+export const durationSchema = z
   .number({ message: "Enter the duration in working days" })
   .min(0, "A duration cannot be negative")
   .max(250, "Keep a task under 250 working days")
@@ -22,7 +23,45 @@ const durationSchema = z
     "Use whole or half days (0.5 is one morning or afternoon)",
   );
 
-const lagSchema = z.number({ message: "Enter the lag" }).min(-60).max(2000);
+/**
+ * How far a link's lag may go either way, per unit (issue 13): 60 working days is a season's
+ * wait, 720 hours (30 days) more drying or curing than any finish needs. The form, the link
+ * routes and the starters all check lags with `lagProblem`, so the limit lives here only.
+ */
+export const LAG_LIMITS = {
+  workingDays: { max: 60, words: "60 working days" },
+  elapsedHours: { max: 720, words: "720 hours (30 days)" },
+} as const satisfies Record<z.infer<typeof lagUnitSchema>, unknown>;
+
+/** What is wrong with a lag in its unit (out of range, not a half day), or null when it is fine. */
+export function lagProblem(
+  lag: number,
+  unit: z.infer<typeof lagUnitSchema>,
+): string | null {
+  if (Math.abs(lag) > LAG_LIMITS[unit].max)
+    return `Keep the lag within ${LAG_LIMITS[unit].words} either way`;
+  if (unit === "workingDays" && !Number.isInteger(lag * 2))
+    return "Working-day lags go in whole or half days";
+  return null;
+}
+
+// The type message only: a schema-wide message would also replace the range checks' (zod 4),
+// which is how a lag of 10^9 came to say "Enter the lag".
+/** A lag as a number; its range and steps depend on the unit (`refineLag`). */
+export const lagSchema = z.number({
+  error: (iss) => (iss.code === "invalid_type" ? "Enter the lag" : undefined),
+});
+
+/** Adds `lagProblem`'s message on `lag` when both the lag and its unit are known. */
+export function refineLag(
+  l: { lag?: number; lagUnit?: z.infer<typeof lagUnitSchema> },
+  ctx: z.RefinementCtx,
+): void {
+  if (l.lag === undefined || l.lagUnit === undefined) return;
+  const problem = lagProblem(l.lag, l.lagUnit);
+  if (problem)
+    ctx.addIssue({ code: "custom", path: ["lag"], message: problem });
+}
 
 export const versionSchema = z
   .number({ message: "The programme version is missing" })
@@ -71,10 +110,7 @@ export const createLinkBodySchema = linkFieldsSchema
     message: "A task cannot wait for itself",
     path: ["fromTaskId"],
   })
-  .refine((l) => l.lagUnit !== "workingDays" || Number.isInteger(l.lag * 2), {
-    message: "Working-day lags go in whole or half days",
-    path: ["lag"],
-  });
+  .superRefine(refineLag);
 export type CreateLinkBody = z.input<typeof createLinkBodySchema>;
 
 export const updateLinkBodySchema = z
@@ -84,16 +120,8 @@ export const updateLinkBodySchema = z
     lag: lagSchema.optional(),
     lagUnit: lagUnitSchema.optional(),
   })
-  .refine(
-    (l) =>
-      l.lag === undefined ||
-      l.lagUnit !== "workingDays" ||
-      Number.isInteger(l.lag * 2),
-    {
-      message: "Working-day lags go in whole or half days",
-      path: ["lag"],
-    },
-  );
+  // Without a unit the lag is checked against the link's stored unit (programme service).
+  .superRefine(refineLag);
 
 export const progressBodySchema = z
   .object({

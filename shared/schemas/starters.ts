@@ -1,6 +1,13 @@
 import { z } from "zod";
 import { idSchema, partySchema } from "./common";
-import { hazardSchema, lagUnitSchema, linkKindSchema } from "./programme";
+import {
+  durationSchema,
+  hazardSchema,
+  lagSchema,
+  lagUnitSchema,
+  linkKindSchema,
+  refineLag,
+} from "./programme";
 
 export const starterTaskSchema = z.object({
   key: z
@@ -11,25 +18,23 @@ export const starterTaskSchema = z.object({
     .regex(/^[a-z0-9-]+$/, "Use lower-case letters, digits and -"),
   name: z.string().trim().min(1, "Give the task a name").max(160),
   party: partySchema,
-  durationDays: z
-    .number()
-    .min(0)
-    .max(250)
-    .refine((d) => Number.isInteger(d * 2), "Use whole or half days"),
+  durationDays: durationSchema,
   hazards: z.array(hazardSchema).max(3).default([]),
   customerNote: z.string().max(1000).default(""),
 });
 export type StarterTask = z.output<typeof starterTaskSchema>;
 
-export const starterLinkSchema = z.object({
-  from: z.string().min(1).max(40),
-  to: z.string().min(1).max(40),
-  kind: linkKindSchema.default("FS"),
-  lag: z.number().min(-60).max(2000).default(0),
-  lagUnit: lagUnitSchema.default("workingDays"),
-  /** Why this lag: a trade default, marked "common practice" where it is one. */
-  note: z.string().max(300).default(""),
-});
+export const starterLinkSchema = z
+  .object({
+    from: z.string().min(1).max(40),
+    to: z.string().min(1).max(40),
+    kind: linkKindSchema.default("FS"),
+    lag: lagSchema.default(0),
+    lagUnit: lagUnitSchema.default("workingDays"),
+    /** Why this lag: a trade default, marked "common practice" where it is one. */
+    note: z.string().max(300).default(""),
+  })
+  .superRefine(refineLag);
 export type StarterLink = z.output<typeof starterLinkSchema>;
 
 export const starterBodySchema = z

@@ -285,6 +285,59 @@ describe("booking a trade and their answer by link", () => {
     expect(problems.filter((p) => !p.includes("409"))).toEqual([]);
   }, 60_000);
 
+  it("a link used after the workshop cancelled the booking says so, with the day, and offers nothing to confirm", async () => {
+    // The plasterer has the page open (confirmed earlier) when the owner cancels.
+    const context = await browser.newContext({ viewport: phone });
+    const trade = await context.newPage();
+    const tradeProblems = watchConsole(trade);
+    await trade.goto(link);
+    await visible(trade.getByRole("button", { name: "Can't make it" }));
+
+    await page.goto(`${t.url}/jobs/${jobId}`);
+    const item = page
+      .getByRole("list", { name: "Bookings" })
+      .getByRole("listitem", { name: `${plasterer}, Template coving` });
+    await item.getByRole("button", { name: "Cancel booking" }).click();
+    const form = item.getByRole("form", {
+      name: `Cancel the booking of ${plasterer}`,
+    });
+    await form.getByLabel("Why is it cancelled").fill("Customer postponed");
+    await form.getByRole("button", { name: "Cancel the booking" }).click();
+    await visible(page.getByText(`The booking of ${plasterer} is cancelled.`));
+
+    await trade.getByRole("button", { name: "Can't make it" }).click();
+    await trade.getByLabel("Why can't you make it?").fill("Away that week");
+    await trade.getByRole("button", { name: "Send: I can't make it" }).click();
+    // Today where the job is, as the screens write it.
+    const today = new Intl.DateTimeFormat("en-CA", {
+      timeZone: "Europe/London",
+    }).format(new Date());
+    const banner = trade.getByRole("status").filter({
+      hasText: "This booking was cancelled",
+    });
+    await visible(banner);
+    await visible(
+      banner.getByText(
+        `Hollin & Vane Joinery cancelled it on ${dayText(today)}. There is nothing to confirm`,
+        { exact: false },
+      ),
+    );
+    expect(await trade.getByText(/dates of this booking/).count()).toBe(0);
+    expect(await trade.getByText(/once you\s+confirm/).count()).toBe(0);
+    for (const name of ["Can't make it", "Propose another start"])
+      expect(await trade.getByRole("button", { name }).count()).toBe(0);
+    await shot(trade, "booking-link-cancelled-phone");
+    await trade.reload();
+    await visible(banner);
+    expect(await trade.getByRole("button", { name: /^Confirm/ }).count()).toBe(
+      0,
+    );
+    expect(await axeSeriousOrWorse(trade)).toEqual([]);
+    // The 409 itself is logged by the browser as a failed request; nothing else may be.
+    expect(tradeProblems.filter((p) => !p.includes("409"))).toEqual([]);
+    await context.close();
+  }, 60_000);
+
   it("an invalid link says so plainly", async () => {
     const context = await browser.newContext({ viewport: phone });
     const p = await context.newPage();

@@ -9,7 +9,9 @@ import { HttpError } from "../../http/errors";
 import { loadProgramme } from "../programme/programme-input";
 import { cautionFor } from "../programme/cautions";
 import { schedule } from "../programme/programme.service";
+import { localToday } from "../jobs/jobs.presenter";
 import { hashLinkToken } from "./booking-links";
+import { dayWords } from "./booking-notices";
 import { Booking, BookingEvent } from "./bookings.entity";
 import {
   applyAnswer,
@@ -52,6 +54,31 @@ async function resolve(
   )
     throw invalid();
   return { l: await loadBooking(m, booking.id), current };
+}
+
+/** The day (local to the job, YYYY-MM-DD) the booking was cancelled, from its history; null if unknown. */
+async function cancelledOn(
+  m: EntityManager,
+  l: Loaded,
+): Promise<string | null> {
+  if (l.booking.state !== "cancelled") return null;
+  const event = await m.findOne(BookingEvent, {
+    where: { bookingId: l.booking.id, toState: "cancelled" },
+    order: { createdAt: "DESC" },
+  });
+  return event ? localToday(l.job.timeZone, event.createdAt) : null;
+}
+
+/**
+ * The answer to a trade who tries to answer a cancelled booking by link: it was the workshop that
+ * cancelled it, and there is nothing to confirm (issue 13: it used to say the dates had changed).
+ */
+function cancelledError(l: Loaded, on: string | null): HttpError {
+  return new HttpError(
+    409,
+    "conflict",
+    `${l.workshop.name} cancelled this booking${on ? ` on ${dayWords(on)}` : ""}, so there is nothing to confirm.`,
+  );
 }
 
 /** Everything the trade's confirmation page shows, scoped to that one booking. */
@@ -121,6 +148,7 @@ export async function bookingPage(
   const cancelled = b.state === "cancelled";
   return {
     status: cancelled ? "cancelled" : current ? "current" : "dates-changed",
+    cancelledOn: await cancelledOn(m, l),
     workshopName: l.workshop.name,
     tradeBusinessName: l.trade.businessName,
     taskName: l.task.name,
@@ -158,6 +186,9 @@ export async function answerByLink(
 ): Promise<LinkPageResponse> {
   await deps.ds.transaction(async (m) => {
     const { l, current } = await resolve(m, token);
+    // Cancelled first: a cancelled booking's link is never current, and "the dates changed" is untrue.
+    if (l.booking.state === "cancelled")
+      throw cancelledError(l, await cancelledOn(m, l));
     if (!current)
       throw new HttpError(
         409,

@@ -22,6 +22,7 @@ import { authorize, requireActor, type Actor } from "../../policies";
 import { audit } from "../audit/audit.service";
 import { Job } from "../jobs/jobs.entity";
 import { jobResource } from "../jobs/job-access";
+import { localToday } from "../jobs/jobs.presenter";
 import {
   loadProgramme,
   PINNING_STATES,
@@ -1004,6 +1005,14 @@ export async function copyLink(
       409,
       "conflict",
       "This booking is cancelled; its link no longer works.",
+    );
+  // The visit's days are over: a link would only open "expired" (its expiry is a week after the
+  // last day), and there is nothing left to confirm. 410: that link is gone for good (RFC 9110 §15.5.11).
+  if (l.booking.finish.slice(0, 10) < localToday(l.job.timeZone))
+    throw new HttpError(
+      410,
+      "gone",
+      `This visit is over: it ended on ${dayWords(l.booking.finish)}, so there is nothing to confirm and no link to send.`,
     );
   const url = await deps.ds.transaction((m) => ensureLink(m, deps, l.booking));
   return { url };

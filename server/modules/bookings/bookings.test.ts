@@ -252,6 +252,78 @@ describe("scenario 2: a trade confirms by link", () => {
     expect(res.body.error.message).toMatch(/not valid or has expired/);
   });
 
+  it("a link used after the booking was cancelled says the workshop cancelled it, and on which day; nothing to confirm", async () => {
+    const { booking, token } = await sentBooking("Booking: cancelled link");
+    const anon = request.agent(t.sitecue.app);
+    const csrf = (await anon.get("/api/auth/session")).body.csrfToken;
+    await owner.agent
+      .post(`/api/bookings/${booking.id}/cancel`)
+      .set("X-CSRF-Token", owner.csrf)
+      .send({ reason: "Customer postponed" })
+      .expect(200);
+    const job = await t.db.ds.manager.findOneByOrFail(Job, {
+      id: booking.jobId,
+    });
+    // Today in the job's zone, as "Thu 5 Mar 2026" (Intl, independent of the server's words).
+    const parts = new Intl.DateTimeFormat("en-CA", {
+      timeZone: job.timeZone,
+    }).format(new Date());
+    const today = new Intl.DateTimeFormat("en-GB", {
+      weekday: "short",
+      day: "numeric",
+      month: "short",
+      year: "numeric",
+      timeZone: job.timeZone,
+    })
+      .format(new Date())
+      .replace(",", "");
+    // The trade presses Confirm on the page they opened before the cancel.
+    const answer = await anon
+      .post(`/api/booking-links/${token}/answer`)
+      .set("X-CSRF-Token", csrf)
+      .send({ answer: "confirm" });
+    expect(answer.status).toBe(409);
+    expect(answer.body.error.message).toBe(
+      `Hollin & Vane Joinery cancelled this booking on ${today}, so there is nothing to confirm.`,
+    );
+    expect(answer.body.error.message).not.toMatch(/dates/);
+    // The page (re-read after a 409) says who cancelled it and when, and offers no answer.
+    const page = (await anon.get(`/api/booking-links/${token}`).expect(200))
+      .body;
+    expect(page).toMatchObject({
+      status: "cancelled",
+      state: "cancelled",
+      cancelledOn: parts,
+      canAnswer: false,
+    });
+    expect(
+      (await t.db.ds.manager.findOneByOrFail(Booking, { id: booking.id }))
+        .state,
+    ).toBe("cancelled");
+  });
+
+  it("copy link on a visit whose days are over says the visit is over (410), not an expired link", async () => {
+    const { booking } = await sentBooking("Booking: visit over");
+    // The visit's days go by: Mon 6 Jan 2025, its link expiring a week later (linkExpiry).
+    await t.db.ds.manager.update(
+      Booking,
+      { id: booking.id },
+      {
+        start: "2025-01-06T08:00",
+        finish: "2025-01-06T16:30",
+        linkForStart: "2025-01-06T08:00",
+        linkExpiresAt: new Date("2025-01-13T23:59:59Z"),
+      },
+    );
+    const res = await owner.agent.get(`/api/bookings/${booking.id}/link`);
+    expect(res.status).toBe(410);
+    expect(res.body.error).toEqual({
+      code: "gone",
+      message:
+        "This visit is over: it ended on Mon 6 Jan 2025, so there is nothing to confirm and no link to send.",
+    });
+  });
+
   it("a proposal the maker accepts moves the booking, confirmed, with an updated invitation (SEQUENCE up)", async () => {
     const { jobId, booking, token } = await sentBooking("Booking: proposal");
     const anon = request.agent(t.sitecue.app);

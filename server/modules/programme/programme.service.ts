@@ -8,15 +8,16 @@ import {
   type ProgrammeInput,
   type ProgrammeResult,
 } from "../../../shared/programme";
-import type {
-  ProgrammeChange,
-  ProgrammeResponse,
-  createLinkBodySchema,
-  createTaskBodySchema,
-  progressBodySchema,
-  reorderBodySchema,
-  updateLinkBodySchema,
-  updateTaskBodySchema,
+import {
+  lagProblem,
+  type ProgrammeChange,
+  type ProgrammeResponse,
+  type createLinkBodySchema,
+  type createTaskBodySchema,
+  type progressBodySchema,
+  type reorderBodySchema,
+  type updateLinkBodySchema,
+  type updateTaskBodySchema,
 } from "../../../shared/schemas";
 import { newId } from "../../db/columns";
 import { HttpError, notFound } from "../../http/errors";
@@ -391,14 +392,12 @@ export async function updateLink(
       if (!link) throw notFound("That link");
       const lagUnit = fields.lagUnit ?? link.lagUnit;
       const lag = fields.lag ?? Number(link.lag);
-      if (lagUnit === "workingDays" && !Number.isInteger(lag * 2)) {
-        throw new HttpError(
-          400,
-          "validation",
-          "Working-day lags go in whole or half days.",
-          { lag: ["Working-day lags go in whole or half days"] },
-        );
-      }
+      // The same rule as the schema's, against the stored unit when only the lag is sent.
+      const problem = lagProblem(lag, lagUnit);
+      if (problem)
+        throw new HttpError(400, "validation", `${problem}.`, {
+          lag: [problem],
+        });
       await m.update(
         TaskLink,
         { id: link.id },

@@ -199,7 +199,11 @@ describe("editing a programme", () => {
       });
     expect(loop.status).toBe(422);
     expect(loop.body.error.message).toMatch(/loop/i);
-    expect(loop.body.error.message).toContain(taskId(p, "Survey & measure"));
+    // By name, never by id (issue 13).
+    expect(loop.body.error.message).toContain("Survey & measure");
+    expect(loop.body.error.message).not.toContain(
+      taskId(p, "Survey & measure"),
+    );
     // Nothing was saved: the version is unchanged and the link is not there.
     const after = await programme(jobId);
     expect(after.version).toBe(p.version);

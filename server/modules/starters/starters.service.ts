@@ -2,7 +2,9 @@ import { In, Not, type DataSource, type EntityManager } from "typeorm";
 import type { z } from "zod";
 import { firstFreeStart, type BusyInput } from "../../../shared/programme";
 import type {
+  StarterLink,
   StarterResponse,
+  StarterTask,
   starterBodySchema,
 } from "../../../shared/schemas";
 import { newId } from "../../db/columns";
@@ -50,6 +52,34 @@ export async function listStarters(
   ).map(present);
 }
 
+/**
+ * Checks a starter with the programme engine, as every live programme edit is checked: its tasks
+ * (by key, with their names), its links as written, on the default calendar from today. What the
+ * engine refuses — a loop, a task waiting for itself — is the programme's 422, naming the tasks,
+ * so no job made from the starter can be born unschedulable (issue 13).
+ */
+export function checkStarter(s: {
+  tasks: StarterTask[];
+  links: StarterLink[];
+}): void {
+  schedule({
+    dataDate: new Date().toISOString().slice(0, 10),
+    tasks: s.tasks.map((t) => ({
+      id: t.key,
+      name: t.name,
+      durationDays: t.durationDays,
+    })),
+    links: s.links.map((l) => ({
+      from: l.from,
+      to: l.to,
+      kind: l.kind,
+      lag: l.lag,
+      lagUnit: l.lagUnit,
+    })),
+  });
+}
+
+/** Replaces a starter's content after the engine's check; nothing is saved when it refuses. */
 export async function replaceStarter(
   ds: DataSource,
   actor: Actor | null,
@@ -62,6 +92,7 @@ export async function replaceStarter(
     .getRepository(ProgrammeStarter)
     .findOneBy({ id: starterId, workshopId });
   if (!starter) throw notFound("That starting programme");
+  checkStarter(body);
   await ds.transaction(async (m) => {
     await m.update(ProgrammeStarter, { id: starterId }, body);
     await audit(m, {
@@ -101,6 +132,9 @@ export async function applyStarter(
       "That starting programme is not one of this workshop's.",
       { starterId: ["Choose one of the workshop's starting programmes"] },
     );
+  // A starter saved before the engine checked starters may hold a loop: refuse it here (422,
+  // the transaction rolls the job back) rather than make a job whose programme never loads.
+  checkStarter(starter);
   const ids = new Map(starter.tasks.map((t) => [t.key, newId()]));
   for (const [i, t] of starter.tasks.entries()) {
     await m.insert(Task, {

@@ -136,8 +136,9 @@ export function BookingAnswerBanner({ page }: { page: LinkPageResponse }) {
       <>
         <p className="font-semibold">This booking was cancelled</p>
         <p className="text-sm">
-          {page.workshopName} has cancelled it. Nothing more to do; it has left
-          your calendar too.
+          {page.workshopName} cancelled it
+          {page.cancelledOn ? ` on ${dayWords(page.cancelledOn)}` : ""}. There
+          is nothing to confirm; it has left your calendar too.
         </p>
       </>,
     );
@@ -441,6 +442,8 @@ export function BookingLinkPage({
 
 /** The booking's facts as the trade sees them: when, where, access, what it waits for, the start window, the caution. */
 export function BookingFacts({ page: p }: { page: LinkPageResponse }) {
+  // A cancelled booking offers nothing to confirm: no "once you confirm", no start window.
+  const cancelled = p.status === "cancelled";
   return (
     <>
       <Card className="p-4">
@@ -462,7 +465,7 @@ export function BookingFacts({ page: p }: { page: LinkPageResponse }) {
               <span className="mt-1 block font-medium whitespace-pre-line">
                 {p.siteAddress}
               </span>
-            ) : (
+            ) : cancelled ? null : (
               <span className="mt-1 block text-sm text-ink-soft">
                 The full address and access notes are shown once you confirm.
               </span>
@@ -476,9 +479,11 @@ export function BookingFacts({ page: p }: { page: LinkPageResponse }) {
           <Row label="It waits for">
             <WaitsOn page={p} />
           </Row>
-          <Row label={`Start dates that keep ${keptWords(p.handoverDate)}`}>
-            <StartWindow page={p} />
-          </Row>
+          {cancelled ? null : (
+            <Row label={`Start dates that keep ${keptWords(p.handoverDate)}`}>
+              <StartWindow page={p} />
+            </Row>
+          )}
           {p.customerNote ? (
             <Row label="On site">
               <span className="whitespace-pre-line">{p.customerNote}</span>
