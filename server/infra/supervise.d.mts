@@ -21,6 +21,7 @@ export interface SuperviseAppOptions {
   log?: (message: string) => void;
   stdio?: StdioOptions;
   onSpawn?: (child: ChildProcess) => void;
+  execArgv?: string[];
   firstDelayMs?: number;
   maxDelayMs?: number;
   steadyMs?: number;

@@ -56,7 +56,8 @@ function signalChild(child, signal) {
  * it again in 2 s". Before every start the port is checked again (the next free one from
  * `preferredPort`), and an exit with PORT_TAKEN_EXIT_CODE moves straight on to the next free port,
  * so APP_URL and the "ready at" line always carry the port the app really listens on.
- * `env(port)` gives the child's environment for a start on `port`. `stop()` ends it for good.
+ * `env(port)` gives the child's environment for a start on `port`; `execArgv` adds Node options
+ * (e.g. `--inspect`). `stop()` ends it for good.
  */
 export function superviseApp(opts) {
   const {
@@ -66,6 +67,7 @@ export function superviseApp(opts) {
     log = (msg) => console.log(`[sitecue] ${msg}`),
     stdio = "inherit",
     onSpawn = () => {},
+    execArgv = [],
     firstDelayMs = 1000,
     maxDelayMs = 30000,
     steadyMs = 60000,
@@ -83,13 +85,17 @@ export function superviseApp(opts) {
     if (!(await portFree(port))) port = await freePort(port + 1);
     const childEnv = await env(port);
     if (stopping) return null;
-    const c = spawn(process.execPath, ["--import", "tsx", "server/main.ts"], {
-      cwd: root,
-      env: { ...childEnv, PORT: String(port) },
-      stdio,
-      // Its own process group: Ctrl-C reaches the bootstrap, which stops the app in order.
-      detached: true,
-    });
+    const c = spawn(
+      process.execPath,
+      ["--import", "tsx", ...execArgv, "server/main.ts"],
+      {
+        cwd: root,
+        env: { ...childEnv, PORT: String(port) },
+        stdio,
+        // Its own process group: Ctrl-C reaches the bootstrap, which stops the app in order.
+        detached: true,
+      },
+    );
     child = c;
     onSpawn(c);
     return c;
