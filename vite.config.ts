@@ -14,6 +14,8 @@ export default defineConfig({
   build: {
     outDir: "dist/client",
     emptyOutDir: true,
-    sourcemap: true,
+    // No source maps in the build: production would serve the whole client source to anyone
+    // (issue 13; OWASP WSTG-INFO-05, "Review Webpage Content for Information Leakage").
+    sourcemap: false,
   },
 });

@@ -7,6 +7,7 @@ import { Passport } from "passport";
 import { Strategy as LocalStrategy } from "passport-local";
 import type { DataSource } from "typeorm";
 import type { DbSettings } from "./db/data-source";
+import { DatabaseWatch } from "./db/database-watch";
 import { csrfProtection } from "./http/csrf";
 import { errorHandler, notFoundRoute } from "./http/errors";
 import { openApiDocument } from "./http/openapi";
@@ -68,6 +69,8 @@ export interface AppDeps {
   threadNoticeDelayMs?: number;
   trustProxy?: boolean;
   version?: string;
+  /** Whether the database answers; made here when not given (main.ts shares one with its pollers). */
+  database?: DatabaseWatch;
 }
 
 export interface SitecueApp {
@@ -79,8 +82,16 @@ export interface SitecueApp {
   sendReminders(now?: Date): Promise<number>;
   /** Sends the thread notice e-mails that are due (one per person per job, batched). */
   sendThreadNotices(now?: Date): Promise<number>;
+  /** Whether the database answers; an outage is logged once, not per request. */
+  database: DatabaseWatch;
   close(): Promise<void>;
 }
+
+/** `Cache-Control: no-store` unless a later handler sets its own. */
+const noStore: express.RequestHandler = (_req, res, next) => {
+  res.setHeader("Cache-Control", "no-store");
+  next();
+};
 
 /** The Express app without listening (tests use it with supertest). Client serving is added by the caller. */
 export function createApp(deps: AppDeps): SitecueApp {
@@ -165,7 +176,8 @@ export function createApp(deps: AppDeps): SitecueApp {
 
   const api = new ApiRoutes();
   const authDeps = { ds: deps.ds, mailer: deps.mailer, appUrl: deps.appUrl };
-  registerHealthRoutes(api, deps.ds, version);
+  const database = deps.database ?? new DatabaseWatch({ ds: deps.ds });
+  registerHealthRoutes(api, deps.ds, database, version);
   registerAuthRoutes(api, authDeps, passport, {
     signInLimit: deps.signInLimit ?? 10,
     windowMs: deps.signInWindowMs ?? 15 * 60 * 1000,
@@ -216,6 +228,9 @@ export function createApp(deps: AppDeps): SitecueApp {
 
   app.use(
     "/api",
+    // API answers are per person and change all the time: never stored by a browser or proxy
+    // (RFC 9111 §5.2.2.5). Routes that allow caching set their own (downloads, feeds).
+    noStore,
     express.json({ limit: "1mb" }),
     session({
       name: "sitecue.sid",
@@ -236,7 +251,9 @@ export function createApp(deps: AppDeps): SitecueApp {
     csrfProtection,
     api.router,
     notFoundRoute,
-    errorHandler((err) => console.error("[sitecue] unexpected error:", err)),
+    errorHandler((err) => console.error("[sitecue] unexpected error:", err), {
+      database,
+    }),
   );
 
   return {
@@ -245,6 +262,10 @@ export function createApp(deps: AppDeps): SitecueApp {
     receiveMail: (mail) => receiveCalendarReply(bookingDeps, deps.ds, mail),
     sendReminders: (now) => sendDueReminders(bookingDeps, now),
     sendThreadNotices: (now) => sendThreadNotices(threadDeps, now),
-    close: () => store.close(),
+    database,
+    close: async () => {
+      database.close();
+      await store.close();
+    },
   };
 }

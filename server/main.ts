@@ -1,7 +1,9 @@
 import http from "node:http";
+import type { AddressInfo } from "node:net";
 import { createApp } from "./app";
-import { loadEnv } from "./config/env";
+import { loadEnv, startupWarnings } from "./config/env";
 import { createDataSource } from "./db/data-source";
+import { DatabaseWatch } from "./db/database-watch";
 import { migrate } from "./db/migrate";
 import { seedDemoIfEmpty } from "./db/seed";
 import { mountClient } from "./http/client";
@@ -11,11 +13,42 @@ import { OutboxWorker, pruneSentMail } from "./infra/outbox/outbox";
 import { startInboundSmtp } from "./infra/mail/inbound";
 import { startS3Fake, type S3Fake } from "./infra/storage/s3-fake";
 import { createStorage } from "./infra/storage/storage";
+import { PORT_TAKEN_EXIT_CODE } from "./infra/supervise.mjs";
 
 const log = (msg: string) => console.log(`[sitecue] ${msg}`);
+const warn = (msg: string) => console.warn(`[sitecue] ${msg}`);
+
+/** An error as one log line: its message and where it was thrown (the first stack frame). */
+function oneLine(err: unknown): string {
+  if (!(err instanceof Error)) return String(err);
+  const at = err.stack
+    ?.split("\n")
+    .find((l) => /^\s+at /.test(l))
+    ?.trim();
+  return `${err.name}: ${err.message}${at ? ` (${at})` : ""}`;
+}
+
+// Express 5 already hands a rejected handler promise to the error handler (a 500 for that request
+// alone). What is left is code outside any request: a promise nobody awaits, an "error" event
+// nobody listens to. A rejection leaves nothing half-done, so it is logged and the app serves on.
+// A thrown exception may have left any state half-changed (Node's docs: "it is not safe to resume
+// normal operation after 'uncaughtException'"), so the app logs it and exits; the bootstrap's
+// supervisor starts it again within seconds (server/infra/supervise.mjs; DEVELOPERS.md Decisions).
+process.on("unhandledRejection", (reason) => {
+  console.error(
+    `[sitecue] A promise failed and nothing handled it; still serving: ${oneLine(reason)}`,
+  );
+});
+process.on("uncaughtException", (err) => {
+  console.error(
+    `[sitecue] Unexpected error outside any request; the app stops (npm start starts it again): ${oneLine(err)}`,
+  );
+  process.exit(1);
+});
 
 async function main() {
   const env = loadEnv();
+  for (const w of startupWarnings(env)) warn(w);
   const production = env.NODE_ENV === "production";
   const db = {
     host: env.DB_HOST,
@@ -26,6 +59,8 @@ async function main() {
   };
   const ds = createDataSource(db);
   await ds.initialize();
+  // Requests and pollers report the database's errors here: an outage is one line, not a stack each.
+  const database = new DatabaseWatch({ ds, log: warn });
   const ran = await migrate(ds);
   log(
     ran.length
@@ -97,7 +132,8 @@ async function main() {
   const outbox = new OutboxWorker({
     ds,
     transport: mailer,
-    log: (msg) => console.warn(`[sitecue] ${msg}`),
+    log: warn,
+    database,
   });
 
   if (!production) {
@@ -120,15 +156,34 @@ async function main() {
     trustProxy: env.TRUST_PROXY === "1",
     replyDomain: env.REPLY_DOMAIN,
     threadNoticeDelayMs: env.THREAD_NOTICE_MINUTES * 60 * 1000,
+    database,
   });
   const server = http.createServer(sitecue.app);
   const closeClient =
     env.SITECUE_CLIENT === "none"
       ? async () => {}
       : await mountClient(sitecue.app, production ? "static" : "vite", server);
-  await new Promise<void>((resolve) =>
-    server.listen(env.PORT, "127.0.0.1", resolve),
-  );
+  // Another program can take the port after the bootstrap checked it: say so and exit with the
+  // code that makes the supervisor start again on the next free port (issue 13).
+  await new Promise<void>((resolve, reject) => {
+    const refused = (err: NodeJS.ErrnoException) => {
+      if (err.code !== "EADDRINUSE") return reject(err);
+      warn(
+        `Port ${env.PORT} was taken by another program before Sitecue could listen`,
+      );
+      process.exit(PORT_TAKEN_EXIT_CODE);
+    };
+    server.once("error", refused);
+    server.listen(env.PORT, "127.0.0.1", () => {
+      server.off("error", refused);
+      resolve();
+    });
+  });
+  // After listening the server can still emit "error" (e.g. EMFILE when accepting): one line, and
+  // the server keeps accepting. A broken request line or a reset socket is "clientError", which
+  // Node answers itself (400/408/431, then closes that socket): nothing to add there.
+  server.on("error", (err) => warn(`HTTP server: ${oneLine(err)}`));
+  const port = (server.address() as AddressInfo).port;
   const took = env.SITECUE_BOOT_STARTED
     ? ` (${((Date.now() - env.SITECUE_BOOT_STARTED) / 1000).toFixed(1)} s after npm start)`
     : "";
@@ -147,25 +202,17 @@ async function main() {
   // Day-before reminders: checked every 15 minutes (each reminder is claimed once, across processes).
   const reminders = setInterval(
     () => {
-      sitecue
-        .sendReminders()
-        .catch((err) =>
-          console.warn(
-            `[sitecue] reminders: ${err instanceof Error ? err.message : String(err)}`,
-          ),
-        );
+      sitecue.sendReminders().catch((err) => {
+        if (!database.lost(err)) warn(`reminders: ${oneLine(err)}`);
+      });
     },
     15 * 60 * 1000,
   );
   // Thread notice e-mails: swept every minute (each notice is claimed once, across processes).
   const threadNotices = setInterval(() => {
-    sitecue
-      .sendThreadNotices()
-      .catch((err) =>
-        console.warn(
-          `[sitecue] thread notices: ${err instanceof Error ? err.message : String(err)}`,
-        ),
-      );
+    sitecue.sendThreadNotices().catch((err) => {
+      if (!database.lost(err)) warn(`thread notices: ${oneLine(err)}`);
+    });
   }, 60 * 1000);
   // Sent e-mail older than OUTBOX_KEEP_DAYS: pruned hourly in bounded batches (SKIP LOCKED, so
   // processes pruning at once take different rows). Failed rows stay until sent again.
@@ -174,14 +221,14 @@ async function main() {
       .then((n) => {
         if (n) log(`Outbox: pruned ${n} sent e-mail(s)`);
       })
-      .catch((err) =>
-        console.warn(
-          `[sitecue] outbox pruning: ${err instanceof Error ? err.message : String(err)}`,
-        ),
-      );
+      .catch((err) => {
+        if (!database.lost(err)) warn(`outbox pruning: ${oneLine(err)}`);
+      });
   void prune();
   const outboxPrune = setInterval(prune, 60 * 60 * 1000);
-  log(`Sitecue is ready at ${appUrl}${took}`);
+  // APP_URL may be a public address in front of this one; then say where it really listens too.
+  const where = env.APP_URL ? ` (listening on 127.0.0.1:${port})` : "";
+  log(`Sitecue is ready at ${appUrl}${where}${took}`);
 
   let closing = false;
   const shutdown = async () => {
@@ -197,6 +244,7 @@ async function main() {
     clearInterval(outboxPrune);
     await inbound.close();
     await outbox.stop();
+    database.close();
     mailer.close();
     await mailbox?.close();
     storage.close();

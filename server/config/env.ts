@@ -74,3 +74,19 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
   }
   return parsed.data;
 }
+
+/**
+ * Settings that start but cannot work, each as one line saying what to set. Production marks the
+ * session cookie `Secure` (RFC 6265 §4.1.2.5), and express-session only sets a Secure cookie on a
+ * request it knows came over HTTPS; Sitecue itself speaks plain HTTP, so without TRUST_PROXY=1
+ * (an HTTPS reverse proxy in front, trusted for X-Forwarded-Proto) nobody can ever sign in: every
+ * form says "This form has expired".
+ */
+export function startupWarnings(env: Env): string[] {
+  const warnings: string[] = [];
+  if (env.NODE_ENV === "production" && env.TRUST_PROXY !== "1")
+    warnings.push(
+      "NODE_ENV=production without TRUST_PROXY=1: the session cookie is Secure but Sitecue serves plain HTTP, so nobody can sign in. Serve it behind an HTTPS reverse proxy and set TRUST_PROXY=1.",
+    );
+  return warnings;
+}

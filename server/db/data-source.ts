@@ -1,5 +1,6 @@
 import "reflect-metadata";
-import { DataSource } from "typeorm";
+import { AdvancedConsoleLogger, DataSource, type QueryRunner } from "typeorm";
+import { isDatabaseUnreachable } from "./database-watch";
 import { entities } from "./entities";
 import { migrations } from "./migrations";
 
@@ -9,6 +10,22 @@ export interface DbSettings {
   user: string;
   password: string;
   database: string;
+}
+
+/**
+ * TypeORM's console logger, except for queries that failed because the database is unreachable:
+ * those reach the caller, which hands them to the DatabaseWatch (one line per outage).
+ */
+class OutageQuietLogger extends AdvancedConsoleLogger {
+  override logQueryError(
+    error: string,
+    query: string,
+    parameters?: unknown[],
+    queryRunner?: QueryRunner,
+  ): void {
+    if (isDatabaseUnreachable(error)) return;
+    super.logQueryError(error, query, parameters, queryRunner);
+  }
 }
 
 /** A TypeORM data source for MariaDB; schema changes only through migrations. */
@@ -28,5 +45,6 @@ export function createDataSource(db: DbSettings): DataSource {
     charset: "utf8mb4_unicode_ci",
     poolSize: 10,
     logging: ["error"],
+    logger: new OutageQuietLogger(["error"]),
   });
 }

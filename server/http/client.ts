@@ -36,6 +36,11 @@ export async function mountClient(
     throw new Error(
       `The built client is missing (${index}); run "npx vite build" first.`,
     );
+  // A folder built before source maps were switched off may still hold them: never serve one.
+  app.use((req, res, next) => {
+    if (req.path.endsWith(".map")) res.status(404).end();
+    else next();
+  });
   app.use(
     "/assets",
     express.static(path.join(dist, "assets"), {

@@ -22,6 +22,7 @@ export type ErrorCode =
   | "upload-malformed"
   | "rate-limited"
   | "unprocessable"
+  | "unavailable"
   | "internal";
 
 /** A typed error thrown anywhere in a request; mapped once to `{ error: { code, message, fields? } }`. */
@@ -63,8 +64,14 @@ export const notFoundRoute: RequestHandler = (req, _res, next) => {
   );
 };
 
-/** The one error handler: known errors keep their status; anything else is a 500 without a stack. */
-export function errorHandler(log: (err: unknown) => void): ErrorRequestHandler {
+/**
+ * The one error handler: known errors keep their status; the database being unreachable is a 503
+ * (reported to `opts.database`, which logs an outage once); anything else is a 500 without a stack.
+ */
+export function errorHandler(
+  log: (err: unknown) => void,
+  opts: { database?: { lost(err: unknown): boolean } } = {},
+): ErrorRequestHandler {
   return (err, _req, res, _next) => {
     if (res.headersSent) return;
     if (err instanceof HttpError) {
@@ -114,6 +121,18 @@ export function errorHandler(log: (err: unknown) => void): ErrorRequestHandler {
         error: {
           code: "validation",
           message: "The request could not be read.",
+        },
+      });
+      return;
+    }
+    if (opts.database?.lost(err)) {
+      // RFC 9110 §15.6.4: 503 is a temporary overload or outage; Retry-After (§10.2.3) says when.
+      res.setHeader("Retry-After", "10");
+      res.status(503).json({
+        error: {
+          code: "unavailable",
+          message:
+            "Sitecue cannot reach its database just now. Please try again in a minute.",
         },
       });
       return;

@@ -64,6 +64,28 @@ describe("the API's edges", () => {
   });
 });
 
+describe("caching", () => {
+  // RFC 9111 §5.2.2.5: no-store keeps per-person API answers out of browser and proxy caches.
+  it("marks every API answer no-store: data, errors, sign-in state and health", async () => {
+    const s = await signIn(t, demoAccounts.owner.email);
+    const answers = [
+      await s.agent.get("/api/jobs"),
+      await s.agent.get("/api/auth/session"),
+      await request(t.sitecue.app).get("/api/health"),
+      await request(t.sitecue.app).get("/api/jobs"),
+      await request(t.sitecue.app).get("/api/no-such-thing"),
+      await s.agent
+        .post("/api/auth/sign-out")
+        .set("X-CSRF-Token", "not-the-token"),
+    ];
+    expect(answers.map((r) => r.status)).toEqual([
+      200, 200, 200, 401, 404, 403,
+    ]);
+    for (const r of answers)
+      expect(r.headers["cache-control"]).toBe("no-store");
+  });
+});
+
 describe("OpenAPI", () => {
   it("describes every registered route as OpenAPI 3.1, with its schemas", async () => {
     const doc = (

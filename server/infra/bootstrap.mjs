@@ -6,9 +6,9 @@
 import { spawn, spawnSync } from "node:child_process";
 import { createHash, randomBytes } from "node:crypto";
 import fs from "node:fs";
-import net from "node:net";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
+import { freePort, superviseApp } from "./supervise.mjs";
 
 const root = path.resolve(
   path.dirname(fileURLToPath(import.meta.url)),
@@ -96,20 +96,6 @@ function logTail(file) {
   } catch {
     return "(no log)";
   }
-}
-
-function portFree(port) {
-  return new Promise((resolve) => {
-    const s = net.createServer();
-    s.once("error", () => resolve(false));
-    s.listen(port, "127.0.0.1", () => s.close(() => resolve(true)));
-  });
-}
-
-async function freePort(preferred) {
-  for (let p = preferred; p < preferred + 50; p++)
-    if (await portFree(p)) return p;
-  throw new Error(`No free port near ${preferred}`);
 }
 
 function sql(dir, statements) {
@@ -247,7 +233,10 @@ async function stopChild(child, name, signal = "SIGTERM", ms = 15000) {
 }
 
 let mariadb = null;
+/** The vitest run (test mode). */
 let app = null;
+/** The app under its supervisor (start mode): restarted when it dies, stopped with everything. */
+let appSupervisor = null;
 let testDir = null;
 
 /** Removes test data folders left by runs whose bootstrap is no longer alive. */
@@ -272,6 +261,10 @@ function removeStaleTestRuns() {
 async function stopAll() {
   if (stopping) return;
   stopping = true;
+  if (appSupervisor) {
+    say("Stopping the app");
+    await appSupervisor.stop();
+  }
   if (app) {
     say("Stopping the app");
     await stopChild(app, "The app");
@@ -347,15 +340,12 @@ async function main() {
       say("Building the client (vite build)");
       run("npx", ["vite", "build", "--logLevel", "warn"]);
     }
-    const port = await freePort(Number(process.env.PORT ?? 3000));
     Object.assign(env, {
       NODE_ENV: production ? "production" : "development",
-      PORT: String(port),
       DB_NAME: "sitecue",
       DB_USER: "sitecue",
       DB_PASSWORD: creds.appPassword,
       SESSION_SECRET: process.env.SESSION_SECRET ?? creds.sessionSecret,
-      APP_URL: process.env.APP_URL ?? `http://localhost:${port}`,
       SITECUE_MAIL_DIR: path.join(dir, "mail"),
       SITECUE_BOOT_STARTED: String(t0),
     });
@@ -364,21 +354,22 @@ async function main() {
       env.S3_FAKE ??= "1";
       env.SITECUE_S3_DIR ??= path.join(dir, "s3");
     }
-    app = spawn("node", ["--import", "tsx", "server/main.ts"], {
-      cwd: root,
-      env,
-      stdio: "inherit",
-      detached: true,
+    // The supervisor checks the port before each start and passes it as PORT; main.ts makes
+    // APP_URL http://localhost:PORT unless it was set, so links and "ready at" carry the real port.
+    // A crash restarts the app with back-off; MariaDB keeps running. Ctrl-C stops both (stopAll).
+    appSupervisor = superviseApp({
+      root,
+      preferredPort: Number(process.env.PORT ?? 3000),
+      // "(N s after npm start)" belongs to the first start only.
+      env: () => {
+        const e = { ...env };
+        delete env.SITECUE_BOOT_STARTED;
+        return e;
+      },
+      log: say,
     });
-    children.add(app);
-    const code = await new Promise((r) =>
-      app.once("exit", (c, s) => r(c ?? (s ? 1 : 0))),
-    );
-    if (!stopping) {
-      if (code !== 0) fail(`The app stopped with exit code ${code}`);
-      await stopAll();
-    }
-    return;
+    // Runs until a signal: stopAll stops the app and MariaDB, then exits.
+    return new Promise(() => {});
   }
 
   // Test mode: an admin user that may create one database per test file (sitecue_t_*).

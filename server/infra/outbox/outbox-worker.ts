@@ -25,6 +25,8 @@ export interface OutboxWorkerOptions {
   leaseMs?: number;
   /** Where failures are reported. Default console.warn. */
   log?: (message: string) => void;
+  /** Told of failed polls first: one that says the database is unreachable is not logged again. */
+  database?: { lost(err: unknown): boolean };
 }
 
 /** 2^attempts seconds, capped at 15 minutes. */
@@ -62,6 +64,7 @@ export class OutboxWorker {
   private readonly backoff: (attempts: number) => number;
   private readonly leaseMs: number;
   private readonly log: (message: string) => void;
+  private readonly database: { lost(err: unknown): boolean } | null;
   private running = false;
   private loop: Promise<void> | null = null;
   private wakeUp: (() => void) | null = null;
@@ -78,6 +81,7 @@ export class OutboxWorker {
     this.backoff = o.backoff ?? defaultBackoff;
     this.leaseMs = o.leaseMs ?? 5 * 60_000;
     this.log = o.log ?? ((message) => console.warn(message));
+    this.database = o.database ?? null;
   }
 
   /** Polls until `stop()`. */
@@ -106,7 +110,9 @@ export class OutboxWorker {
       try {
         full = (await this.batch()).claimed === this.batchSize;
       } catch (err) {
-        this.log(`[outbox] ${this.workerId}: poll failed: ${describe(err)}`);
+        // While the database is gone every poll fails: the watch says so once per outage.
+        if (!this.database?.lost(err))
+          this.log(`[outbox] ${this.workerId}: poll failed: ${describe(err)}`);
       }
       if (full || !this.running) continue;
       await new Promise<void>((resolve) => {

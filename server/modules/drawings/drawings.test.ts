@@ -265,6 +265,8 @@ describe("upload, download and revisions", () => {
       /^attachment; filename="elevation\.pdf"/,
     );
     expect(dl.headers["x-content-type-options"]).toBe("nosniff");
+    // Its own caching, not the API's no-store (RFC 9111 §5.2.2.7 private).
+    expect(dl.headers["cache-control"]).toBe("private, max-age=300");
     // ?inline=1 previews a PDF in the browser.
     expect(revA.previewUrl).toBe(`${revA.downloadUrl}?inline=1`);
     const inline = await fetchFile(s.owner, revA.previewUrl!).expect(200);

@@ -1,29 +1,36 @@
 import type { DataSource } from "typeorm";
 import { healthResponseSchema } from "../../../shared/schemas";
+import type { DatabaseWatch } from "../../db/database-watch";
 import type { ApiRoutes } from "../../http/routes";
 
 export function registerHealthRoutes(
   api: ApiRoutes,
   ds: DataSource,
+  watch: DatabaseWatch,
   version: string,
 ): void {
   api.add({
     method: "get",
     path: "/health",
     tag: "health",
-    summary: "Whether the app and its database answer",
+    summary:
+      "Whether the app and its database answer (503 while the database is down)",
     response: healthResponseSchema,
     handler: async ({ res }) => {
       const up = await ds
         .query("SELECT 1")
         .then(() => true)
-        .catch(() => false);
-      res.status(up ? 200 : 503);
-      return {
-        status: up ? "ok" : "degraded",
-        database: up ? "up" : "down",
-        version,
-      };
+        .catch((err: unknown) => {
+          watch.markDown(err);
+          return false;
+        });
+      if (up) {
+        watch.markUp();
+        return { status: "ok", database: "up", version };
+      }
+      // 503, so load balancers and monitors take this process out of service (RFC 9110 §15.6.4);
+      // sent here because ApiRoutes would answer a returned body with the route's 200.
+      res.status(503).json({ status: "degraded", database: "down", version });
     },
   });
 }

@@ -2,9 +2,14 @@
 // posted through one is read through the other, and a poll with the `after` cursor on one sees
 // what was posted on the other — nothing about the thread lives in one process's memory.
 import { spawn, type ChildProcess } from "node:child_process";
-import net from "node:net";
 import path from "node:path";
 import { afterAll, beforeAll, expect, it } from "vitest";
+import {
+  appProcessEnv,
+  freePort,
+  ProcessOutput,
+  stopProcess,
+} from "../../../tests/setup/app-process";
 import {
   createTestDatabase,
   type TestDatabase,
@@ -25,74 +30,31 @@ const root = path.resolve(import.meta.dirname, "../../..");
 let db: TestDatabase;
 let mail: SmtpFake;
 let s3: S3Fake;
-const procs: { child: ChildProcess; url: string; output: string[] }[] = [];
+const procs: { child: ChildProcess; url: string; output: ProcessOutput }[] = [];
 let jobId: string;
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = net.createServer();
-    srv.once("error", reject);
-    srv.listen(0, "127.0.0.1", () => {
-      const { port } = srv.address() as net.AddressInfo;
-      srv.close(() => resolve(port));
-    });
-  });
-}
 
 /** Starts one app process and resolves once it says it is ready. */
 async function startProcess(port: number) {
   const url = `http://127.0.0.1:${port}`;
-  const { settings } = db;
   const child = spawn(process.execPath, ["--import", "tsx", "server/main.ts"], {
     cwd: root,
-    env: {
-      PATH: process.env.PATH,
-      HOME: process.env.HOME,
-      NODE_ENV: "test",
-      PORT: String(port),
-      APP_URL: url,
-      DB_HOST: settings.host,
-      DB_PORT: String(settings.port),
-      DB_USER: settings.user,
-      DB_PASSWORD: settings.password,
-      DB_NAME: settings.database,
-      SESSION_SECRET: "two-processes-share-this-secret",
-      // No Vite middleware, no built client: these processes serve the API only.
-      SITECUE_CLIENT: "none",
-      SMTP_FAKE: "0",
-      SMTP_HOST: "127.0.0.1",
-      SMTP_PORT: String(mail.port),
-      S3_FAKE: "0",
-      S3_ENDPOINT: s3.endpoint,
-      S3_BUCKET: s3.bucket,
-      S3_ACCESS_KEY_ID: "S3RVER",
-      S3_SECRET_ACCESS_KEY: "S3RVER",
-      INBOUND_SMTP_PORT: "0",
-    },
+    env: appProcessEnv({ db: db.settings, mail, s3, port }),
     stdio: ["ignore", "pipe", "pipe"],
   });
-  const output: string[] = [];
+  const output = new ProcessOutput();
+  output.attach(child);
   const p = { child, url, output };
   procs.push(p);
-  await new Promise<void>((resolve, reject) => {
-    const timer = setTimeout(
-      () => reject(new Error(`${url} not ready:\n${output.join("")}`)),
-      25_000,
-    );
-    const onData = (chunk: Buffer) => {
-      output.push(chunk.toString());
-      if (output.join("").includes("Sitecue is ready")) {
-        clearTimeout(timer);
-        resolve();
-      }
-    };
-    child.stdout!.on("data", onData);
-    child.stderr!.on("data", (c: Buffer) => output.push(c.toString()));
-    child.once("exit", (code) => {
-      clearTimeout(timer);
-      reject(new Error(`${url} exited (${code}):\n${output.join("")}`));
-    });
-  });
+  const ready = output.next(/Sitecue is ready/);
+  const exited = new Promise<never>((_, reject) =>
+    child.once("exit", (code) =>
+      reject(new Error(`${url} exited (${code}):\n${output.text()}`)),
+    ),
+  );
+  // Whichever loses the race settles later (the process exits at the end too): not an error.
+  exited.catch(() => {});
+  ready.catch(() => {});
+  await Promise.race([ready, exited]);
   return p;
 }
 
@@ -137,20 +99,7 @@ beforeAll(async () => {
 }, 40_000);
 
 afterAll(async () => {
-  await Promise.all(
-    procs.map(
-      ({ child }) =>
-        new Promise<void>((resolve) => {
-          if (child.exitCode !== null) return resolve();
-          const kill = setTimeout(() => child.kill("SIGKILL"), 5000);
-          child.once("exit", () => {
-            clearTimeout(kill);
-            resolve();
-          });
-          child.kill("SIGTERM");
-        }),
-    ),
-  );
+  await Promise.all(procs.map(({ child }) => stopProcess(child)));
   await s3?.close();
   await mail?.close();
   await db?.drop();
