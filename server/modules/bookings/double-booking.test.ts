@@ -55,7 +55,9 @@ afterAll(async () => t?.close());
 const ROUNDS = 4;
 
 /** A new alcove job of the demo workshop and its coving template task. */
-async function covingTask(title: string): Promise<{ jobId: string; taskId: string }> {
+async function covingTask(
+  title: string,
+): Promise<{ jobId: string; taskId: string }> {
   const jobId = await createJobFromStarter(owner, {
     workshopId: alcoves.workshopId,
     customerId: alcoves.customerId,
@@ -138,7 +140,9 @@ describe("two sends for one trade's half-day at the same moment", () => {
       expectOneBooked(round, start, answers);
       expect(await holding([ashby.id], start)).toBe(1);
     }
-    console.log(`two simultaneous sends, ${ROUNDS} rounds: ${rounds.join(", ")}`);
+    console.log(
+      `two simultaneous sends, ${ROUNDS} rounds: ${rounds.join(", ")}`,
+    );
   }, 120_000);
 
   it("also when the trade's person is booked at once by another workshop, through its own record of them", async () => {
@@ -182,4 +186,72 @@ describe("two sends for one trade's half-day at the same moment", () => {
       `two workshops sending for one person at once, ${ROUNDS} rounds: ${rounds.join(", ")}`,
     );
   }, 120_000);
+
+  it("sends only one of two drafts for the same half-day, even sent at once", async () => {
+    const a = await covingTask("Drafts A");
+    const b = await covingTask("Drafts B");
+    const start = await firstFree(a.jobId, a.taskId, ashby.id);
+    // Drafts hold no dates, so both are made; the send is where the slot is taken.
+    const draft = async (x: { jobId: string; taskId: string }) =>
+      (
+        await owner.agent
+          .post(`/api/jobs/${x.jobId}/bookings`)
+          .set("X-CSRF-Token", owner.csrf)
+          .send({
+            taskId: x.taskId,
+            tradeId: ashby.id,
+            start,
+            arrivalWindow: start.endsWith("T12:00") ? "afternoon" : "morning",
+            send: false,
+          })
+          .expect(201)
+      ).body.id as string;
+    const ids = [await draft(a), await draft(b)];
+    const answers = await Promise.all(
+      ids.map((id) =>
+        owner.agent
+          .post(`/api/bookings/${id}/send`)
+          .set("X-CSRF-Token", owner.csrf),
+      ),
+    );
+    expect(answers.map((x) => x.status).sort()).toEqual([200, 409]);
+    const refused = answers.find((x) => x.status === 409)!;
+    expect(refused.body.error.message).toMatch(/already booked/);
+    expect(refused.body.error.fields.nextFreeStart[0] > start).toBe(true);
+    expect(await holding([ashby.id], start)).toBe(1);
+  });
+
+  it("refuses to accept a proposed start the trade is already booked for", async () => {
+    const a = await covingTask("Proposal A");
+    const b = await covingTask("Proposal B");
+    const startA = await firstFree(a.jobId, a.taskId, ashby.id);
+    expect(
+      (await send(owner, a.jobId, a.taskId, ashby.id, startA)).status,
+    ).toBe(201);
+    const startB = await firstFree(b.jobId, b.taskId, ashby.id);
+    const booked = await send(owner, b.jobId, b.taskId, ashby.id, startB);
+    expect(booked.status).toBe(201);
+    // The trade, asked for job B, proposes the morning they are already giving job A.
+    await owner.agent
+      .post(`/api/bookings/${booked.body.id}/answer`)
+      .set("X-CSRF-Token", owner.csrf)
+      .send({
+        answer: "propose",
+        channel: "phone",
+        proposedStart: startA.slice(0, 10),
+      })
+      .expect(200);
+    const accept = await owner.agent
+      .post(`/api/bookings/${booked.body.id}/proposal`)
+      .set("X-CSRF-Token", owner.csrf)
+      .send({ accept: true });
+    expect(accept.status).toBe(409);
+    expect(accept.body.error.message).toMatch(/already booked/);
+    expect(accept.body.error.fields.nextFreeStart).toHaveLength(1);
+    // Nothing moved: job B's booking still holds its own start, still waiting on the proposal.
+    const row = await t.db.ds.manager.findOneByOrFail(Booking, {
+      id: booked.body.id,
+    });
+    expect([row.start, row.state]).toEqual([startB, "date-proposed"]);
+  });
 });
