@@ -149,7 +149,10 @@ export function createApp(deps: AppDeps): SitecueApp {
         checkCredentials(deps.ds, email, password)
           .then(async (userId) =>
             userId
-              ? done(null, (await loadSessionUser(deps.ds.manager, userId)) ?? false)
+              ? done(
+                  null,
+                  (await loadSessionUser(deps.ds.manager, userId)) ?? false,
+                )
               : done(null, false),
           )
           .catch(done);

@@ -98,7 +98,9 @@ export function errorHandler(log: (err: unknown) => void): ErrorRequestHandler {
     }
     if (isLockRefusal(err)) {
       const b = busy();
-      res.status(b.status).json({ error: { code: b.code, message: b.message } });
+      res
+        .status(b.status)
+        .json({ error: { code: b.code, message: b.message } });
       return;
     }
     if (err instanceof ZodError) {

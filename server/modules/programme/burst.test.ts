@@ -2,6 +2,7 @@
 // the same version go at once; exactly one wins, the rest are refused with 409 within seconds
 // (never a 500 after innodb_lock_wait_timeout), and people reading another job, or the same
 // job's programme, are answered meanwhile.
+import mysql from "mysql2/promise";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import {
   signIn,
@@ -15,6 +16,7 @@ import {
 } from "../../../tests/factories/demo-scenario";
 import { createJobFromStarter } from "../../../tests/setup/jobs";
 import type { ProgrammeResponse } from "../../../shared/schemas";
+import { LOCK_WAIT_SECONDS } from "../../db/locks";
 import { Job } from "../jobs/jobs.entity";
 
 let t: TestApp;
@@ -123,4 +125,60 @@ describe("a burst of applies to one job", () => {
     ).body;
     expect(now.version).toBe(p.version + 1);
   }, 180_000);
+
+  it("answers 409 'busy' after a short wait when the job's row stays locked, never a 500", async () => {
+    const jobId = await createJobFromStarter(owner, {
+      workshopId: alcoves.workshopId,
+      customerId: alcoves.customerId,
+      title: "Alcoves held by a slow save",
+    });
+    const p: ProgrammeResponse = (
+      await owner.agent.get(`/api/jobs/${jobId}/programme`).expect(200)
+    ).body;
+    const doors = p.tasks.find((x) => x.name === "Hang doors")!.id;
+    // Another connection holds the job's row, as a save that takes far too long would.
+    const holder = await mysql.createConnection(t.db.settings);
+    try {
+      await holder.query("START TRANSACTION");
+      await holder.query("SELECT id FROM jobs WHERE id = ? FOR UPDATE", [
+        jobId,
+      ]);
+      const t0 = performance.now();
+      const [res, other] = await Promise.all([
+        owner.agent
+          .post(`/api/jobs/${jobId}/programme/apply`)
+          .set("X-CSRF-Token", owner.csrf)
+          .send({
+            version: p.version,
+            changes: [{ taskId: doors, durationDays: 2 }],
+          }),
+        fitter.agent.get(`/api/jobs/${alcoves.id}/programme`),
+      ]);
+      const waited = performance.now() - t0;
+      console.log(
+        `apply against a held job row: ${res.status} ${res.body.error?.code} after ${(waited / 1000).toFixed(2)} s`,
+      );
+      expect(res.status).toBe(409);
+      expect(res.body.error).toEqual({
+        code: "busy",
+        message:
+          "Someone else is saving a change to this job right now; try again.",
+      });
+      expect(waited).toBeGreaterThanOrEqual(LOCK_WAIT_SECONDS * 1000 - 100);
+      expect(waited).toBeLessThan((LOCK_WAIT_SECONDS + 3) * 1000);
+      expect(other.status).toBe(200);
+    } finally {
+      await holder.query("ROLLBACK");
+      await holder.end();
+    }
+    // Nothing was saved, and once the row is free the same change goes through.
+    const retry = await owner.agent
+      .post(`/api/jobs/${jobId}/programme/apply`)
+      .set("X-CSRF-Token", owner.csrf)
+      .send({
+        version: p.version,
+        changes: [{ taskId: doors, durationDays: 2 }],
+      });
+    expect(retry.status).toBe(200);
+  }, 120_000);
 });

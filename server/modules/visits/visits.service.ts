@@ -393,7 +393,12 @@ async function tradeEdit<T>(
   version?: number,
 ): Promise<T> {
   if (version !== undefined) {
-    const seen = await loadVisit(deps.ds.manager, actor, bookingId, "visit.act");
+    const seen = await loadVisit(
+      deps.ds.manager,
+      actor,
+      bookingId,
+      "visit.act",
+    );
     if (seen.job.version !== version) throw staleVisitVersion();
   }
   return lockingTransaction(deps.ds, async (m) => {
