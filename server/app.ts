@@ -160,7 +160,10 @@ export function createApp(deps: AppDeps): SitecueApp {
         checkCredentials(deps.ds, email, password)
           .then(async (userId) =>
             userId
-              ? done(null, (await loadSessionUser(deps.ds, userId)) ?? false)
+              ? done(
+                  null,
+                  (await loadSessionUser(deps.ds.manager, userId)) ?? false,
+                )
               : done(null, false),
           )
           .catch(done);
@@ -169,7 +172,7 @@ export function createApp(deps: AppDeps): SitecueApp {
   );
   passport.serializeUser((u, done) => done(null, (u as Express.User).user.id));
   passport.deserializeUser((id: string, done) => {
-    loadSessionUser(deps.ds, id)
+    loadSessionUser(deps.ds.manager, id)
       .then((loaded) => done(null, loaded ?? false))
       .catch(done);
   });

@@ -13,6 +13,7 @@ export type ErrorCode =
   | "version-conflict"
   | "conflict"
   | "gone"
+  | "busy"
   | "too-large"
   | "file-too-large"
   | "file-type-refused"
@@ -41,6 +42,27 @@ export const notFound = (what = "That record") =>
   new HttpError(404, "not-found", `${what} was not found.`);
 export const forbidden = (message = "You do not have permission to do that.") =>
   new HttpError(403, "forbidden", message);
+// MariaDB's answers when a row lock could not be had: ER_LOCK_WAIT_TIMEOUT (1205, also what
+// `FOR UPDATE WAIT n` gives after n seconds), ER_LOCK_DEADLOCK (1213, this transaction was the
+// deadlock's victim) and ER_LOCK_NOWAIT (3572). The transaction has been rolled back, so nothing
+// was saved: the person can simply try again (issue 13, item 2; locking rule in DEVELOPERS.md).
+const LOCK_ERRNOS = new Set([1205, 1213, 3572]);
+
+/** True when a database error means another request holds the rows this one needed. */
+export function isLockRefusal(err: unknown): boolean {
+  const e = err as { errno?: unknown; driverError?: { errno?: unknown } };
+  const errno = e?.errno ?? e?.driverError?.errno;
+  return typeof errno === "number" && LOCK_ERRNOS.has(errno);
+}
+
+/** The 409 for a request that could not get a lock in time (see isLockRefusal). */
+export const busy = () =>
+  new HttpError(
+    409,
+    "busy",
+    "Someone else is saving a change to this job right now; try again.",
+  );
+
 export const unauthenticated = () =>
   new HttpError(401, "unauthenticated", "Please sign in first.");
 
@@ -82,6 +104,13 @@ export function errorHandler(
           ...(err.fields ? { fields: err.fields } : {}),
         },
       });
+      return;
+    }
+    if (isLockRefusal(err)) {
+      const b = busy();
+      res
+        .status(b.status)
+        .json({ error: { code: b.code, message: b.message } });
       return;
     }
     if (err instanceof ZodError) {

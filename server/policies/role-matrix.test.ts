@@ -160,6 +160,12 @@ async function bookingIn(
     {
       state,
       proposedStart: state === "date-proposed" ? "2027-02-02T08:00" : null,
+      // Every fresh job books the plasterer on the same morning, so a draft is one "booked
+      // despite a clash": sending it re-checks the slot and needs the reason (issue 13, item 3).
+      overrideReason:
+        state === "draft"
+          ? "The matrix books every job the same morning"
+          : null,
     },
   );
   return p.bookingId;

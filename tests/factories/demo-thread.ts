@@ -244,7 +244,7 @@ export async function setDemoReadMarkers(
   markers: ReadMarker[],
 ): Promise<void> {
   for (const r of markers) {
-    const loaded = await loadSessionUser(ds, r.userId);
+    const loaded = await loadSessionUser(ds.manager, r.userId);
     if (!loaded) throw new Error(`Demo user ${r.userId} is missing`);
     await markRead(ds, loaded.actor, r.jobId, r.seq);
   }

@@ -160,7 +160,7 @@ export function registerAuthRoutes(
         body.token,
         body.password,
       );
-      const loaded = await loadSessionUser(deps.ds, userId);
+      const loaded = await loadSessionUser(deps.ds.manager, userId);
       if (!loaded)
         throw new HttpError(
           404,

@@ -6,6 +6,7 @@ import type {
   linkAnswerBodySchema,
 } from "../../../shared/schemas";
 import { HttpError } from "../../http/errors";
+import { lockingTransaction } from "../../db/locks";
 import { loadProgramme } from "../programme/programme-input";
 import { cautionFor } from "../programme/cautions";
 import { schedule } from "../programme/programme.service";
@@ -184,7 +185,7 @@ export async function answerByLink(
   token: string,
   body: z.output<typeof linkAnswerBodySchema>,
 ): Promise<LinkPageResponse> {
-  await deps.ds.transaction(async (m) => {
+  await lockingTransaction(deps.ds, async (m) => {
     const { l, current } = await resolve(m, token);
     // Cancelled first: a cancelled booking's link is never current, and "the dates changed" is untrue.
     if (l.booking.state === "cancelled")

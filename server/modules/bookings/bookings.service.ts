@@ -17,6 +17,12 @@ import type {
   recordAnswerBodySchema,
 } from "../../../shared/schemas";
 import { newId } from "../../db/columns";
+import {
+  lockingTransaction,
+  lockJob,
+  lockJobRow,
+  lockJobTrades,
+} from "../../db/locks";
 import { HttpError, notFound } from "../../http/errors";
 import { authorize, requireActor, type Actor } from "../../policies";
 import { audit } from "../audit/audit.service";
@@ -117,11 +123,25 @@ interface Loaded {
   trade: Trade;
 }
 
+/**
+ * Loads a booking with its job, task, trade and workshop. `lock` takes the locking rule's locks
+ * (server/db/locks.ts) in its order — the job's row, the trades on the job and the booking's own
+ * trade, then the booking's row — so it must run in a `lockingTransaction`.
+ */
 async function loadBooking(
   m: EntityManager,
   bookingId: string,
   lock = false,
 ): Promise<Loaded> {
+  if (lock) {
+    const seen = await m.findOne(Booking, {
+      where: { id: bookingId },
+      select: { id: true, jobId: true, tradeId: true },
+    });
+    if (!seen) throw notFound("That booking");
+    await lockJobRow(m, seen.jobId);
+    await lockJobTrades(m, seen.jobId, [seen.tradeId]);
+  }
   const booking = await m.findOne(Booking, {
     where: { id: bookingId },
     ...(lock ? { lock: { mode: "pessimistic_write" as const } } : {}),
@@ -137,12 +157,12 @@ async function loadBooking(
 }
 
 async function authorizeBooking(
-  ds: DataSource,
+  m: EntityManager,
   actor: Actor | null,
   l: Loaded,
 ) {
   requireActor(actor);
-  authorize(actor, "bookings.manage", await jobResource(ds, l.job));
+  authorize(actor, "bookings.manage", await jobResource(m, l.job));
 }
 
 /** Adds an entry to the booking's history (who, when, how, why). */
@@ -232,7 +252,7 @@ export async function bookingOptions(
   requireActor(actor);
   const job = await ds.manager.findOneBy(Job, { id: jobId });
   if (!job) throw notFound("That job");
-  authorize(actor, "bookings.manage", await jobResource(ds, job));
+  authorize(actor, "bookings.manage", await jobResource(ds.manager, job));
   const task = await ds.manager.findOneBy(Task, { id: taskId, jobId });
   if (!task) throw notFound("That task");
   if (task.party === "workshop")
@@ -346,6 +366,25 @@ async function checkBooking(
   };
 }
 
+/** The clash answer: what is in the way, and the trade's next free start (also as a field). */
+function clashRefusal(
+  check: { problems: string[]; nextFree: string | null },
+  then = "Choose another start, or give a reason to book anyway.",
+): HttpError {
+  const next = check.nextFree
+    ? ` Their next free start is ${dayWords(check.nextFree)}${check.nextFree.endsWith("T12:00") ? " afternoon" : ""}.`
+    : "";
+  return new HttpError(
+    409,
+    "conflict",
+    `${check.problems.join(" ")}${next} ${then}`,
+    {
+      start: check.problems,
+      ...(check.nextFree ? { nextFreeStart: [check.nextFree] } : {}),
+    },
+  );
+}
+
 async function presentBooking(
   m: EntityManager,
   b: Booking,
@@ -410,7 +449,7 @@ export async function listJobBookings(
   requireActor(actor);
   const job = await ds.manager.findOneBy(Job, { id: jobId });
   if (!job) throw notFound("That job");
-  authorize(actor, "bookings.manage", await jobResource(ds, job));
+  authorize(actor, "bookings.manage", await jobResource(ds.manager, job));
   const bookings = await ds.manager.find(Booking, {
     where: { jobId },
     order: { start: "ASC" },
@@ -447,13 +486,9 @@ export async function createBooking(
 ): Promise<BookingResponse> {
   requireActor(actor);
   const { ds } = deps;
-  const id = await ds.transaction(async (m) => {
-    const job = await m.findOne(Job, {
-      where: { id: jobId },
-      lock: { mode: "pessimistic_write" },
-    });
-    if (!job) throw notFound("That job");
-    authorize(actor, "bookings.manage", await jobResource(ds, job));
+  const id = await lockingTransaction(ds, async (m) => {
+    const job = await lockJob(m, jobId);
+    authorize(actor, "bookings.manage", await jobResource(m, job));
     const task = await m.findOneBy(Task, { id: body.taskId, jobId });
     if (!task)
       throw new HttpError(
@@ -487,6 +522,9 @@ export async function createBooking(
         `This task is for a ${task.party}; ${trade.businessName} is a ${trade.kind}.`,
         { tradeId: ["Choose a trade of the task's kind"] },
       );
+    // Serialise bookings per trade (issue 13, item 3): two sends for one trade's half-day on two
+    // jobs at once would otherwise both pass the clash check below.
+    await lockJobTrades(m, jobId, [trade.id]);
     const standing = await m.findOneBy(Booking, {
       taskId: task.id,
       state: In([...PINNING_STATES, "draft"]),
@@ -507,20 +545,8 @@ export async function createBooking(
           ? `${body.start}T${trade.dayStart}`
           : body.start;
     const check = await checkBooking(m, job, workshop, trade, task.id, start);
-    if (check.problems.length && !body.overrideReason) {
-      const next = check.nextFree
-        ? ` Their next free start is ${dayWords(check.nextFree)}${check.nextFree.endsWith("T12:00") ? " afternoon" : ""}.`
-        : "";
-      throw new HttpError(
-        409,
-        "conflict",
-        `${check.problems.join(" ")}${next} Choose another start, or give a reason to book anyway.`,
-        {
-          start: check.problems,
-          ...(check.nextFree ? { nextFreeStart: [check.nextFree] } : {}),
-        },
-      );
-    }
+    if (check.problems.length && !body.overrideReason)
+      throw clashRefusal(check);
     const b = m.create(Booking, {
       id: newId(),
       workshopId: job.workshopId,
@@ -644,9 +670,9 @@ async function changeBooking(
   change: (m: EntityManager, l: Loaded) => Promise<void>,
 ): Promise<BookingResponse> {
   const { ds } = deps;
-  await ds.transaction(async (m) => {
+  await lockingTransaction(ds, async (m) => {
     const l = await loadBooking(m, bookingId, true);
-    await authorizeBooking(ds, actor, l);
+    await authorizeBooking(m, actor, l);
     await change(m, l);
   });
   return presentBooking(
@@ -667,6 +693,21 @@ export async function sendBooking(
         409,
         "conflict",
         `This booking is ${l.booking.state}, not a draft; use chase to send it again.`,
+      );
+    // A draft holds no dates, so the slot may have gone since it was made: checked again under
+    // the trade's lock, unless it was booked despite a clash with a reason.
+    const check = await checkBooking(
+      m,
+      l.job,
+      l.workshop,
+      l.trade,
+      l.task.id,
+      l.booking.start,
+    );
+    if (check.problems.length && !l.booking.overrideReason)
+      throw clashRefusal(
+        check,
+        "Cancel this draft and book another start, or book it again with a reason.",
       );
     await sendInTransaction(m, deps, l, actor!.userId, "invitation");
     await bumpJob(m, l.job);
@@ -829,6 +870,11 @@ export async function decideProposal(
         l.task.id,
         b.proposedStart,
       );
+      if (check.problems.length)
+        throw clashRefusal(
+          check,
+          "Reject this proposal to ask them for the booked start again.",
+        );
       b.start = b.proposedStart;
       b.finish = check.finish;
       b.proposedStart = null;
@@ -993,7 +1039,7 @@ export async function copyLink(
   bookingId: string,
 ): Promise<{ url: string }> {
   const l = await loadBooking(deps.ds.manager, bookingId);
-  await authorizeBooking(deps.ds, actor, l);
+  await authorizeBooking(deps.ds.manager, actor, l);
   if (l.booking.state === "draft")
     throw new HttpError(
       409,
@@ -1066,9 +1112,9 @@ export async function reconfirmAfterChange(
 ): Promise<string[]> {
   const moved: string[] = [];
   for (const r of impact.reconfirm) {
+    // Found unlocked: loadBooking below takes the locks in the rule's order.
     const booking = await m.findOne(Booking, {
       where: { taskId: r.task, state: In([...PINNING_STATES]) },
-      lock: { mode: "pessimistic_write" },
     });
     if (!booking || booking.start === r.proposedStart) continue;
     const l = await loadBooking(m, booking.id, true);

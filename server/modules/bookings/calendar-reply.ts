@@ -1,5 +1,6 @@
 import type { DataSource } from "typeorm";
 import type { InboundMail } from "../../infra/mail/inbound";
+import { lockingTransaction } from "../../db/locks";
 import { Booking } from "./bookings.entity";
 import { applyAnswer, loadBooking, type BookingDeps } from "./bookings.service";
 import { parseItipReply } from "./itip-reply";
@@ -31,10 +32,11 @@ export async function receiveCalendarReply(
   const parsed = parseItipReply(part.content);
   if (!parsed.ok) throw new Error(parsed.problem);
   const reply = parsed.reply;
-  await ds.transaction(async (m) => {
-    const booking = await m.findOneBy(Booking, { id: bookingId });
-    if (!booking) throw new Error("Unknown booking");
-    const l = await loadBooking(m, booking.id, true);
+  await lockingTransaction(ds, async (m) => {
+    const known = await m.findOneBy(Booking, { id: bookingId });
+    if (!known) throw new Error("Unknown booking");
+    const l = await loadBooking(m, known.id, true);
+    const booking = l.booking; // as it stands under the lock
     const trade = l.trade.email.toLowerCase();
     if (
       mail.from.toLowerCase() !== trade ||

@@ -21,7 +21,7 @@ export async function drawingJobAccess(
   ds: DataSource,
   job: Job,
 ): Promise<DrawingJobAccess> {
-  const resource = await jobResource(ds, job);
+  const resource = await jobResource(ds.manager, job);
   const ids = [...resource.activeTradeIds];
   const trades = ids.length
     ? await ds.manager.findBy(Trade, { id: In(ids) })

@@ -105,7 +105,7 @@ export function registerFeedRoutes(api: ApiRoutes, deps: FeedDeps): void {
     params: feedTokenParamsSchema,
     handler: async ({ req, res, params }) => {
       const feed = await feedForToken(ds, params.token);
-      const owner = feed && (await loadSessionUser(ds, feed.userId));
+      const owner = feed && (await loadSessionUser(ds.manager, feed.userId));
       if (!feed || !owner) throw notFound("That calendar feed");
       const content = await feedContent(
         ds.manager,

@@ -1,4 +1,4 @@
-import type { DataSource } from "typeorm";
+import type { EntityManager } from "typeorm";
 import type { JobResource } from "../../policies";
 import type { BookingState } from "../../../shared/schemas";
 import { Booking } from "../bookings/bookings.entity";
@@ -12,12 +12,16 @@ export const ACTIVE_STATES: BookingState[] = [
   "needs-reconfirming",
 ];
 
-/** The policy's view of a job: its workshop, customer and the trades booked on it. */
+/**
+ * The policy's view of a job: its workshop, customer and the trades booked on it. It reads through
+ * the caller's EntityManager: inside a transaction, that transaction's connection (asking the pool
+ * for a second one while holding a row lock is how issue 13's burst deadlocked the pool).
+ */
 export async function jobResource(
-  ds: DataSource,
+  m: EntityManager,
   job: Job,
 ): Promise<JobResource> {
-  const bookings = await ds
+  const bookings = await m
     .getRepository(Booking)
     .find({ where: { jobId: job.id }, select: { tradeId: true, state: true } });
   return {

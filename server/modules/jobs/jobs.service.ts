@@ -121,7 +121,7 @@ export async function getJob(
 ): Promise<JobDetail> {
   requireActor(actor);
   const job = await loadJob(ds, jobId);
-  const resource = await jobResource(ds, job);
+  const resource = await jobResource(ds.manager, job);
   authorize(actor, "job.read", resource);
   const [workshop, customer, tasks, links, bookings] = await Promise.all([
     ds.getRepository(Workshop).findOneByOrFail({ id: job.workshopId }),
@@ -204,7 +204,7 @@ export async function updateJob(
 ): Promise<JobDetail> {
   requireActor(actor);
   const job = await loadJob(ds, jobId);
-  authorize(actor, "job.update", await jobResource(ds, job));
+  authorize(actor, "job.update", await jobResource(ds.manager, job));
   const { version, ...changes } = body;
   await ds.transaction(async (m) => {
     // Optimistic lock: the UPDATE matches only the version the editor saw.
@@ -243,7 +243,7 @@ export async function deleteJob(
 ): Promise<void> {
   requireActor(actor);
   const job = await loadJob(ds, jobId);
-  authorize(actor, "job.delete", await jobResource(ds, job));
+  authorize(actor, "job.delete", await jobResource(ds.manager, job));
   // The job's drawings and thread attachments go with it (foreign keys cascade); their files are
   // rows and bucket objects of their own, removed once the deletion has committed.
   const fileIds: { fileId: string }[] = await ds.query(

@@ -20,6 +20,7 @@ import {
   type updateTaskBodySchema,
 } from "../../../shared/schemas";
 import { newId } from "../../db/columns";
+import { lockingTransaction, lockJob, lockJobTrades } from "../../db/locks";
 import { HttpError, notFound } from "../../http/errors";
 import { authorize, requireActor, type Actor } from "../../policies";
 import { AuditEntry } from "../audit/audit.entity";
@@ -98,15 +99,8 @@ function present(
   };
 }
 
-async function loadJob(
-  m: EntityManager,
-  jobId: string,
-  lock: boolean,
-): Promise<Job> {
-  const job = await m.findOne(Job, {
-    where: { id: jobId },
-    ...(lock ? { lock: { mode: "pessimistic_write" as const } } : {}),
-  });
+async function loadJob(m: EntityManager, jobId: string): Promise<Job> {
+  const job = await m.findOneBy(Job, { id: jobId });
   if (!job) throw notFound("That job");
   return job;
 }
@@ -118,8 +112,8 @@ export async function getProgramme(
   jobId: string,
 ): Promise<ProgrammeResponse> {
   requireActor(actor);
-  const job = await loadJob(ds.manager, jobId, false);
-  authorize(actor, "job.readFull", await jobResource(ds, job));
+  const job = await loadJob(ds.manager, jobId);
+  authorize(actor, "job.readFull", await jobResource(ds.manager, job));
   const workshop = await ds.manager.findOneByOrFail(Workshop, {
     id: job.workshopId,
   });
@@ -158,10 +152,25 @@ async function changesSince(
   return what.length ? ` Since you loaded it: ${what.join("; ")}.` : "";
 }
 
+/** The 409 for an edit made on an older version, saying who changed what since. */
+async function staleVersion(
+  m: EntityManager,
+  job: Job,
+  version: number,
+): Promise<HttpError> {
+  return new HttpError(
+    409,
+    "version-conflict",
+    `Someone else changed this programme (now version ${job.version}, you had ${version}).${await changesSince(m, job, version)} Reload to see it, then make your change again.`,
+  );
+}
+
 /**
- * One programme edit, all or nothing: lock the job row, refuse a stale version (409, saying what
- * changed), apply, re-check the whole programme with the engine (a loop → 422), bump the version
- * and leave an audit entry.
+ * One programme edit, all or nothing: refuse a stale version at once from an unlocked read (so
+ * it never queues for the lock), then lock the job row and the trades booked on it (the locking
+ * rule in server/db/locks.ts), check the version again, apply, re-check the whole programme with
+ * the engine (a loop → 422), bump the version and leave an audit entry. Everything inside reads
+ * and writes through `m`, the transaction's one connection.
  */
 async function editProgramme<T>(
   ds: DataSource,
@@ -172,16 +181,14 @@ async function editProgramme<T>(
   apply: (m: EntityManager, job: Job) => Promise<T>,
 ): Promise<{ value: T; job: Job }> {
   requireActor(actor);
-  return ds.transaction(async (m) => {
-    const job = await loadJob(m, jobId, true);
-    authorize(actor, "job.update", await jobResource(ds, job));
-    if (job.version !== version) {
-      throw new HttpError(
-        409,
-        "version-conflict",
-        `Someone else changed this programme (now version ${job.version}, you had ${version}).${await changesSince(m, job, version)} Reload to see it, then make your change again.`,
-      );
-    }
+  const seen = await loadJob(ds.manager, jobId);
+  authorize(actor, "job.update", await jobResource(ds.manager, seen));
+  if (seen.version !== version)
+    throw await staleVersion(ds.manager, seen, version);
+  return lockingTransaction(ds, async (m) => {
+    const job = await lockJob(m, jobId);
+    if (job.version !== version) throw await staleVersion(m, job, version);
+    await lockJobTrades(m, job.id);
     const value = await apply(m, job);
     const workshop = await m.findOneByOrFail(Workshop, { id: job.workshopId });
     schedule((await loadProgramme(m, job, workshop)).input);

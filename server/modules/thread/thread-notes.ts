@@ -1,7 +1,8 @@
 import type { EntityManager } from "typeorm";
 import type { ThreadAudience } from "../../../shared/schemas";
 import { newId } from "../../db/columns";
-import { Job } from "../jobs/jobs.entity";
+import { lockJobRow } from "../../db/locks";
+import type { Job } from "../jobs/jobs.entity";
 import {
   ThreadMessage,
   type ThreadAuthorRole,
@@ -34,12 +35,8 @@ export async function insertThreadMessage(
   m: EntityManager,
   msg: NewThreadMessage,
 ): Promise<ThreadMessage> {
-  await m
-    .createQueryBuilder(Job, "j")
-    .setLock("pessimistic_write")
-    .select("j.id")
-    .where("j.id = :id", { id: msg.jobId })
-    .getOne();
+  // Waits at most LOCK_WAIT_SECONDS, like every lock on a job's row (server/db/locks.ts).
+  await lockJobRow(m, msg.jobId);
   const id = newId();
   const res = await m.insert(ThreadMessage, {
     id,

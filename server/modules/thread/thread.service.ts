@@ -76,7 +76,7 @@ async function loadThreadJob(
   requireActor(actor);
   const job = await ds.manager.findOneBy(Job, { id: jobId });
   if (!job) throw notFound("That job");
-  const resource = await jobResource(ds, job);
+  const resource = await jobResource(ds.manager, job);
   const audiences = threadAudiencesFor(actor, resource);
   // Nobody who sees the job lacks "Whole job", so this throws 404 for everyone else.
   if (!audiences.length) authorize(actor, "thread.audience.job", resource);
@@ -217,7 +217,6 @@ function refuseAudience(t: ThreadJob, audience: ThreadAudience): never {
 
 /** The people who see an audience of the job and have an account: the workshop, the trades on the job, the customer — each checked by the policy. */
 async function recipientsFor(
-  ds: DataSource,
   m: EntityManager,
   t: ThreadJob,
   audience: ThreadAudience,
@@ -236,7 +235,7 @@ async function recipientsFor(
   ]);
   const out: string[] = [];
   for (const userId of candidates) {
-    const loaded = await loadSessionUser(ds, userId);
+    const loaded = await loadSessionUser(m, userId);
     if (loaded && can(loaded.actor, `thread.audience.${audience}`, t.resource))
       out.push(userId);
   }
@@ -245,7 +244,6 @@ async function recipientsFor(
 
 /** Owes each recipient a notice: the first message of a window sets `dueAt`; later ones join it. */
 async function scheduleNotices(
-  ds: DataSource,
   m: EntityManager,
   deps: Pick<ThreadDeps, "noticeDelayMs">,
   t: ThreadJob,
@@ -254,7 +252,7 @@ async function scheduleNotices(
   now: Date,
 ): Promise<void> {
   const due = new Date(now.getTime() + deps.noticeDelayMs);
-  for (const userId of await recipientsFor(ds, m, t, audience)) {
+  for (const userId of await recipientsFor(m, t, audience)) {
     if (userId === authorUserId) continue;
     await m.query(
       "INSERT INTO `thread_notices` (`id`, `userId`, `jobId`, `dueAt`, `lastNoticedSeq`) VALUES (?, ?, ?, ?, 0) " +
@@ -289,7 +287,6 @@ async function writeMessage(
         position,
       });
     await scheduleNotices(
-      ds,
       m,
       deps,
       t,
@@ -536,12 +533,12 @@ export async function sendThreadNotices(
       const notice = await m.findOneByOrFail(ThreadNotice, { id: d.id });
       const [job, loaded] = await Promise.all([
         m.findOneBy(Job, { id: notice.jobId }),
-        loadSessionUser(ds, notice.userId),
+        loadSessionUser(m, notice.userId),
       ]);
       if (!job || !loaded) return false;
       const audiences = threadAudiencesFor(
         loaded.actor,
-        await jobResource(ds, job),
+        await jobResource(m, job),
       );
       if (!audiences.length) return false;
       const from = Math.max(

@@ -7,6 +7,7 @@ import {
   type TimelineResponse,
 } from "../../../shared/schemas";
 import { newId } from "../../db/columns";
+import { lockingTransaction, lockJob } from "../../db/locks";
 import { HttpError, notFound } from "../../http/errors";
 import { authorize, requireActor, type Actor } from "../../policies";
 import { audit } from "../audit/audit.service";
@@ -32,18 +33,18 @@ import {
 } from "./timeline.presenter";
 import { TimelineView } from "./timeline.entity";
 
-async function loadJob(
-  m: EntityManager,
-  jobId: string,
-  lock = false,
-): Promise<Job> {
-  const job = await m.findOne(Job, {
-    where: { id: jobId },
-    ...(lock ? { lock: { mode: "pessimistic_write" as const } } : {}),
-  });
+async function loadJob(m: EntityManager, jobId: string): Promise<Job> {
+  const job = await m.findOneBy(Job, { id: jobId });
   if (!job) throw notFound("That job");
   return job;
 }
+
+const changedSinceLoaded = () =>
+  new HttpError(
+    409,
+    "version-conflict",
+    "The visits changed since this page was loaded. Reload to see them.",
+  );
 
 /**
  * Every visit of the job, as the customer sees it: the trades' bookings that stand (sent,
@@ -166,7 +167,7 @@ export async function getTimeline(
 ): Promise<TimelineResponse> {
   requireActor(actor);
   const job = await loadJob(ds.manager, jobId);
-  authorize(actor, "timeline.read", await jobResource(ds, job));
+  authorize(actor, "timeline.read", await jobResource(ds.manager, job));
   return (await build(ds.manager, actor, job)).response;
 }
 
@@ -182,15 +183,13 @@ export async function markTimelineSeen(
   version: number,
 ): Promise<{ seenAt: string }> {
   requireActor(actor);
-  return ds.transaction(async (m) => {
-    const job = await loadJob(m, jobId, true);
-    authorize(actor, "timeline.read", await jobResource(ds, job));
-    if (job.version !== version)
-      throw new HttpError(
-        409,
-        "version-conflict",
-        "The visits changed since this page was loaded. Reload to see them.",
-      );
+  // A stale version is refused from an unlocked read, before queueing for the job's lock.
+  const seen = await loadJob(ds.manager, jobId);
+  authorize(actor, "timeline.read", await jobResource(ds.manager, seen));
+  if (seen.version !== version) throw changedSinceLoaded();
+  return lockingTransaction(ds, async (m) => {
+    const job = await lockJob(m, jobId);
+    if (job.version !== version) throw changedSinceLoaded();
     const { rows } = await build(m, actor, job);
     const seenAt = new Date();
     const seen = snapshotOf(rows, job.handoverDate);
@@ -261,9 +260,9 @@ export async function setAwayDates(
   body: SetAwayDatesBody,
 ): Promise<TimelineResponse> {
   requireActor(actor);
-  return ds.transaction(async (m) => {
-    const job = await loadJob(m, jobId, true);
-    authorize(actor, "awayDates.update", await jobResource(ds, job));
+  return lockingTransaction(ds, async (m) => {
+    const job = await lockJob(m, jobId);
+    authorize(actor, "awayDates.update", await jobResource(m, job));
     const today = localToday(job.timeZone);
     checkRanges(body.ranges, today);
     const kept = job.siteClosedDates.filter((d) => d < today);

@@ -1,4 +1,4 @@
-import type { DataSource } from "typeorm";
+import type { EntityManager } from "typeorm";
 import type { Actor } from "../../policies";
 import type { SessionUser } from "../../../shared/schemas";
 import { User } from "./users.entity";
@@ -6,21 +6,24 @@ import { Workshop, WorkshopMember } from "../workshops/workshops.entity";
 import { Trade, TradeMember } from "../trades/trades.entity";
 import { Customer } from "../customers/customers.entity";
 
-/** Everything a signed-in person is: their memberships, the trades they speak for, their customer records. */
+/**
+ * Everything a signed-in person is: their memberships, the trades they speak for, their customer
+ * records. Read through the caller's EntityManager (inside a transaction, its own connection).
+ */
 export async function loadSessionUser(
-  ds: DataSource,
+  m: EntityManager,
   userId: string,
 ): Promise<{ user: SessionUser; actor: Actor } | null> {
-  const user = await ds.getRepository(User).findOneBy({ id: userId });
+  const user = await m.getRepository(User).findOneBy({ id: userId });
   if (!user) return null;
   const [members, tradeLinks, customers] = await Promise.all([
-    ds
+    m
       .getRepository(WorkshopMember)
       .find({ where: { userId }, relations: { workshop: true } }),
-    ds
+    m
       .getRepository(TradeMember)
       .find({ where: { userId }, relations: { trade: true, workshop: true } }),
-    ds
+    m
       .getRepository(Customer)
       .find({ where: { userId }, relations: { workshop: true } }),
   ]);

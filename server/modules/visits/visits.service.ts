@@ -16,6 +16,7 @@ import type {
   runningLateBodySchema,
   visitProgressBodySchema,
 } from "../../../shared/schemas";
+import { lockingTransaction } from "../../db/locks";
 import { HttpError, notFound } from "../../http/errors";
 import {
   authorize,
@@ -248,7 +249,7 @@ export async function myVisits(
   for (const b of bookings) {
     // The policy decides per booking, as for any single visit.
     const job = await m.findOneByOrFail(Job, { id: b.jobId });
-    const resource = await jobResource(ds, job);
+    const resource = await jobResource(m, job);
     authorize(actor, "visit.read", visitResource(b, resource));
     let ctx = contexts.get(job.id);
     if (!ctx) {
@@ -270,7 +271,6 @@ export async function myVisits(
 
 /** Loads one booking and checks the person may see it as their visit (404 otherwise) and do `action`. */
 async function loadVisit(
-  ds: DataSource,
   m: EntityManager,
   actor: Actor | null,
   bookingId: string,
@@ -286,7 +286,7 @@ async function loadVisit(
   authorize(
     actor,
     action,
-    visitResource(l.booking, await jobResource(ds, l.job)),
+    visitResource(l.booking, await jobResource(m, l.job)),
   );
   return l;
 }
@@ -297,8 +297,8 @@ async function oneVisit(
   bookingId: string,
 ): Promise<Visit> {
   const m = ds.manager;
-  const l = await loadVisit(ds, m, actor, bookingId, "visit.read");
-  const resource = await jobResource(ds, l.job);
+  const l = await loadVisit(m, actor, bookingId, "visit.read");
+  const resource = await jobResource(m, l.job);
   const onJob = [...resource.activeTradeIds].some(
     (id) => actor.trades.get(id) === l.job.workshopId,
   );
@@ -313,7 +313,7 @@ export async function getVisit(
   actor: Actor | null,
   bookingId: string,
 ): Promise<VisitDetailResponse> {
-  const l = await loadVisit(ds, ds.manager, actor, bookingId, "visit.read");
+  const l = await loadVisit(ds.manager, actor, bookingId, "visit.read");
   return {
     visit: await oneVisit(ds, actor!, bookingId),
     page: await bookingPage(ds.manager, l, true),
@@ -329,8 +329,8 @@ export async function answerVisit(
   bookingId: string,
   body: z.output<typeof linkAnswerBodySchema>,
 ): Promise<VisitDetailResponse> {
-  await deps.ds.transaction(async (m) => {
-    const l = await loadVisit(deps.ds, m, actor, bookingId, "visit.act", true);
+  await lockingTransaction(deps.ds, async (m) => {
+    const l = await loadVisit(m, actor, bookingId, "visit.act", true);
     if (l.task.actualStart)
       throw new HttpError(
         409,
@@ -371,8 +371,16 @@ export async function answerVisit(
   return getVisit(deps.ds, actor, bookingId);
 }
 
+const staleVisitVersion = () =>
+  new HttpError(
+    409,
+    "version-conflict",
+    "The programme changed since you looked; check the knock-on again.",
+  );
+
 /**
- * One change to the programme made by the trade on their own task: the job row locked, the
+ * One change to the programme made by the trade on their own task: a stale version refused from
+ * an unlocked read, then the locking rule's locks (job, its trades, the booking: loadBooking), the
  * version moved and audited like the workshop's edits, the whole programme re-checked by the
  * engine, and any booking the change moves sent to its trade to confirm again.
  */
@@ -384,19 +392,20 @@ async function tradeEdit<T>(
   change: (m: EntityManager, l: Loaded, before: ProgrammeInput) => Promise<T>,
   version?: number,
 ): Promise<T> {
-  return deps.ds.transaction(async (m) => {
-    const l = await loadVisit(deps.ds, m, actor, bookingId, "visit.act", true);
-    const job = await m.findOneOrFail(Job, {
-      where: { id: l.job.id },
-      lock: { mode: "pessimistic_write" },
-    });
-    l.job = job;
+  if (version !== undefined) {
+    const seen = await loadVisit(
+      deps.ds.manager,
+      actor,
+      bookingId,
+      "visit.act",
+    );
+    if (seen.job.version !== version) throw staleVisitVersion();
+  }
+  return lockingTransaction(deps.ds, async (m) => {
+    const l = await loadVisit(m, actor, bookingId, "visit.act", true);
+    const job = l.job; // read after the job's lock, so as it stands
     if (version !== undefined && job.version !== version)
-      throw new HttpError(
-        409,
-        "version-conflict",
-        "The programme changed since you looked; check the knock-on again.",
-      );
+      throw staleVisitVersion();
     const before = (await loadProgramme(m, job, l.workshop)).input;
     const value = await change(m, l, before);
     const after = (await loadProgramme(m, job, l.workshop)).input;
@@ -499,8 +508,8 @@ export async function runningLate(
   bookingId: string,
   body: z.output<typeof runningLateBodySchema>,
 ): Promise<Visit> {
-  await deps.ds.transaction(async (m) => {
-    const l = await loadVisit(deps.ds, m, actor, bookingId, "visit.act", true);
+  await lockingTransaction(deps.ds, async (m) => {
+    const l = await loadVisit(m, actor, bookingId, "visit.act", true);
     requireConfirmed(l, "reported late");
     const [today] = localNow(l.job.timeZone);
     if (l.task.actualFinish || dateOf(l.booking.finish) < today)
@@ -594,7 +603,7 @@ export async function previewExtend(
   bookingId: string,
 ): Promise<ExtendImpact> {
   const m = deps.ds.manager;
-  const l = await loadVisit(deps.ds, m, actor, bookingId, "visit.act");
+  const l = await loadVisit(m, actor, bookingId, "visit.act");
   requireConfirmed(l, "extended");
   if (l.task.actualFinish)
     throw new HttpError(409, "conflict", "This task is done.");
