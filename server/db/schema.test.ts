@@ -32,11 +32,11 @@ async function describe(database: string) {
   });
   try {
     const [columns] = await conn.query(
-      "SELECT TABLE_NAME t, COLUMN_NAME c, COLUMN_TYPE type, IS_NULLABLE n, COLUMN_DEFAULT d, EXTRA e FROM COLUMNS WHERE TABLE_SCHEMA = ? AND TABLE_NAME NOT IN ('migrations','sessions') ORDER BY t, c",
+      "SELECT TABLE_NAME t, COLUMN_NAME c, COLUMN_TYPE type, IS_NULLABLE n, COLUMN_DEFAULT d, EXTRA e FROM COLUMNS WHERE TABLE_SCHEMA = ? AND TABLE_NAME NOT IN ('migrations','sessions','rate_limits') ORDER BY t, c",
       [database],
     );
     const [indexes] = await conn.query(
-      "SELECT TABLE_NAME t, INDEX_NAME i, NON_UNIQUE u, GROUP_CONCAT(COLUMN_NAME ORDER BY SEQ_IN_INDEX) cols FROM STATISTICS WHERE TABLE_SCHEMA = ? AND TABLE_NAME NOT IN ('migrations','sessions') GROUP BY t, i, u ORDER BY t, cols, u",
+      "SELECT TABLE_NAME t, INDEX_NAME i, NON_UNIQUE u, GROUP_CONCAT(COLUMN_NAME ORDER BY SEQ_IN_INDEX) cols FROM STATISTICS WHERE TABLE_SCHEMA = ? AND TABLE_NAME NOT IN ('migrations','sessions','rate_limits') GROUP BY t, i, u ORDER BY t, cols, u",
       [database],
     );
     const [fks] = await conn.query(

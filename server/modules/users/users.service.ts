@@ -10,7 +10,7 @@ import { Customer } from "../customers/customers.entity";
 export async function loadSessionUser(
   ds: DataSource,
   userId: string,
-): Promise<{ user: SessionUser; actor: Actor } | null> {
+): Promise<{ user: SessionUser; actor: Actor; generation: number } | null> {
   const user = await ds.getRepository(User).findOneBy({ id: userId });
   if (!user) return null;
   const [members, tradeLinks, customers] = await Promise.all([
@@ -53,5 +53,5 @@ export async function loadSessionUser(
     trades: new Map(tradeLinks.map((t) => [t.tradeId, t.workshopId])),
     customers: new Map(customers.map((c) => [c.id, c.workshopId])),
   };
-  return { user: sessionUser, actor };
+  return { user: sessionUser, actor, generation: user.sessionGeneration };
 }
