@@ -48,12 +48,12 @@ describe("a lone surrogate in a string", () => {
     const res = await postRaw(
       `/api/workshops/${workshopId}/trades`,
       JSON.stringify({
-        businessName: "Surrogate @ Sparks",
+        businessName: "Surrogate § Sparks",
         kind: "electrician",
-        contactName: "Sam @",
+        contactName: "Sam §",
         email: "sam@surrogate.example.test",
         phone: "01234 567890",
-      }).replace(/@/g, "\\udc00"),
+      }).replace(/§/g, "\\udc00"),
     );
     expect(res.status).toBe(400);
     expect(res.body.error.fields).toEqual({

@@ -117,6 +117,11 @@ export function registerAuthRoutes(
       await new Promise<void>((resolve, reject) =>
         req.logout((err) => (err ? reject(err) : resolve())),
       );
+      // logout() regenerates the session, and express-session would store the new empty one
+      // (the request came with a stored session); destroy it, so an anonymous visitor keeps no row.
+      await new Promise<void>((resolve, reject) =>
+        req.session.destroy((err) => (err ? reject(err) : resolve())),
+      );
       return { user: null, csrfToken: csrfTokenFor(req, res) };
     },
   });
