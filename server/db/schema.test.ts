@@ -24,7 +24,11 @@ afterAll(async () => {
   await synced?.drop();
 });
 
-/** Columns, indexes and foreign keys of a database, as information_schema reports them. */
+/**
+ * Columns, indexes and foreign keys of a database, as information_schema reports them. Tables
+ * owned by libraries (sessions: express-mysql-session; rate_limits: rate-limiter-flexible) have
+ * no entity, so they are left out.
+ */
 async function describe(database: string) {
   const conn = await mysql.createConnection({
     ...adminSettings(),

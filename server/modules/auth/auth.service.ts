@@ -1,5 +1,4 @@
 import type { DataSource, EntityManager } from "typeorm";
-import { IsNull } from "typeorm";
 import { newId } from "../../db/columns";
 import { HttpError } from "../../http/errors";
 import { enqueueMail } from "../../infra/outbox/outbox";
