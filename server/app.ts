@@ -7,8 +7,10 @@ import { Passport } from "passport";
 import { Strategy as LocalStrategy } from "passport-local";
 import type { DataSource } from "typeorm";
 import type { DbSettings } from "./db/data-source";
+import cookieParser from "cookie-parser";
 import { DatabaseWatch } from "./db/database-watch";
 import { csrfProtection } from "./http/csrf";
+import { createLimitStore } from "./http/rate-limit";
 import { errorHandler, notFoundRoute } from "./http/errors";
 import { openApiDocument } from "./http/openapi";
 import { ApiRoutes } from "./http/routes";
@@ -59,7 +61,10 @@ export interface AppDeps {
   production: boolean;
   /** The dev client (Vite) needs inline scripts and a websocket; production does not. */
   devClient?: boolean;
+  /** Failed sign-ins per account (e-mail address), counted across client addresses, per window. */
   signInLimit?: number;
+  /** Failed sign-ins per client address, any account, per window (default 10 × signInLimit). */
+  signInAddressLimit?: number;
   /** Requests per 15 minutes per address to the public booking-link routes. */
   linkLimit?: number;
   /** Domain of per-booking reply addresses (iTIP REPLYs come back to booking-<id>@this). */
@@ -71,6 +76,12 @@ export interface AppDeps {
   version?: string;
   /** Whether the database answers; made here when not given (main.ts shares one with its pollers). */
   database?: DatabaseWatch;
+}
+
+/** What a session stores about its signed-in person (passport's `req.session.passport.user`). */
+interface SessionRef {
+  id: string;
+  generation: number;
 }
 
 export interface SitecueApp {
@@ -170,10 +181,23 @@ export function createApp(deps: AppDeps): SitecueApp {
       },
     ),
   );
-  passport.serializeUser((u, done) => done(null, (u as Express.User).user.id));
-  passport.deserializeUser((id: string, done) => {
-    loadSessionUser(deps.ds.manager, id)
-      .then((loaded) => done(null, loaded ?? false))
+  // The session keeps the person's id and session generation; a new password raises the
+  // generation, so every session signed in before it is no longer signed in (ASVS v4.0.3 3.3.3).
+  passport.serializeUser((u, done) => {
+    const { user, generation } = u as Express.User;
+    done(null, { id: user.id, generation } satisfies SessionRef);
+  });
+  passport.deserializeUser((ref: SessionRef | string, done) => {
+    // A session from before generations (a bare id) is signed out once rather than trusted.
+    if (typeof ref !== "object" || typeof ref?.id !== "string")
+      return done(null, false);
+    loadSessionUser(deps.ds.manager, ref.id)
+      .then((loaded) =>
+        done(
+          null,
+          loaded && loaded.generation === ref.generation ? loaded : false,
+        ),
+      )
       .catch(done);
   });
 
@@ -181,9 +205,14 @@ export function createApp(deps: AppDeps): SitecueApp {
   const authDeps = { ds: deps.ds, mailer: deps.mailer, appUrl: deps.appUrl };
   const database = deps.database ?? new DatabaseWatch({ ds: deps.ds });
   registerHealthRoutes(api, deps.ds, database, version);
+  // Rate-limit counters live in MariaDB, so every app process counts against the same numbers.
+  const limits = createLimitStore(deps.db);
+  const signInLimit = deps.signInLimit ?? 10;
   registerAuthRoutes(api, authDeps, passport, {
-    signInLimit: deps.signInLimit ?? 10,
+    signInLimit,
+    signInAddressLimit: deps.signInAddressLimit ?? signInLimit * 10,
     windowMs: deps.signInWindowMs ?? 15 * 60 * 1000,
+    limits,
   });
   // Uploads (drawings, templates, site photos, thread attachments) go through server/modules/files.
   const files: FilesDeps = {
@@ -202,7 +231,10 @@ export function createApp(deps: AppDeps): SitecueApp {
   registerProgrammeRoutes(api, deps.ds, async (m, job, impact, actorUserId) => {
     await reconfirmAfterChange(m, bookingDeps, job, impact, actorUserId);
   });
-  registerBookingRoutes(api, bookingDeps, { linkLimit: deps.linkLimit ?? 120 });
+  registerBookingRoutes(api, bookingDeps, {
+    linkLimit: deps.linkLimit ?? 120,
+    limits,
+  });
   registerStarterRoutes(api, deps.ds);
   registerWorkshopRoutes(api, authDeps);
   registerTradeRoutes(api, deps.ds);
@@ -235,6 +267,8 @@ export function createApp(deps: AppDeps): SitecueApp {
     // (RFC 9111 §5.2.2.5). Routes that allow caching set their own (downloads, feeds).
     noStore,
     express.json({ limit: "1mb" }),
+    // Signed cookies: an anonymous visitor's CSRF token (server/http/csrf.ts), so no session row.
+    cookieParser(deps.sessionSecret),
     session({
       name: "sitecue.sid",
       secret: deps.sessionSecret,
@@ -269,6 +303,7 @@ export function createApp(deps: AppDeps): SitecueApp {
     close: async () => {
       database.close();
       await store.close();
+      await limits.close();
     },
   };
 }

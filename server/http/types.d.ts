@@ -6,6 +6,8 @@ declare global {
     interface User {
       user: SessionUser;
       actor: Actor;
+      /** The person's session generation when loaded (users.sessionGeneration). */
+      generation: number;
     }
   }
 }

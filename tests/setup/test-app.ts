@@ -2,7 +2,7 @@ import http from "node:http";
 import type { AddressInfo } from "node:net";
 import request from "supertest";
 import type TestAgent from "supertest/lib/agent";
-import { createApp, type SitecueApp } from "../../server/app";
+import { createApp, type AppDeps, type SitecueApp } from "../../server/app";
 import { mountClient } from "../../server/http/client";
 import { createMailer } from "../../server/infra/mail/mailer";
 import { OutboxWorker } from "../../server/infra/outbox/outbox";
@@ -33,6 +33,8 @@ export interface TestApp {
   storage: Storage;
   /** Set when `listen` was asked for: the base URL of a real HTTP server (browser tests). */
   url: string | null;
+  /** What the app was made from: `createApp(t.deps)` is a second app process on the same database. */
+  deps: AppDeps;
   close(): Promise<void>;
 }
 
@@ -45,6 +47,10 @@ export async function startTestApp(
     demo?: boolean;
     listen?: boolean;
     signInLimit?: number;
+    /** Failed sign-ins per client address (any account) before the address is refused. */
+    signInAddressLimit?: number;
+    /** Trust X-Forwarded-For (one proxy), so a test can sign in "from" several addresses. */
+    trustProxy?: boolean;
     /** The upload size limit (default 25 MB, as in production). */
     uploadMaxBytes?: number;
   } = {},
@@ -77,7 +83,7 @@ export async function startTestApp(
   outbox.start();
   let url: string | null = null;
   let server: http.Server | null = null;
-  const deps = {
+  const deps: AppDeps = {
     ds: db.ds,
     db: db.settings,
     mailer,
@@ -88,14 +94,18 @@ export async function startTestApp(
     sessionSecret: process.env.SESSION_SECRET ?? "test-secret-test-secret",
     production: false,
     signInLimit: opts.signInLimit ?? 1000,
+    signInAddressLimit: opts.signInAddressLimit,
+    trustProxy: opts.trustProxy,
   };
   let sitecue: SitecueApp;
+  let madeWith = deps;
   if (opts.listen) {
     // The URL must be known before the app is made (links in e-mails), so listen first.
     server = http.createServer();
     await new Promise<void>((r) => server!.listen(0, "127.0.0.1", r));
     url = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
-    sitecue = createApp({ ...deps, appUrl: url });
+    madeWith = { ...deps, appUrl: url };
+    sitecue = createApp(madeWith);
     await mountClient(sitecue.app, "static");
     server.on("request", sitecue.app);
   } else {
@@ -113,6 +123,7 @@ export async function startTestApp(
     s3,
     storage,
     url,
+    deps: madeWith,
     async close() {
       await outbox.stop();
       await inbound.close();

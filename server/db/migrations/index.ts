@@ -8,6 +8,7 @@ import { StoredFiles1765065600000 } from "./1765065600000-stored-files";
 import { Drawings1765152000000 } from "./1765152000000-Drawings";
 import { TimelineViews1765324800000 } from "./1765324800000-timeline-views";
 import { OutboxFailures1765411200000 } from "./1765411200000-outbox-failures";
+import { AuthHardening1765513200000 } from "./1765513200000-auth-hardening";
 
 /** Migration classes in order (classes, not a glob, so vitest and tsx load them alike). */
 export const migrations = [
@@ -21,4 +22,5 @@ export const migrations = [
   Thread1765238400000,
   TimelineViews1765324800000,
   OutboxFailures1765411200000,
+  AuthHardening1765513200000,
 ];

@@ -39,6 +39,8 @@ export class AuthToken {
   @JsonColumn() grant!: TokenGrant;
   @InstantColumn() expiresAt!: Date;
   @InstantColumn({ nullable: true }) usedAt!: Date | null;
+  /** Set when another link of the person's set their password first (the newer one wins). */
+  @InstantColumn({ nullable: true }) voidedAt!: Date | null;
   @CreatedColumn() createdAt!: Date;
 
   @ManyToOne(() => User, { onDelete: "CASCADE" })

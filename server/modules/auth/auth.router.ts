@@ -1,6 +1,6 @@
 import type { Authenticator } from "passport";
 import type { Request, Response } from "express";
-import { limitRequests } from "../../http/rate-limit";
+import { limitRequests, type LimitStore } from "../../http/rate-limit";
 import { z } from "zod";
 import {
   passwordResetBodySchema,
@@ -14,6 +14,7 @@ import { csrfTokenFor } from "../../http/csrf";
 import { HttpError } from "../../http/errors";
 import type { ApiRoutes } from "../../http/routes";
 import { loadSessionUser } from "../users/users.service";
+import { signInLimits } from "./sign-in-limits";
 import {
   requestPasswordReset,
   setPasswordWithToken,
@@ -22,21 +23,13 @@ import {
 } from "./auth.service";
 
 export interface AuthRouteOptions {
-  /** Attempts per window per client address for sign-in and link use. */
+  /** Failed sign-ins per account per window (counted across addresses); link use gets 3×. */
   signInLimit: number;
+  /** Failed sign-ins per client address per window (any account). */
+  signInAddressLimit: number;
   windowMs: number;
-}
-
-function limiter(
-  opts: AuthRouteOptions,
-  extra: { limit?: number; skipSuccessfulRequests?: boolean } = {},
-) {
-  return limitRequests({
-    windowMs: opts.windowMs,
-    limit: extra.limit ?? opts.signInLimit,
-    onlyFailures: extra.skipSuccessfulRequests,
-    message: "Too many attempts. Wait a few minutes and try again.",
-  });
+  /** The shared rate-limit counters (MariaDB). */
+  limits: LimitStore;
 }
 
 const login = (req: Request, user: Express.User) =>
@@ -65,12 +58,21 @@ export function registerAuthRoutes(
   passport: Pick<Authenticator, "authenticate">,
   opts: AuthRouteOptions,
 ): void {
-  const attempts = limiter(opts, { skipSuccessfulRequests: true });
-  // Link use and reset requests have their own budget, three times the sign-in one.
-  const links = limiter(opts, { limit: opts.signInLimit * 3 });
-  const session = (req: Request) => ({
+  const countSignIn = signInLimits(opts.limits, {
+    accountLimit: opts.signInLimit,
+    addressLimit: opts.signInAddressLimit,
+    windowMs: opts.windowMs,
+  });
+  // Link use and reset requests have their own per-address budget, three times the sign-in one.
+  const links = limitRequests(opts.limits, {
+    name: "auth-links",
+    windowMs: opts.windowMs,
+    limit: opts.signInLimit * 3,
+    message: "Too many attempts.",
+  });
+  const session = (req: Request, res: Response) => ({
     user: req.user?.user ?? null,
-    csrfToken: csrfTokenFor(req),
+    csrfToken: csrfTokenFor(req, res),
   });
 
   api.add({
@@ -80,7 +82,7 @@ export function registerAuthRoutes(
     summary:
       "The signed-in person (or null) and the CSRF token for state-changing requests",
     response: sessionResponseSchema,
-    handler: async ({ req }) => session(req),
+    handler: async ({ req, res }) => session(req, res),
   });
 
   api.add({
@@ -88,10 +90,10 @@ export function registerAuthRoutes(
     path: "/auth/sign-in",
     tag: "auth",
     summary: "Sign in with e-mail and password (the session id is renewed)",
-    before: [attempts],
     body: signInBodySchema,
     response: sessionResponseSchema,
-    handler: async ({ req, res }) => {
+    handler: async ({ req, res, body }) => {
+      const succeeded = await countSignIn(req, res, body.email);
       const user = await authenticateLocal(passport, req, res);
       if (!user)
         throw new HttpError(
@@ -99,8 +101,9 @@ export function registerAuthRoutes(
           "invalid-credentials",
           "That e-mail and password do not match an account.",
         );
+      await succeeded();
       await login(req, user);
-      return session(req);
+      return session(req, res);
     },
   });
 
@@ -110,11 +113,16 @@ export function registerAuthRoutes(
     tag: "auth",
     summary: "Sign out",
     response: sessionResponseSchema,
-    handler: async ({ req }) => {
+    handler: async ({ req, res }) => {
       await new Promise<void>((resolve, reject) =>
         req.logout((err) => (err ? reject(err) : resolve())),
       );
-      return { user: null, csrfToken: csrfTokenFor(req) };
+      // logout() regenerates the session, and express-session would store the new empty one
+      // (the request came with a stored session); destroy it, so an anonymous visitor keeps no row.
+      await new Promise<void>((resolve, reject) =>
+        req.session.destroy((err) => (err ? reject(err) : resolve())),
+      );
+      return { user: null, csrfToken: csrfTokenFor(req, res) };
     },
   });
 
@@ -154,7 +162,7 @@ export function registerAuthRoutes(
     before: [links],
     body: setPasswordBodySchema,
     response: sessionResponseSchema,
-    handler: async ({ req, body }) => {
+    handler: async ({ req, res, body }) => {
       const userId = await setPasswordWithToken(
         deps.ds,
         body.token,
@@ -167,8 +175,9 @@ export function registerAuthRoutes(
           "token-invalid",
           "This link is no longer valid.",
         );
+      // A fresh session id under the new generation: the others were ended with the old password.
       await login(req, loaded);
-      return session(req);
+      return session(req, res);
     },
   });
 }

@@ -1,5 +1,4 @@
 import type { DataSource, EntityManager } from "typeorm";
-import { IsNull } from "typeorm";
 import { newId } from "../../db/columns";
 import { HttpError } from "../../http/errors";
 import { enqueueMail } from "../../infra/outbox/outbox";
@@ -59,6 +58,7 @@ async function issueToken(
     grant,
     expiresAt,
     usedAt: null,
+    voidedAt: null,
   });
   return { raw, expiresAt, id };
 }
@@ -208,9 +208,22 @@ async function liveToken(
   lock = false,
 ): Promise<AuthToken> {
   const token = await m.findOne(AuthToken, {
-    where: { tokenHash: hashToken(raw), usedAt: IsNull() },
+    where: { tokenHash: hashToken(raw) },
     ...(lock ? { lock: { mode: "pessimistic_write" as const } } : {}),
   });
+  // Each dead link says why, so a person holding an older e-mail knows what to do next.
+  if (token?.voidedAt)
+    throw new HttpError(
+      404,
+      "token-invalid",
+      "A newer link has been used to set this account's password, so this one no longer works. Sign in with the new password, or ask for a new link.",
+    );
+  if (token?.usedAt)
+    throw new HttpError(
+      404,
+      "token-invalid",
+      "This link has already been used. Sign in, or ask for a new link.",
+    );
   if (!token || token.expiresAt.getTime() <= Date.now()) {
     throw new HttpError(
       404,
@@ -219,6 +232,34 @@ async function liveToken(
     );
   }
   return token;
+}
+
+/**
+ * Sets a person's password inside `m`'s transaction and ends what the old one opened: every
+ * session (the generation goes up; see DEVELOPERS.md "A new password ends the other sessions")
+ * and every outstanding reset link but `keepTokenId` (OWASP ASVS v4.0.3 3.3.3, 2.5.x).
+ */
+export async function setNewPassword(
+  m: EntityManager,
+  userId: string,
+  passwordHash: string,
+  keepTokenId: string | null,
+): Promise<void> {
+  await m.update(
+    User,
+    { id: userId },
+    { passwordHash, sessionGeneration: () => "sessionGeneration + 1" },
+  );
+  const others = m
+    .createQueryBuilder()
+    .update(AuthToken)
+    .set({ voidedAt: new Date() })
+    .where(
+      "userId = :userId AND kind = 'password-reset' AND usedAt IS NULL AND voidedAt IS NULL",
+      { userId },
+    );
+  if (keepTokenId) others.andWhere("id <> :keepTokenId", { keepTokenId });
+  await others.execute();
 }
 
 /** What the set-password screen shows about a link. */
@@ -251,7 +292,7 @@ export async function setPasswordWithToken(
   const passwordHash = await hashPassword(password);
   return ds.transaction(async (m) => {
     const token = await liveToken(m, raw, true);
-    await m.update(User, { id: token.userId }, { passwordHash });
+    await setNewPassword(m, token.userId, passwordHash, token.id);
     await m.update(AuthToken, { id: token.id }, { usedAt: new Date() });
     const g = token.grant;
     if (g.role === "owner" || g.role === "fitter") {

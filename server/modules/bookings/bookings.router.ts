@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { limitRequests } from "../../http/rate-limit";
+import { limitRequests, type LimitStore } from "../../http/rate-limit";
 import {
   bookingOptionsResponseSchema,
   bookingResponseSchema,
@@ -35,13 +35,14 @@ const tag = "bookings";
 export function registerBookingRoutes(
   api: ApiRoutes,
   deps: BookingDeps,
-  opts: { linkLimit: number },
+  opts: { linkLimit: number; limits: LimitStore },
 ): void {
   // The public link routes carry their own limit: tokens are unguessable, but nobody gets to try.
-  const linkLimiter = limitRequests({
+  const linkLimiter = limitRequests(opts.limits, {
+    name: "booking-links",
     windowMs: 15 * 60 * 1000,
     limit: opts.linkLimit,
-    message: "Too many tries with booking links. Wait a few minutes.",
+    message: "Too many tries with booking links.",
   });
 
   api.add({

@@ -1,4 +1,4 @@
-import { Entity, Index } from "typeorm";
+import { Column, Entity, Index } from "typeorm";
 import {
   CreatedColumn,
   IdColumn,
@@ -17,5 +17,10 @@ export class User {
   /** argon2id hash; null until the invitation is accepted. */
   @TextColumn(255, { nullable: true }) passwordHash!: string | null;
   @InstantColumn({ nullable: true }) lastSignInAt!: Date | null;
+  /**
+   * Goes up when the password is set (reset, invitation, change); a session signed in under an
+   * older generation is no longer signed in (OWASP ASVS v4.0.3 3.3.3). See DEVELOPERS.md.
+   */
+  @Column({ type: "int", default: 0 }) sessionGeneration!: number;
   @CreatedColumn() createdAt!: Date;
 }

@@ -13,7 +13,7 @@ import { Customer } from "../customers/customers.entity";
 export async function loadSessionUser(
   m: EntityManager,
   userId: string,
-): Promise<{ user: SessionUser; actor: Actor } | null> {
+): Promise<{ user: SessionUser; actor: Actor; generation: number } | null> {
   const user = await m.getRepository(User).findOneBy({ id: userId });
   if (!user) return null;
   const [members, tradeLinks, customers] = await Promise.all([
@@ -56,5 +56,5 @@ export async function loadSessionUser(
     trades: new Map(tradeLinks.map((t) => [t.tradeId, t.workshopId])),
     customers: new Map(customers.map((c) => [c.id, c.workshopId])),
   };
-  return { user: sessionUser, actor };
+  return { user: sessionUser, actor, generation: user.sessionGeneration };
 }

@@ -20,14 +20,22 @@ const roleSentence: Record<keyof typeof roleLabels, string> = {
   customer: "as the customer, to see who comes to your home and when",
 };
 
-function InvalidLink({ purpose }: { purpose: Purpose }) {
+function InvalidLink({
+  purpose,
+  reason,
+}: {
+  purpose: Purpose;
+  /** The server's reason (expired, used, replaced by a newer link), when it gave one. */
+  reason?: string;
+}) {
   return (
     <div role="alert" className="flex flex-col gap-3">
       <p className="font-semibold">This link no longer works</p>
       <p className="text-sm">
-        {purpose === "invitation"
-          ? "It has expired, has already been used, or was copied incompletely. Ask the workshop to send you a new invitation."
-          : "It has expired, has already been used, or was copied incompletely. Ask for a new reset link."}
+        {reason ??
+          (purpose === "invitation"
+            ? "It has expired, has already been used, or was copied incompletely. Ask the workshop to send you a new invitation."
+            : "It has expired, has already been used, or was copied incompletely. Ask for a new reset link.")}
       </p>
       <p className="text-sm">
         {purpose === "invitation" ? (
@@ -68,7 +76,12 @@ function SetPasswordPage({ purpose }: { purpose: Purpose }) {
       (info.error.code === "token-invalid" ||
         info.error.status === 404 ||
         info.error.status === 400) ? (
-        <InvalidLink purpose={purpose} />
+        <InvalidLink
+          purpose={purpose}
+          reason={
+            info.error.code === "token-invalid" ? info.error.message : undefined
+          }
+        />
       ) : (
         <ErrorState error={info.error} onRetry={() => info.refetch()} />
       );

@@ -46,7 +46,8 @@ export function SetPasswordForm({
     formError =
       isApiError(setPassword.error) &&
       setPassword.error.code === "token-invalid"
-        ? "This link has expired or has already been used. Ask for a new one."
+        ? // The server says why: expired, used, or replaced by a newer link.
+          setPassword.error.message
         : applyServerErrors(setPassword.error, form.setError, ["password"]);
   }
 
