@@ -8,7 +8,7 @@ import { createHash, randomBytes } from "node:crypto";
 import fs from "node:fs";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
-import { freePort, superviseApp } from "./supervise.mjs";
+import { freePort, signalChild, superviseApp } from "./supervise.mjs";
 
 const root = path.resolve(
   path.dirname(fileURLToPath(import.meta.url)),
@@ -211,22 +211,10 @@ function credentials(dir) {
 async function stopChild(child, name, signal = "SIGTERM", ms = 15000) {
   if (child.exitCode !== null || child.signalCode !== null) return;
   const done = new Promise((r) => child.once("exit", r));
-  try {
-    process.kill(-child.pid, signal);
-  } catch {
-    try {
-      child.kill(signal);
-    } catch {
-      /* gone */
-    }
-  }
+  signalChild(child, signal);
   const timer = setTimeout(() => {
     say(`${name} did not stop in time; killing it`);
-    try {
-      process.kill(-child.pid, "SIGKILL");
-    } catch {
-      /* gone */
-    }
+    signalChild(child, "SIGKILL");
   }, ms);
   await done;
   clearTimeout(timer);

@@ -37,7 +37,7 @@ export function backoffMs(restartsInARow, firstMs = 1000, maxMs = 30000) {
 }
 
 /** Sends `signal` to the child's process group (it is started detached), or to the child alone. */
-function signalChild(child, signal) {
+export function signalChild(child, signal) {
   try {
     process.kill(-child.pid, signal);
   } catch {
