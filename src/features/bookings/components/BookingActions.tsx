@@ -259,6 +259,8 @@ export function CopyLinkButton({ booking }: { booking: BookingResponse }) {
       <Button
         variant="secondary"
         size="sm"
+        // Its own width, not the width of a long message or link shown below it.
+        className="self-start"
         busy={state.kind === "busy"}
         onClick={copy}
         aria-label={`Copy link: the confirmation link for ${booking.tradeBusinessName}`}
