@@ -1,6 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { signIn, startTestApp, type TestApp } from "../../tests/setup/test-app";
-import { demoAccounts } from "../../tests/factories/demo-scenario";
+import {
+  demoAccounts,
+  DEMO_WORKSHOP_NAME,
+} from "../../tests/factories/demo-scenario";
 import { Workshop } from "../modules/workshops/workshops.entity";
 
 // A lone UTF-16 surrogate ("\ud800" in JSON) is legal JSON text but no Unicode scalar value
@@ -14,7 +17,7 @@ beforeAll(async () => {
   t = await startTestApp({ demo: true });
   workshopId = (
     await t.db.ds.manager.findOneByOrFail(Workshop, {
-      name: "Hollin & Vane Joinery",
+      name: DEMO_WORKSHOP_NAME,
     })
   ).id;
 }, 120_000);

@@ -20,6 +20,7 @@ import {
 import {
   demoAccounts,
   demoJobTitles,
+  DEMO_WORKSHOP_NAME,
 } from "../../tests/factories/demo-scenario";
 import { Customer } from "../modules/customers/customers.entity";
 import { Job } from "../modules/jobs/jobs.entity";
@@ -54,7 +55,7 @@ beforeAll(async () => {
   t = await startTestApp({ demo: true });
   const m = t.db.ds.manager;
   const workshop = await m.findOneByOrFail(Workshop, {
-    name: "Hollin & Vane Joinery",
+    name: DEMO_WORKSHOP_NAME,
   });
   const job = await m.findOneByOrFail(Job, { title: demoJobTitles.alcoves });
   const decorator = await m.findOneByOrFail(Trade, {

@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
 import { startTestApp, type TestApp } from "../setup/test-app";
 import { bankHolidayDays } from "../../shared/programme";
-import { demoAccounts } from "../factories/demo-scenario";
+import { DEMO_WORKSHOP_NAME, demoAccounts } from "../factories/demo-scenario";
 import {
   desktop,
   launchBrowser,
@@ -364,7 +364,7 @@ describe("trade calendar across two workshops", () => {
     const { Workshop } =
       await import("../../server/modules/workshops/workshops.entity");
     const hollin = await m.findOneByOrFail(Workshop, {
-      name: "Hollin & Vane Joinery",
+      name: DEMO_WORKSHOP_NAME,
     });
     const demoTrade = await m.findOneByOrFail(Trade, {
       workshopId: hollin.id,

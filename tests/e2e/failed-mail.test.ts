@@ -9,7 +9,7 @@ import {
   startTestApp,
   type TestApp,
 } from "../setup/test-app";
-import { demoAccounts } from "../factories/demo-scenario";
+import { DEMO_WORKSHOP_NAME, demoAccounts } from "../factories/demo-scenario";
 import { OutboxMessage } from "../../server/infra/outbox/outbox.entity";
 import { Workshop } from "../../server/modules/workshops/workshops.entity";
 import { axeSeriousOrWorse, launchBrowser, shot, signInPage } from "./browser";
@@ -24,7 +24,7 @@ beforeAll(async () => {
   browser = await launchBrowser();
   const owner = await apiSignIn(t, demoAccounts.owner.email);
   const workshop = await t.db.ds.manager.findOneByOrFail(Workshop, {
-    name: "Hollin & Vane Joinery",
+    name: DEMO_WORKSHOP_NAME,
   });
   t.mail.refuse(to);
   await owner.agent

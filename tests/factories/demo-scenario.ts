@@ -20,6 +20,8 @@ import { loadDemoDrawings } from "./demo-drawings";
 import { setDemoReadMarkers, writeDemoThread } from "./demo-thread";
 
 export const DEMO_PASSWORD = "sitecue-demo";
+/** The demo workshop's name (the seed makes it; tests look it up by it). */
+export const DEMO_WORKSHOP_NAME = "Hollin & Vane Joinery";
 
 /** One demo account per role (README lists the same). */
 export const demoAccounts = {
@@ -59,7 +61,7 @@ export async function loadDemoScenario(
   const daysAgo = (n: number) => new Date(Date.now() - n * 86_400_000);
   const readMarkers = await ds.transaction(async (m) => {
     const workshop = await buildWorkshop(m, {
-      name: "Hollin & Vane Joinery",
+      name: DEMO_WORKSHOP_NAME,
       town: "Wetherfold",
     });
     const owner = await buildUser(m, {

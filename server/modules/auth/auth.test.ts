@@ -6,7 +6,10 @@ import {
   startTestApp,
   type TestApp,
 } from "../../../tests/setup/test-app";
-import { demoAccounts } from "../../../tests/factories/demo-scenario";
+import {
+  demoAccounts,
+  DEMO_WORKSHOP_NAME,
+} from "../../../tests/factories/demo-scenario";
 import { Workshop } from "../workshops/workshops.entity";
 import { AuthToken } from "./auth-tokens.entity";
 
@@ -17,7 +20,7 @@ beforeAll(async () => {
   t = await startTestApp({ demo: true });
   workshopId = (
     await t.db.ds.manager.findOneByOrFail(Workshop, {
-      name: "Hollin & Vane Joinery",
+      name: DEMO_WORKSHOP_NAME,
     })
   ).id;
 }, 120_000);

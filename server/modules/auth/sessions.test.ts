@@ -8,7 +8,10 @@ import {
   type Session,
   type TestApp,
 } from "../../../tests/setup/test-app";
-import { demoAccounts } from "../../../tests/factories/demo-scenario";
+import {
+  demoAccounts,
+  DEMO_WORKSHOP_NAME,
+} from "../../../tests/factories/demo-scenario";
 import { Workshop } from "../workshops/workshops.entity";
 
 // Issue 13 item 5: a reset (or an invitation that sets the password) ends every other session of
@@ -24,7 +27,7 @@ beforeAll(async () => {
   t = await startTestApp({ demo: true });
   workshopId = (
     await t.db.ds.manager.findOneByOrFail(Workshop, {
-      name: "Hollin & Vane Joinery",
+      name: DEMO_WORKSHOP_NAME,
     })
   ).id;
 }, 120_000);

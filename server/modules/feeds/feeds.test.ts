@@ -25,6 +25,7 @@ import {
   DEMO_PASSWORD,
   demoAccounts,
   demoJobTitles,
+  DEMO_WORKSHOP_NAME,
 } from "../../../tests/factories/demo-scenario";
 import { AuditEntry } from "../audit/audit.entity";
 import { Booking } from "../bookings/bookings.entity";
@@ -46,7 +47,7 @@ beforeAll(async () => {
   t = await startTestApp({ demo: true });
   const m = t.db.ds.manager;
   workshopA = await m.findOneByOrFail(Workshop, {
-    name: "Hollin & Vane Joinery",
+    name: DEMO_WORKSHOP_NAME,
   });
   ashby = await m.findOneByOrFail(Trade, {
     businessName: "Ashby Plaster & Coving",

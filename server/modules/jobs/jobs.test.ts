@@ -7,6 +7,7 @@ import {
 import {
   demoAccounts,
   demoJobTitles,
+  DEMO_WORKSHOP_NAME,
 } from "../../../tests/factories/demo-scenario";
 import { Booking } from "../bookings/bookings.entity";
 import { Customer } from "../customers/customers.entity";
@@ -26,9 +27,8 @@ let rosaId: string;
 beforeAll(async () => {
   t = await startTestApp({ demo: true });
   const m = t.db.ds.manager;
-  workshopId = (
-    await m.findOneByOrFail(Workshop, { name: "Hollin & Vane Joinery" })
-  ).id;
+  workshopId = (await m.findOneByOrFail(Workshop, { name: DEMO_WORKSHOP_NAME }))
+    .id;
   alcovesId = (await m.findOneByOrFail(Job, { title: demoJobTitles.alcoves }))
     .id;
   rosaId = (

@@ -18,6 +18,7 @@ import {
 import {
   DEMO_PASSWORD,
   demoAccounts,
+  DEMO_WORKSHOP_NAME,
 } from "../../../tests/factories/demo-scenario";
 import type { AttentionResponse } from "../../../shared/schemas";
 import { OutboxMessage } from "../../infra/outbox/outbox.entity";
@@ -34,9 +35,8 @@ let otherWorkshopId: string;
 beforeAll(async () => {
   t = await startTestApp({ demo: true });
   const m = t.db.ds.manager;
-  workshopId = (
-    await m.findOneByOrFail(Workshop, { name: "Hollin & Vane Joinery" })
-  ).id;
+  workshopId = (await m.findOneByOrFail(Workshop, { name: DEMO_WORKSHOP_NAME }))
+    .id;
   // Another workshop with its own owner, who must see none of this one's e-mail.
   const other = await buildWorkshop(m, { name: "Wetherfold Kitchens" });
   otherWorkshopId = other.id;

@@ -8,7 +8,10 @@ import {
   type Session,
   type TestApp,
 } from "../../../tests/setup/test-app";
-import { demoAccounts } from "../../../tests/factories/demo-scenario";
+import {
+  demoAccounts,
+  DEMO_WORKSHOP_NAME,
+} from "../../../tests/factories/demo-scenario";
 import { createJobFromStarter } from "../../../tests/setup/jobs";
 import {
   createLinkBodySchema,
@@ -27,7 +30,7 @@ beforeAll(async () => {
   owner = await signIn(t, demoAccounts.owner.email);
   jobId = await createJobFromStarter(owner, {
     workshopId: (
-      await m.findOneByOrFail(Workshop, { name: "Hollin & Vane Joinery" })
+      await m.findOneByOrFail(Workshop, { name: DEMO_WORKSHOP_NAME })
     ).id,
     customerId: (
       await m.findOneByOrFail(Customer, { email: demoAccounts.customer.email })

@@ -8,6 +8,7 @@ import {
 import {
   demoAccounts,
   demoJobTitles,
+  DEMO_WORKSHOP_NAME,
 } from "../../../tests/factories/demo-scenario";
 import type { ProgrammeResponse } from "../../../shared/schemas";
 import { AuditEntry } from "../audit/audit.entity";
@@ -24,9 +25,8 @@ let rosaId: string;
 beforeAll(async () => {
   t = await startTestApp({ demo: true });
   const m = t.db.ds.manager;
-  workshopId = (
-    await m.findOneByOrFail(Workshop, { name: "Hollin & Vane Joinery" })
-  ).id;
+  workshopId = (await m.findOneByOrFail(Workshop, { name: DEMO_WORKSHOP_NAME }))
+    .id;
   rosaId = (
     await m.findOneByOrFail(Customer, { email: demoAccounts.customer.email })
   ).id;

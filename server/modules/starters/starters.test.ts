@@ -8,7 +8,10 @@ import {
   type Session,
   type TestApp,
 } from "../../../tests/setup/test-app";
-import { demoAccounts } from "../../../tests/factories/demo-scenario";
+import {
+  demoAccounts,
+  DEMO_WORKSHOP_NAME,
+} from "../../../tests/factories/demo-scenario";
 import { createJobFromStarter } from "../../../tests/setup/jobs";
 import type { StarterResponse } from "../../../shared/schemas";
 import { newId } from "../../db/columns";
@@ -25,9 +28,8 @@ let customerId: string;
 beforeAll(async () => {
   t = await startTestApp({ demo: true });
   const m = t.db.ds.manager;
-  workshopId = (
-    await m.findOneByOrFail(Workshop, { name: "Hollin & Vane Joinery" })
-  ).id;
+  workshopId = (await m.findOneByOrFail(Workshop, { name: DEMO_WORKSHOP_NAME }))
+    .id;
   customerId = (
     await m.findOneByOrFail(Customer, { email: demoAccounts.customer.email })
   ).id;

@@ -22,6 +22,7 @@ import {
 import {
   demoAccounts,
   demoJobTitles,
+  DEMO_WORKSHOP_NAME,
 } from "../../../tests/factories/demo-scenario";
 import {
   demoThreadCounts,
@@ -63,7 +64,7 @@ beforeAll(async () => {
   t = await startTestApp({ demo: true });
   const m = t.db.ds.manager;
   workshop = await m.findOneByOrFail(Workshop, {
-    name: "Hollin & Vane Joinery",
+    name: DEMO_WORKSHOP_NAME,
   });
   rosa = await m.findOneByOrFail(Customer, {
     email: demoAccounts.customer.email,

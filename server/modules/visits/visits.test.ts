@@ -24,6 +24,7 @@ import {
   DEMO_PASSWORD,
   demoAccounts,
   demoJobTitles,
+  DEMO_WORKSHOP_NAME,
 } from "../../../tests/factories/demo-scenario";
 import {
   DEMO_DRAWING_TITLE,
@@ -60,7 +61,7 @@ beforeAll(async () => {
   t = await startTestApp({ demo: true });
   const m = t.db.ds.manager;
   const workshopA = await m.findOneByOrFail(Workshop, {
-    name: "Hollin & Vane Joinery",
+    name: DEMO_WORKSHOP_NAME,
   });
   const workshopB = await buildWorkshop(m, { name: "Weir Street Cabinets" });
   const ownerB = await buildUser(m, {
