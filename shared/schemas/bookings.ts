@@ -119,6 +119,8 @@ export const bookingResponseSchema = z.object({
   sequence: z.number(),
   sentAt: z.string().nullable(),
   answeredAt: z.string().nullable(),
+  /** Its last day has passed (in the job's time zone): nothing is left to confirm, so no link is offered. */
+  visitOver: z.boolean(),
   history: z.array(bookingEventViewSchema),
 });
 export type BookingResponse = z.infer<typeof bookingResponseSchema>;

@@ -385,13 +385,22 @@ function clashRefusal(
   );
 }
 
+/** A visit is over once its last day has passed in the job's time zone: no link is left to send. */
+function visitOver(b: Booking, timeZone: string): boolean {
+  return b.finish.slice(0, 10) < localToday(timeZone);
+}
+
 async function presentBooking(
   m: EntityManager,
   b: Booking,
 ): Promise<BookingResponse> {
-  const [task, trade, events] = await Promise.all([
+  const [task, trade, job, events] = await Promise.all([
     m.findOneByOrFail(Task, { id: b.taskId }),
     m.findOneByOrFail(Trade, { id: b.tradeId }),
+    m.findOneOrFail(Job, {
+      where: { id: b.jobId },
+      select: { id: true, timeZone: true },
+    }),
     m.find(BookingEvent, {
       where: { bookingId: b.id },
       order: { createdAt: "ASC" },
@@ -429,6 +438,7 @@ async function presentBooking(
     sequence: b.sequence,
     sentAt: b.sentAt?.toISOString() ?? null,
     answeredAt: b.answeredAt?.toISOString() ?? null,
+    visitOver: visitOver(b, job.timeZone),
     history: events.map((e) => ({
       at: e.createdAt.toISOString(),
       fromState: e.fromState,
@@ -1054,7 +1064,7 @@ export async function copyLink(
     );
   // The visit's days are over: a link would only open "expired" (its expiry is a week after the
   // last day), and there is nothing left to confirm. 410: that link is gone for good (RFC 9110 §15.5.11).
-  if (l.booking.finish.slice(0, 10) < localToday(l.job.timeZone))
+  if (visitOver(l.booking, l.job.timeZone))
     throw new HttpError(
       410,
       "gone",

@@ -14,7 +14,11 @@ import {
   demoAccounts,
   demoJobTitles,
 } from "../../../tests/factories/demo-scenario";
-import type { CaughtMail, ProgrammeResponse } from "../../../shared/schemas";
+import type {
+  BookingResponse,
+  CaughtMail,
+  ProgrammeResponse,
+} from "../../../shared/schemas";
 import { Job } from "../jobs/jobs.entity";
 import { Trade } from "../trades/trades.entity";
 import { Booking } from "./bookings.entity";
@@ -303,7 +307,7 @@ describe("scenario 2: a trade confirms by link", () => {
   });
 
   it("copy link on a visit whose days are over says the visit is over (410), not an expired link", async () => {
-    const { booking } = await sentBooking("Booking: visit over");
+    const { jobId, booking } = await sentBooking("Booking: visit over");
     // The visit's days go by: Mon 6 Jan 2025, its link expiring a week later (linkExpiry).
     await t.db.ds.manager.update(
       Booking,
@@ -315,6 +319,12 @@ describe("scenario 2: a trade confirms by link", () => {
         linkExpiresAt: new Date("2025-01-13T23:59:59Z"),
       },
     );
+    // The job page is told, so it offers no Copy link for it (a current visit keeps its button).
+    expect(booking.visitOver).toBe(false);
+    const listed: BookingResponse[] = (
+      await owner.agent.get(`/api/jobs/${jobId}/bookings`).expect(200)
+    ).body.bookings;
+    expect(listed.find((b) => b.id === booking.id)?.visitOver).toBe(true);
     const res = await owner.agent.get(`/api/bookings/${booking.id}/link`);
     expect(res.status).toBe(410);
     expect(res.body.error).toEqual({

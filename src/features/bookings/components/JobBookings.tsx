@@ -261,7 +261,7 @@ function BookingItem({
             </Button>
           </>
         ) : null}
-        {live ? <CopyLinkButton booking={b} /> : null}
+        {live && !b.visitOver ? <CopyLinkButton booking={b} /> : null}
         {b.state === "sent" || b.state === "needs-reconfirming" ? (
           <Button
             size="sm"
