@@ -98,3 +98,10 @@ export const apiErrorSchema = z.object({
 export type ApiErrorBody = z.infer<typeof apiErrorSchema>;
 
 export const idParamsSchema = (name: string) => z.object({ [name]: idSchema });
+
+/** A workshop's name, as the owner types it (sign-up and settings). */
+export const workshopNameSchema = z
+  .string()
+  .trim()
+  .min(1, "Enter the workshop's name")
+  .max(120);
