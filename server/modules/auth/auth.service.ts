@@ -9,11 +9,7 @@ import { User } from "../users/users.entity";
 import { Workshop, WorkshopMember } from "../workshops/workshops.entity";
 import { AuthToken, type TokenGrant } from "./auth-tokens.entity";
 import { addDefaultStarters } from "../starters/starters.service";
-import {
-  hashPassword,
-  refuseWeakPassword,
-  verifyPassword,
-} from "./passwords";
+import { hashPassword, refuseWeakPassword, verifyPassword } from "./passwords";
 import { hashToken, newToken } from "./tokens";
 import type { z } from "zod";
 import type {
@@ -232,10 +228,7 @@ async function liveToken(
       "token-invalid",
       "This link has already been used: your e-mail address is confirmed. Sign in to carry on.",
     );
-  if (
-    token?.kind === "verify-email" &&
-    token.expiresAt.getTime() <= Date.now()
-  )
+  if (token?.kind === "verify-email" && token.expiresAt.getTime() <= Date.now())
     throw new HttpError(
       404,
       "token-invalid",
@@ -523,7 +516,9 @@ export async function signUp(
     });
   } catch (err) {
     // Two sign-ups for one address at once: the unique index decides, the loser hears the same.
-    if ((err as { driverError?: { errno?: number } }).driverError?.errno === 1062)
+    if (
+      (err as { driverError?: { errno?: number } }).driverError?.errno === 1062
+    )
       throw alreadyRegistered();
     throw err;
   }

@@ -15,10 +15,7 @@ import {
 } from "../../../shared/schemas";
 import { newId } from "../../db/columns";
 import { forbidden, HttpError, notFound } from "../../http/errors";
-import {
-  assertWorkshopMaySend,
-  enqueueMail,
-} from "../../infra/outbox/outbox";
+import { assertWorkshopMaySend, enqueueMail } from "../../infra/outbox/outbox";
 import {
   authorize,
   can,
