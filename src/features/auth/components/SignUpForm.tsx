@@ -1,4 +1,5 @@
 import { zodResolver } from "@hookform/resolvers/zod";
+import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { Link } from "react-router-dom";
 import type { z } from "zod";
@@ -19,20 +20,26 @@ export function SignUpForm({ onSignedUp }: { onSignedUp: () => void }) {
     defaultValues: { workshopName: "", name: "", email: "", password: "" },
   });
   const { errors } = form.formState;
-  const formError = !signUp.isError
-    ? null
-    : isApiError(signUp.error) && signUp.error.status === 429
-      ? signUp.error.message
-      : applyServerErrors(signUp.error, form.setError, [
-          "workshopName",
-          "name",
-          "email",
-          "password",
-        ]);
+  // Server field errors go onto the fields once, when the answer comes (not during render).
+  const [formError, setFormError] = useState<string | null>(null);
 
-  const onSubmit = form.handleSubmit((body) =>
-    signUp.mutate(body, { onSuccess: onSignedUp }),
-  );
+  const onSubmit = form.handleSubmit((body) => {
+    setFormError(null);
+    signUp.mutate(body, {
+      onSuccess: onSignedUp,
+      onError: (error) =>
+        setFormError(
+          isApiError(error) && error.status === 429
+            ? error.message
+            : applyServerErrors(error, form.setError, [
+                "workshopName",
+                "name",
+                "email",
+                "password",
+              ]),
+        ),
+    });
+  });
 
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4">
