@@ -24,6 +24,8 @@ export type ErrorCode =
   | "rate-limited"
   | "unprocessable"
   | "unavailable"
+  // Issue 14: an owner who has not used their sign-up link yet may not make Sitecue e-mail anyone.
+  | "email-unverified"
   | "internal";
 
 /** A typed error thrown anywhere in a request; mapped once to `{ error: { code, message, fields? } }`. */

@@ -86,6 +86,9 @@ export const expected: Record<string, Row> = {
   "POST /auth/password-reset": all(202),
   "GET /auth/tokens/:token": all(404), // an unknown token
   "POST /auth/set-password": all(404), // an unknown token
+  "POST /auth/sign-up": all(201), // anyone may create a workshop (a fresh address each time)
+  "POST /auth/verify-email": all(404), // an unknown token
+  "POST /auth/verify-email/resend": signedIn(409), // everyone in the matrix is verified already
 
   "GET /jobs": signedIn(200),
   "GET /jobs/:jobId": {

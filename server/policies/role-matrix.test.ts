@@ -275,6 +275,22 @@ const requests: Record<
       password: "a-long-enough-password",
     },
   }),
+  "POST /auth/sign-up": async () => ({
+    path: "/api/auth/sign-up",
+    body: {
+      workshopName: "Matrix Joinery",
+      name: "Matrix Owner",
+      email: `signup-${randomBytes(6).toString("hex")}@example.test`,
+      password: "matrix-sign-up-password",
+    },
+  }),
+  "POST /auth/verify-email": async () => ({
+    path: "/api/auth/verify-email",
+    body: { token: randomBytes(32).toString("base64url") },
+  }),
+  "POST /auth/verify-email/resend": async () => ({
+    path: "/api/auth/verify-email/resend",
+  }),
   "GET /jobs": async () => ({ path: "/api/jobs" }),
   "GET /jobs/:jobId": async () => ({ path: `/api/jobs/${ids.jobId}` }),
   "POST /workshops/:workshopId/jobs": async () => ({

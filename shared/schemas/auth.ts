@@ -1,14 +1,29 @@
 import { z } from "zod";
-import { idSchema, memberRoleSchema, tradeKindSchema } from "./common";
+import {
+  idSchema,
+  memberRoleSchema,
+  tradeKindSchema,
+  workshopNameSchema,
+} from "./common";
 
 export const emailSchema = z
   .email({ message: "Enter a valid e-mail address" })
   .max(254)
   .transform((s) => s.toLowerCase());
+/**
+ * The length rule for every password a person sets (NIST SP 800-63B §5.1.1.2: at least 8
+ * characters, at least 64 allowed, no composition rules). The server also refuses breached and
+ * context-specific passwords (`checkNewPassword` in server/modules/auth/passwords.ts): the list
+ * is too big to ship to the browser.
+ */
 export const passwordSchema = z
   .string()
-  .min(10, "Use at least 10 characters")
+  .min(8, "Use at least 8 characters")
   .max(200, "Use at most 200 characters");
+
+/** The hint every new-password field shows, so forms say the rule in one set of words. */
+export const passwordHint =
+  "At least 8 characters. A few unrelated words make a strong one.";
 
 export const signInBodySchema = z.object({
   email: emailSchema,
@@ -23,6 +38,23 @@ export const setPasswordBodySchema = z.object({
   password: passwordSchema,
 });
 
+/** "Create your workshop": the workshop, its first owner, and their password. */
+export const signUpBodySchema = z.object({
+  workshopName: workshopNameSchema,
+  name: z.string().trim().min(1, "Enter your name").max(120),
+  email: emailSchema,
+  password: passwordSchema,
+});
+export type SignUpBody = z.input<typeof signUpBodySchema>;
+
+export const verifyEmailBodySchema = z.object({
+  token: z.string().min(20).max(200),
+});
+
+/** The address a verification link confirmed (or resent to). */
+export const verifyEmailResponseSchema = z.object({ email: z.string() });
+export type VerifyEmailResponse = z.infer<typeof verifyEmailResponseSchema>;
+
 export const tokenParamsSchema = z.object({
   token: z.string().min(20).max(200),
 });
@@ -32,6 +64,8 @@ export const sessionUserSchema = z.object({
   id: idSchema,
   email: z.string(),
   name: z.string(),
+  /** False from sign-up until the e-mailed link is used: until then Sitecue e-mails nobody else. */
+  emailVerified: z.boolean(),
   memberships: z.array(
     z.object({
       workshopId: idSchema,

@@ -66,7 +66,14 @@ export const bookingStateSchema = z.enum(bookingStates);
 export type BookingState = z.infer<typeof bookingStateSchema>;
 
 /** How a booking's state changed: in the app, by the confirmation link, recorded from a call or text, or from the trade's calendar app (iTIP REPLY). */
-export const bookingChannels = ["app", "link", "phone", "text", "calendar-reply", "system"] as const;
+export const bookingChannels = [
+  "app",
+  "link",
+  "phone",
+  "text",
+  "calendar-reply",
+  "system",
+] as const;
 export type BookingChannel = (typeof bookingChannels)[number];
 
 export const arrivalWindows = [
@@ -98,3 +105,10 @@ export const apiErrorSchema = z.object({
 export type ApiErrorBody = z.infer<typeof apiErrorSchema>;
 
 export const idParamsSchema = (name: string) => z.object({ [name]: idSchema });
+
+/** A workshop's name, as the owner types it (sign-up and settings). */
+export const workshopNameSchema = z
+  .string()
+  .trim()
+  .min(1, "Enter the workshop's name")
+  .max(120);

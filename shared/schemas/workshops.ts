@@ -5,6 +5,7 @@ import {
   idSchema,
   memberRoleSchema,
   weekdaysSchema,
+  workshopNameSchema,
 } from "./common";
 import { emailSchema } from "./auth";
 
@@ -22,7 +23,7 @@ export type WorkshopResponse = z.infer<typeof workshopResponseSchema>;
 
 export const updateWorkshopBodySchema = z
   .object({
-    name: z.string().trim().min(1, "Enter the workshop's name").max(120),
+    name: workshopNameSchema,
     town: z.string().trim().max(120),
     holidayRegion: holidayRegionSchema.nullable(),
     workingWeekdays: weekdaysSchema,

@@ -6,6 +6,8 @@ import {
 import { PublicOutlet, RequireAuth } from "./layout/guards";
 import { RouteErrorPage } from "./routes/route-error";
 import { SignInRoute } from "./routes/sign-in";
+import { SignUpRoute } from "./routes/sign-up";
+import { VerifyEmailRoute } from "./routes/verify-email";
 import { ForgotPasswordRoute } from "./routes/forgot-password";
 import { InviteRoute, ResetRoute } from "./routes/set-password";
 import { DevMailRoute } from "./routes/dev-mail";
@@ -44,6 +46,8 @@ export function createAppRouter() {
             { path: "dev/mail/:messageId?", element: <DevMailRoute /> },
             // A booking's confirmation link works without an account (brief, "Who uses it").
             { path: "b/:token", element: <BookingLinkRoute /> },
+            { path: "sign-up", element: <SignUpRoute /> },
+            { path: "verify/:token", element: <VerifyEmailRoute /> },
           ],
         },
         {

@@ -1,6 +1,7 @@
 import { randomUUID } from "node:crypto";
 import type { DataSource, EntityManager } from "typeorm";
 import { newId } from "../../db/columns";
+import { HttpError } from "../../http/errors";
 import { OutboxMessage, type OutboxCalendar } from "./outbox.entity";
 
 export { OutboxWorker, type OutboxWorkerOptions } from "./outbox-worker";
@@ -13,7 +14,11 @@ export interface QueuedMail {
   html?: string | null;
   /** An iCalendar part (RFC 6047), sent as nodemailer's `icalEvent`. */
   calendar?: OutboxCalendar | null;
-  /** The workshop the message is about, when there is one (for support and clean-up). */
+  /**
+   * The workshop the message is about; none for mail to a person about their own account
+   * (reset, address check). A workshop's mail is refused until one of its owners has verified
+   * their address (`assertWorkshopMaySend`), so every message about a workshop must name it.
+   */
   workshopId?: string | null;
 }
 
@@ -21,13 +26,39 @@ export interface QueuedMail {
 const MESSAGE_ID_DOMAIN = "sitecue.example.test";
 
 /**
+ * Throws 403 `email-unverified` when no owner of the workshop has verified their e-mail address
+ * (a workshop made by sign-up, until its link is used), so nothing it does e-mails anyone else
+ * (issue 14: "until then the owner can look around but sends nothing to anyone"). Thrown inside
+ * the caller's transaction, it rolls the whole change back: no booking marked sent without its
+ * e-mail. `enqueueMail` calls it for every workshop message; a thread post calls it before owing
+ * notices (they are e-mailed later by a sweep). See DEVELOPERS.md "Unverified owners send nothing".
+ */
+export async function assertWorkshopMaySend(
+  m: EntityManager,
+  workshopId: string,
+): Promise<void> {
+  const owners: { email: string; verified: number }[] = await m.query(
+    "SELECT u.email AS email, (u.emailVerifiedAt IS NOT NULL) AS verified FROM workshop_members wm JOIN users u ON u.id = wm.userId WHERE wm.workshopId = ? AND wm.role = 'owner' ORDER BY wm.createdAt",
+    [workshopId],
+  );
+  if (!owners.length || owners.some((o) => Number(o.verified) === 1)) return;
+  throw new HttpError(
+    403,
+    "email-unverified",
+    `Confirm your e-mail address first (we sent a link to ${owners[0]!.email}). Until then Sitecue sends nothing to anyone for this workshop.`,
+  );
+}
+
+/**
  * Queues an e-mail in the caller's transaction, so the change and its e-mail commit together or
  * not at all. `OutboxWorker` sends it; the Message-ID made here is kept for every attempt.
+ * A workshop's message is refused while no owner has verified their address.
  */
 export async function enqueueMail(
   m: EntityManager,
   mail: QueuedMail,
 ): Promise<{ id: string; messageId: string }> {
+  if (mail.workshopId) await assertWorkshopMaySend(m, mail.workshopId);
   const id = newId();
   const messageId = `<${randomUUID()}@${MESSAGE_ID_DOMAIN}>`;
   await m.insert(OutboxMessage, {

@@ -22,15 +22,18 @@ export type TokenGrant =
   | { role: "customer"; workshopId: string; customerId: string }
   | { role: null };
 
-/** A single-use, expiring link (invitation or password reset); only its SHA-256 is stored. */
+/** A single-use, expiring link (invitation, password reset, address check); only its SHA-256 is stored. */
 @Entity("auth_tokens")
 export class AuthToken {
   @IdColumn() id!: string;
   @Index("uq_auth_tokens_hash", { unique: true })
   @TextColumn(64)
   tokenHash!: string;
-  @Column({ type: "enum", enum: ["invitation", "password-reset"] }) kind!:
-    "invitation" | "password-reset";
+  @Column({
+    type: "enum",
+    enum: ["invitation", "password-reset", "verify-email"],
+  })
+  kind!: "invitation" | "password-reset" | "verify-email";
   @Index("ix_auth_tokens_user")
   @RefColumn()
   userId!: string;

@@ -7,18 +7,25 @@ import {
   sessionResponseSchema,
   setPasswordBodySchema,
   signInBodySchema,
+  signUpBodySchema,
   tokenInfoResponseSchema,
   tokenParamsSchema,
+  verifyEmailBodySchema,
+  verifyEmailResponseSchema,
 } from "../../../shared/schemas";
 import { csrfTokenFor } from "../../http/csrf";
 import { HttpError } from "../../http/errors";
 import type { ApiRoutes } from "../../http/routes";
+import { requireActor } from "../../policies";
 import { loadSessionUser } from "../users/users.service";
 import { signInLimits } from "./sign-in-limits";
 import {
   requestPasswordReset,
+  resendVerification,
   setPasswordWithToken,
+  signUp,
   tokenInfo,
+  verifyEmail,
   type AuthDeps,
 } from "./auth.service";
 
@@ -51,7 +58,7 @@ const authenticateLocal = (
     )(req, res, reject),
   );
 
-/** Sign-in, sign-out, the session, password reset and set-password-by-link. */
+/** Sign-in, sign-out, sign-up, the session, password reset, set-password-by-link, address checks. */
 export function registerAuthRoutes(
   api: ApiRoutes,
   deps: AuthDeps,
@@ -69,6 +76,20 @@ export function registerAuthRoutes(
     windowMs: opts.windowMs,
     limit: opts.signInLimit * 3,
     message: "Too many attempts.",
+  });
+  // Sign-up and "send it again" each have a per-address budget the size of sign-in's: every
+  // request counts, a duplicate address included (it says the address has an account).
+  const signUps = limitRequests(opts.limits, {
+    name: "sign-up",
+    windowMs: opts.windowMs,
+    limit: opts.signInLimit,
+    message: "Too many workshops created from here.",
+  });
+  const resends = limitRequests(opts.limits, {
+    name: "verify-resend",
+    windowMs: opts.windowMs,
+    limit: opts.signInLimit,
+    message: "Too many links sent.",
   });
   const session = (req: Request, res: Response) => ({
     user: req.user?.user ?? null,
@@ -178,6 +199,53 @@ export function registerAuthRoutes(
       // A fresh session id under the new generation: the others were ended with the old password.
       await login(req, loaded);
       return session(req, res);
+    },
+  });
+
+  api.add({
+    method: "post",
+    path: "/auth/sign-up",
+    tag: "auth",
+    summary:
+      "Create a workshop and its first owner, e-mail an address-check link, and sign in",
+    before: [signUps],
+    body: signUpBodySchema,
+    status: 201,
+    response: sessionResponseSchema,
+    handler: async ({ req, res, body }) => {
+      const userId = await signUp(deps, body);
+      const loaded = await loadSessionUser(deps.ds.manager, userId);
+      if (!loaded) throw new Error("the new account was not found");
+      // A fresh session id, as at sign-in (a visitor's earlier session never carries over).
+      await login(req, loaded);
+      return session(req, res);
+    },
+  });
+
+  api.add({
+    method: "post",
+    path: "/auth/verify-email",
+    tag: "auth",
+    summary: "Use an address-check link once: the address counts as verified",
+    before: [links],
+    body: verifyEmailBodySchema,
+    response: verifyEmailResponseSchema,
+    handler: async ({ body }) => {
+      const { email } = await verifyEmail(deps.ds, body.token);
+      return { email };
+    },
+  });
+
+  api.add({
+    method: "post",
+    path: "/auth/verify-email/resend",
+    tag: "auth",
+    summary: "E-mail the signed-in person a new address-check link",
+    before: [resends],
+    response: verifyEmailResponseSchema,
+    handler: async ({ actor }) => {
+      requireActor(actor);
+      return resendVerification(deps, actor.userId);
     },
   });
 }

@@ -8,12 +8,18 @@ import { Trade, TradeMember } from "../trades/trades.entity";
 import { User } from "../users/users.entity";
 import { Workshop, WorkshopMember } from "../workshops/workshops.entity";
 import { AuthToken, type TokenGrant } from "./auth-tokens.entity";
-import { hashPassword, verifyPassword } from "./passwords";
+import { addDefaultStarters } from "../starters/starters.service";
+import { hashPassword, refuseWeakPassword, verifyPassword } from "./passwords";
 import { hashToken, newToken } from "./tokens";
-import type { TokenInfoResponse } from "../../../shared/schemas";
+import type { z } from "zod";
+import type {
+  signUpBodySchema,
+  TokenInfoResponse,
+} from "../../../shared/schemas";
 
 const INVITATION_DAYS = 7;
 const RESET_HOURS = 1;
+const VERIFY_DAYS = 7;
 
 export interface AuthDeps {
   ds: DataSource;
@@ -135,6 +141,8 @@ export async function invite(
         name: input.name,
         passwordHash: null,
         lastSignInAt: null,
+        // Proved when they accept (the link reached them).
+        emailVerifiedAt: null,
       });
       await m.insert(User, user);
     }
@@ -206,11 +214,26 @@ async function liveToken(
   m: EntityManager,
   raw: string,
   lock = false,
+  kinds: readonly AuthToken["kind"][] = ["invitation", "password-reset"],
 ): Promise<AuthToken> {
-  const token = await m.findOne(AuthToken, {
+  const found = await m.findOne(AuthToken, {
     where: { tokenHash: hashToken(raw) },
     ...(lock ? { lock: { mode: "pessimistic_write" as const } } : {}),
   });
+  // A link only does what it was made for: an address check never sets a password.
+  const token = found && kinds.includes(found.kind) ? found : null;
+  if (token?.kind === "verify-email" && token.usedAt)
+    throw new HttpError(
+      404,
+      "token-invalid",
+      "This link has already been used: your e-mail address is confirmed. Sign in to carry on.",
+    );
+  if (token?.kind === "verify-email" && token.expiresAt.getTime() <= Date.now())
+    throw new HttpError(
+      404,
+      "token-invalid",
+      "This link has expired. Sign in and choose “Send it again” for a new one.",
+    );
   // Each dead link says why, so a person holding an older e-mail knows what to do next.
   if (token?.voidedAt)
     throw new HttpError(
@@ -275,7 +298,8 @@ export async function tokenInfo(
     ? await ds.getRepository(Workshop).findOneBy({ id: token.workshopId })
     : null;
   return {
-    kind: token.kind,
+    // liveToken's default kinds: an address-check link is never a set-password link.
+    kind: token.kind as TokenInfoResponse["kind"],
     email: user.email,
     name: user.name,
     workshopName: workshop?.name ?? null,
@@ -289,11 +313,16 @@ export async function setPasswordWithToken(
   raw: string,
   password: string,
 ): Promise<string> {
+  // The link is checked first (an unknown one says so whatever the password), then the password.
+  const seen = await liveToken(ds.manager, raw);
+  refuseWeakPassword(password, await passwordContext(ds.manager, seen));
   const passwordHash = await hashPassword(password);
   return ds.transaction(async (m) => {
     const token = await liveToken(m, raw, true);
     await setNewPassword(m, token.userId, passwordHash, token.id);
     await m.update(AuthToken, { id: token.id }, { usedAt: new Date() });
+    // The link reached them, so the address is theirs (an invitation or a reset proves it).
+    await markVerified(m, token.userId);
     const g = token.grant;
     if (g.role === "owner" || g.role === "fitter") {
       const exists = await m.findOneBy(WorkshopMember, {
@@ -335,6 +364,207 @@ export async function setPasswordWithToken(
       entityId: token.userId,
     });
     return token.userId;
+  });
+}
+
+/** The words a new password may not be (NIST SP 800-63B §5.1.1.2 "context-specific words"). */
+async function passwordContext(
+  m: EntityManager,
+  token: AuthToken,
+): Promise<{ email: string; workshopNames: string[] }> {
+  const user = await m.findOneByOrFail(User, { id: token.userId });
+  const members = await m.find(WorkshopMember, {
+    where: { userId: token.userId },
+    relations: { workshop: true },
+  });
+  const invitedTo = token.workshopId
+    ? await m.findOneBy(Workshop, { id: token.workshopId })
+    : null;
+  return {
+    email: user.email,
+    workshopNames: [
+      ...members.map((x) => x.workshop?.name ?? ""),
+      invitedTo?.name ?? "",
+    ],
+  };
+}
+
+/** Marks the person's address verified, once (a later link keeps the first time). */
+async function markVerified(m: EntityManager, userId: string): Promise<void> {
+  await m
+    .createQueryBuilder()
+    .update(User)
+    .set({ emailVerifiedAt: () => "UTC_TIMESTAMP(3)" })
+    .where("id = :userId AND emailVerifiedAt IS NULL", { userId })
+    .execute();
+}
+
+/** Issues an address-check link for the person and queues its e-mail (to them alone). */
+async function queueVerification(
+  m: EntityManager,
+  deps: AuthDeps,
+  user: { id: string; email: string; name: string },
+  workshopName: string | null,
+): Promise<void> {
+  const token = await issueToken(
+    m,
+    "verify-email",
+    user.id,
+    { role: null },
+    VERIFY_DAYS * 86400_000,
+    null,
+  );
+  const link = `${deps.appUrl}/verify/${token.raw}`;
+  const what = workshopName
+    ? `You created ${workshopName} on Sitecue with this e-mail address.`
+    : "You created a Sitecue account with this e-mail address.";
+  await enqueueMail(m, {
+    // No workshopId: this is mail about the person's own account, the one message an
+    // unverified workshop may cause (see assertWorkshopMaySend).
+    to: user.email,
+    subject: "Confirm your e-mail address for Sitecue",
+    text: [
+      `Hello ${user.name},`,
+      "",
+      what,
+      "Until you confirm it, Sitecue sends nothing to your trades, customers or fitters.",
+      "",
+      `Confirm your address: ${link}`,
+      "",
+      `The link works once and expires in ${VERIFY_DAYS} days. If it was not you, ignore this e-mail.`,
+    ].join("\n"),
+    html: `<p>Hello ${escapeHtml(user.name)},</p><p>${escapeHtml(what)}</p><p>Until you confirm it, Sitecue sends nothing to your trades, customers or fitters.</p><p><a href="${link}">Confirm your address</a></p><p>The link works once and expires in ${VERIFY_DAYS} days. If it was not you, ignore this e-mail.</p>`,
+  });
+}
+
+/** The words for an address that already has an account (a 409 with a field message). */
+const alreadyRegistered = () =>
+  new HttpError(
+    409,
+    "conflict",
+    "That address already has a Sitecue account — sign in, or reset your password.",
+    {
+      email: [
+        "That address already has a Sitecue account — sign in, or reset your password",
+      ],
+    },
+  );
+
+/**
+ * "Create your workshop": in one transaction the person (argon2id), the workshop with its
+ * defaults (Europe/London, England & Wales, Mon–Fri 08:00–17:00; the set-up step changes
+ * them), their owner membership, the default starters, an audit row and the address-check
+ * e-mail. Returns the new user's id; the router signs them in.
+ */
+export async function signUp(
+  deps: AuthDeps,
+  body: z.output<typeof signUpBodySchema>,
+): Promise<string> {
+  refuseWeakPassword(body.password, {
+    email: body.email,
+    workshopNames: [body.workshopName],
+  });
+  // Sign-up necessarily says whether an address has an account (OWASP Authentication Cheat
+  // Sheet, "Authentication and Error Messages"); the route is rate limited. See DEVELOPERS.md.
+  if (await deps.ds.getRepository(User).existsBy({ email: body.email }))
+    throw alreadyRegistered();
+  const passwordHash = await hashPassword(body.password);
+  try {
+    return await deps.ds.transaction(async (m) => {
+      const userId = newId();
+      const workshopId = newId();
+      await m.insert(User, {
+        id: userId,
+        email: body.email,
+        name: body.name,
+        passwordHash,
+        lastSignInAt: new Date(),
+        emailVerifiedAt: null,
+      });
+      await m.insert(Workshop, {
+        id: workshopId,
+        name: body.workshopName,
+        town: "",
+        timeZone: "Europe/London",
+        holidayRegion: "GB-ENG",
+        workingWeekdays: [1, 2, 3, 4, 5],
+        dayStart: "08:00",
+        dayEnd: "17:00",
+      });
+      await m.insert(WorkshopMember, {
+        id: newId(),
+        workshopId,
+        userId,
+        role: "owner",
+      });
+      await addDefaultStarters(m, workshopId);
+      await audit(m, {
+        workshopId,
+        actorUserId: userId,
+        action: "workshop.created",
+        entityType: "workshop",
+        entityId: workshopId,
+        detail: { by: "sign-up", email: body.email },
+      });
+      await queueVerification(
+        m,
+        deps,
+        { id: userId, email: body.email, name: body.name },
+        body.workshopName,
+      );
+      return userId;
+    });
+  } catch (err) {
+    // Two sign-ups for one address at once: the unique index decides, the loser hears the same.
+    if (
+      (err as { driverError?: { errno?: number } }).driverError?.errno === 1062
+    )
+      throw alreadyRegistered();
+    throw err;
+  }
+}
+
+/** Uses an address-check link once: the person's address counts as verified. Returns it. */
+export async function verifyEmail(
+  ds: DataSource,
+  raw: string,
+): Promise<{ email: string; userId: string }> {
+  return ds.transaction(async (m) => {
+    const token = await liveToken(m, raw, true, ["verify-email"]);
+    await m.update(AuthToken, { id: token.id }, { usedAt: new Date() });
+    await markVerified(m, token.userId);
+    await audit(m, {
+      workshopId: null,
+      actorUserId: token.userId,
+      action: "email.verified",
+      entityType: "user",
+      entityId: token.userId,
+    });
+    const user = await m.findOneByOrFail(User, { id: token.userId });
+    return { email: user.email, userId: user.id };
+  });
+}
+
+/** Sends the signed-in person a fresh address-check link (409 when already verified). */
+export async function resendVerification(
+  deps: AuthDeps,
+  userId: string,
+): Promise<{ email: string }> {
+  return deps.ds.transaction(async (m) => {
+    const user = await m.findOneByOrFail(User, { id: userId });
+    if (user.emailVerifiedAt)
+      throw new HttpError(
+        409,
+        "conflict",
+        "Your e-mail address is already confirmed.",
+      );
+    const owned = await m.findOne(WorkshopMember, {
+      where: { userId, role: "owner" },
+      relations: { workshop: true },
+      order: { createdAt: "ASC" },
+    });
+    await queueVerification(m, deps, user, owned?.workshop?.name ?? null);
+    return { email: user.email };
   });
 }
 

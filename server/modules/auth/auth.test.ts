@@ -337,7 +337,7 @@ describe("password reset", () => {
       .send({ token: "x".repeat(43), password: "short" });
     expect(res.status).toBe(400);
     expect(res.body.error.fields.password).toEqual([
-      "Use at least 10 characters",
+      "Use at least 8 characters",
     ]);
   });
 });

@@ -15,7 +15,7 @@ import {
 } from "../../../shared/schemas";
 import { newId } from "../../db/columns";
 import { forbidden, HttpError, notFound } from "../../http/errors";
-import { enqueueMail } from "../../infra/outbox/outbox";
+import { assertWorkshopMaySend, enqueueMail } from "../../infra/outbox/outbox";
 import {
   authorize,
   can,
@@ -252,8 +252,13 @@ async function scheduleNotices(
   now: Date,
 ): Promise<void> {
   const due = new Date(now.getTime() + deps.noticeDelayMs);
-  for (const userId of await recipientsFor(m, t, audience)) {
-    if (userId === authorUserId) continue;
+  const others = (await recipientsFor(m, t, audience)).filter(
+    (userId) => userId !== authorUserId,
+  );
+  // A message that will be e-mailed to someone is refused (and rolled back) while the workshop's
+  // owners have not verified their address; one with nobody to tell is a note to themselves.
+  if (others.length) await assertWorkshopMaySend(m, t.job.workshopId);
+  for (const userId of others) {
     await m.query(
       "INSERT INTO `thread_notices` (`id`, `userId`, `jobId`, `dueAt`, `lastNoticedSeq`) VALUES (?, ?, ?, ?, 0) " +
         "ON DUPLICATE KEY UPDATE `dueAt` = COALESCE(`dueAt`, VALUES(`dueAt`))",

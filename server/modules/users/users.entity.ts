@@ -18,6 +18,12 @@ export class User {
   @TextColumn(255, { nullable: true }) passwordHash!: string | null;
   @InstantColumn({ nullable: true }) lastSignInAt!: Date | null;
   /**
+   * When the person proved they receive mail at `email` (a verification, invitation or reset
+   * link). Null after sign-up until then; the outbox sends nothing for a workshop with no
+   * verified owner (issue 14, DEVELOPERS.md "Unverified owners send nothing").
+   */
+  @InstantColumn({ nullable: true }) emailVerifiedAt!: Date | null;
+  /**
    * Goes up when the password is set (reset, invitation, change); a session signed in under an
    * older generation is no longer signed in (OWASP ASVS v4.0.3 3.3.3). See DEVELOPERS.md.
    */

@@ -32,6 +32,7 @@ export async function loadSessionUser(
     id: user.id,
     email: user.email,
     name: user.name,
+    emailVerified: user.emailVerifiedAt !== null,
     memberships: members.map((m) => ({
       workshopId: m.workshopId,
       workshopName: name(m.workshop),

@@ -2,6 +2,7 @@ import type { ReactNode } from "react";
 import { NavLink, useNavigate } from "react-router-dom";
 import { useSignOut } from "../../features/auth/api/sign-out";
 import { homeTitle, type Viewer } from "../../features/auth/viewer";
+import { VerifyEmailBanner } from "../../features/auth/components/VerifyEmailBanner";
 import { Button, cx } from "../../components/ui";
 import { errorMessage } from "../../lib/api-client";
 import { useActiveWorkshop } from "../active-workshop";
@@ -134,6 +135,7 @@ export function AppLayout({
           </p>
         ) : null}
       </header>
+      <VerifyEmailBanner user={viewer.user} />
       <main
         id="main"
         tabIndex={-1}

@@ -1,7 +1,7 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useForm } from "react-hook-form";
 import { z } from "zod";
-import { passwordSchema } from "../../../../shared/schemas";
+import { passwordHint, passwordSchema } from "../../../../shared/schemas";
 import { Button, FormError, TextField } from "../../../components/ui";
 import { isApiError } from "../../../lib/api-client";
 import { applyServerErrors } from "../../../lib/form-errors";
@@ -71,7 +71,7 @@ export function SetPasswordForm({
         label="New password"
         type="password"
         autoComplete="new-password"
-        hint="At least 10 characters. A few unrelated words make a strong one."
+        hint={passwordHint}
         error={errors.password?.message}
         {...form.register("password")}
       />

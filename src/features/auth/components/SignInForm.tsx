@@ -72,6 +72,15 @@ export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
           Forgotten your password?
         </Link>
       </p>
+      <p className="border-t border-rule pt-4 text-sm">
+        New to Sitecue?{" "}
+        <Link
+          to="/sign-up"
+          className="text-accent underline underline-offset-2"
+        >
+          Create your workshop
+        </Link>
+      </p>
     </form>
   );
 }
