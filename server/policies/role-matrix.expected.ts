@@ -152,6 +152,7 @@ export const expected: Record<string, Row> = {
 
   "GET /workshops/:workshopId": staff(200),
   "PATCH /workshops/:workshopId": ownerOnly(200),
+  "POST /workshops/:workshopId/settings/preview": ownerOnly(200),
   "GET /workshops/:workshopId/members": ownerOnly(200),
   "GET /workshops/:workshopId/invitations": ownerOnly(200),
   "POST /workshops/:workshopId/invitations": ownerOnly(201),

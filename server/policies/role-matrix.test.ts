@@ -450,6 +450,10 @@ const requests: Record<
     path: `/api/workshops/${ids.workshopId}`,
     body: { town: "Wetherfold" },
   }),
+  "POST /workshops/:workshopId/settings/preview": async () => ({
+    path: `/api/workshops/${ids.workshopId}/settings/preview`,
+    body: { workingWeekdays: [1, 2, 3, 4] },
+  }),
   "GET /workshops/:workshopId/members": async () => ({
     path: `/api/workshops/${ids.workshopId}/members`,
   }),

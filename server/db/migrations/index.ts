@@ -9,6 +9,7 @@ import { Drawings1765152000000 } from "./1765152000000-Drawings";
 import { TimelineViews1765324800000 } from "./1765324800000-timeline-views";
 import { OutboxFailures1765411200000 } from "./1765411200000-outbox-failures";
 import { AuthHardening1765513200000 } from "./1765513200000-auth-hardening";
+import { WorkshopSettings1765600100000 } from "./1765600100000-workshop-settings";
 
 /** Migration classes in order (classes, not a glob, so vitest and tsx load them alike). */
 export const migrations = [
@@ -23,4 +24,5 @@ export const migrations = [
   TimelineViews1765324800000,
   OutboxFailures1765411200000,
   AuthHardening1765513200000,
+  WorkshopSettings1765600100000,
 ];
