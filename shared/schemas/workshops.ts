@@ -79,7 +79,10 @@ export const workshopSettingsSchema = z
       .number()
       .int("Use a whole number of days")
       .min(0, "Use 0 for no reminder")
-      .max(REMINDER_DAYS_MAX, `At most ${REMINDER_DAYS_MAX} working days before`),
+      .max(
+        REMINDER_DAYS_MAX,
+        `At most ${REMINDER_DAYS_MAX} working days before`,
+      ),
   })
   .strict();
 export type WorkshopSettings = z.infer<typeof workshopSettingsSchema>;

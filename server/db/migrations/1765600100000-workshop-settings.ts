@@ -10,7 +10,7 @@ export class WorkshopSettings1765600100000 implements MigrationInterface {
 
   public async up(q: QueryRunner): Promise<void> {
     await q.query(
-      "ALTER TABLE `workshops` ADD `siteWeekdays` json NOT NULL DEFAULT '[1,2,3,4,5]', ADD `arrivalWindows` json NOT NULL DEFAULT '[\"morning\",\"afternoon\",\"all-day\",\"range\"]', ADD `reminderDays` int NOT NULL DEFAULT 1, ADD `setupStep` varchar(16) NULL, ADD `setupCompletedAt` datetime(3) NULL",
+      'ALTER TABLE `workshops` ADD `siteWeekdays` json NOT NULL DEFAULT \'[1,2,3,4,5]\', ADD `arrivalWindows` json NOT NULL DEFAULT \'["morning","afternoon","all-day","range"]\', ADD `reminderDays` int NOT NULL DEFAULT 1, ADD `setupStep` varchar(16) NULL, ADD `setupCompletedAt` datetime(3) NULL',
     );
     await q.query("UPDATE `workshops` SET `setupCompletedAt` = `createdAt`");
   }

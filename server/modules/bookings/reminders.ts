@@ -69,8 +69,7 @@ export async function sendDueReminders(
       );
       const today = localToday(l.job.timeZone, now);
       if (
-        workingDayAhead(calendars, today, days) !==
-        l.booking.start.slice(0, 10)
+        workingDayAhead(calendars, today, days) !== l.booking.start.slice(0, 10)
       )
         return false;
       const res = await m

@@ -55,10 +55,7 @@ export function presentWorkshop(w: Workshop): WorkshopResponse {
   };
 }
 
-async function load(
-  m: EntityManager,
-  workshopId: string,
-): Promise<Workshop> {
+async function load(m: EntityManager, workshopId: string): Promise<Workshop> {
   const w = await m.findOneBy(Workshop, { id: workshopId });
   if (!w) throw notFound("That workshop");
   return w;
@@ -112,7 +109,8 @@ async function openJobs(m: EntityManager, workshopId: string): Promise<Job[]> {
 
 /** Most affected first: handover newly at risk, then the finish moving furthest, then bookings. */
 function byEffect(a: ReplanJob, b: ReplanJob): number {
-  const risk = (j: ReplanJob) => (j.handoverAtRisk && !j.handoverAtRiskBefore ? 1 : 0);
+  const risk = (j: ReplanJob) =>
+    j.handoverAtRisk && !j.handoverAtRiskBefore ? 1 : 0;
   return (
     risk(b) - risk(a) ||
     Math.abs(b.changeDays) - Math.abs(a.changeDays) ||
@@ -141,7 +139,10 @@ export async function previewSettings(
     plans.push(await replanJob(ds.manager, job, before, after));
   return {
     replans: true,
-    jobs: plans.filter((p) => p.changed).map((p) => p.view).sort(byEffect),
+    jobs: plans
+      .filter((p) => p.changed)
+      .map((p) => p.view)
+      .sort(byEffect),
     unchangedJobs: plans.filter((p) => !p.changed).length,
   };
 }
@@ -163,7 +164,8 @@ export async function updateWorkshop(
   authorize(actor, "workshop.update", ws(workshopId));
   proposed(await load(ds.manager, workshopId), body);
   await lockingTransaction(ds, async (m) => {
-    if (!(await lockWorkshopRow(m, workshopId))) throw notFound("That workshop");
+    if (!(await lockWorkshopRow(m, workshopId)))
+      throw notFound("That workshop");
     const before = await load(m, workshopId);
     const after = proposed(before, body);
     const plans = [];
@@ -195,7 +197,10 @@ export async function updateWorkshop(
         reminderDays: after.reminderDays,
         ...(setupStep !== undefined ? { setupStep } : {}),
         ...(setupDone === true
-          ? { setupStep: null, setupCompletedAt: before.setupCompletedAt ?? new Date() }
+          ? {
+              setupStep: null,
+              setupCompletedAt: before.setupCompletedAt ?? new Date(),
+            }
           : {}),
       },
     );
@@ -204,7 +209,11 @@ export async function updateWorkshop(
       await m.update(
         Job,
         { id: p.job.id },
-        { holidayRegion: p.next.holidayRegion, timeZone: p.next.timeZone, version },
+        {
+          holidayRegion: p.next.holidayRegion,
+          timeZone: p.next.timeZone,
+          version,
+        },
       );
       await audit(m, {
         workshopId,
@@ -228,7 +237,10 @@ export async function updateWorkshop(
       action: "workshop.updated",
       entityType: "workshop",
       entityId: workshopId,
-      detail: { ...changed, replannedJobs: plans.filter((p) => p.changed).length },
+      detail: {
+        ...changed,
+        replannedJobs: plans.filter((p) => p.changed).length,
+      },
     });
   });
   return presentWorkshop(await load(ds.manager, workshopId));
@@ -241,13 +253,11 @@ export async function listMembers(
   workshopId: string,
 ): Promise<MemberResponse[]> {
   authorize(actor, "members.read", ws(workshopId));
-  const members = await ds
-    .getRepository(WorkshopMember)
-    .find({
-      where: { workshopId },
-      relations: { user: true },
-      order: { createdAt: "ASC" },
-    });
+  const members = await ds.getRepository(WorkshopMember).find({
+    where: { workshopId },
+    relations: { user: true },
+    order: { createdAt: "ASC" },
+  });
   return members.map((m) => ({
     userId: m.userId,
     name: (m.user as User).name,
