@@ -190,6 +190,8 @@ export const expected: Record<string, Row> = {
 
   "GET /workshops/:workshopId/starters": staff(200),
   "PUT /workshops/:workshopId/starters/:starterId": staff(200),
+  // Deleting is the owner's (roles table), as for trades and jobs.
+  "DELETE /workshops/:workshopId/starters/:starterId": ownerOnly(204),
 
   "GET /workshops/:workshopId/customers": staff(200),
   "POST /workshops/:workshopId/customers": staff(201),

@@ -32,6 +32,7 @@ import { ProgrammeStarter } from "../modules/starters/starters.entity";
 import { issueFeed } from "../modules/feeds/feeds.service";
 import { User } from "../modules/users/users.entity";
 import { samplePng } from "../../tests/setup/uploads";
+import { newId } from "../db/columns";
 import { expected, roles, type MatrixRole } from "./role-matrix.expected";
 
 let t: TestApp;
@@ -513,6 +514,29 @@ const requests: Record<
         links: starter.links,
       },
     };
+  },
+  // A fresh starter per role, so each request finds one to delete.
+  "DELETE /workshops/:workshopId/starters/:starterId": async () => {
+    const m = t.db.ds.manager;
+    const id = newId();
+    await m.insert(ProgrammeStarter, {
+      id,
+      workshopId: ids.workshopId,
+      name: `Spare starter ${unique()}`,
+      description: "",
+      tasks: [
+        {
+          key: "a",
+          name: "A",
+          party: "workshop",
+          durationDays: 1,
+          hazards: [],
+          customerNote: "",
+        },
+      ],
+      links: [],
+    });
+    return { path: `/api/workshops/${ids.workshopId}/starters/${id}` };
   },
   "GET /workshops/:workshopId/customers": async () => ({
     path: `/api/workshops/${ids.workshopId}/customers`,
