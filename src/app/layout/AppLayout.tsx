@@ -25,7 +25,11 @@ function navItems(viewer: Viewer, isOwnerOfActive: boolean): NavItem[] {
     { to: "/calendar", label: "Calendar" },
     { to: "/trades", label: "Trades" },
   ];
-  if (isOwnerOfActive) items.push({ to: "/members", label: "Members" });
+  if (isOwnerOfActive)
+    items.push(
+      { to: "/members", label: "Members" },
+      { to: "/settings", label: "Settings" },
+    );
   return items;
 }
 
