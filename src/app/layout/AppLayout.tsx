@@ -90,7 +90,8 @@ export function AppLayout({
             aria-label="Main"
             className="order-3 w-full sm:order-none sm:w-auto"
           >
-            <ul className="flex gap-1">
+            {/* Five links for an owner: narrower on a phone, and wrapping rather than overflowing at 375 px. */}
+            <ul className="flex flex-wrap gap-1">
               {items.map((item) => (
                 <li key={item.to}>
                   <NavLink
@@ -98,7 +99,7 @@ export function AppLayout({
                     end={item.to === "/"}
                     className={({ isActive }) =>
                       cx(
-                        "block rounded px-3 py-1.5 text-sm font-medium",
+                        "block rounded px-2 py-1.5 text-sm font-medium sm:px-3",
                         isActive
                           ? "bg-accent-wash text-accent-strong"
                           : "text-ink hover:bg-paper",

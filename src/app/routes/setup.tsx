@@ -184,9 +184,7 @@ function SetupPage({ workshopId }: { workshopId: string }) {
                     Start your first job from a starter
                   </p>
                   <p className="text-sm text-ink-soft">
-                    {starterNames
-                      ? `Your starters: ${starterNames}. `
-                      : ""}
+                    {starterNames ? `Your starters: ${starterNames}. ` : ""}
                     The tasks come ready, dated from your first free day.
                   </p>
                 </div>

@@ -248,14 +248,20 @@ export function SettingsForm({
           <div className="grid grid-cols-2 gap-4 sm:max-w-sm">
             <TextField
               label="Day starts"
-              type="time"
+              // Text, not type="time": the browser's time control shows 12-hour times in some
+              // locales, and Sitecue writes the 24-hour clock.
+              inputMode="numeric"
+              placeholder="08:00"
               inputClassName="font-mono"
               error={errors.dayStart?.message}
               {...form.register("dayStart")}
             />
             <TextField
               label="Day ends"
-              type="time"
+              // Text, not type="time": the browser's time control shows 12-hour times in some
+              // locales, and Sitecue writes the 24-hour clock.
+              inputMode="numeric"
+              placeholder="08:00"
               inputClassName="font-mono"
               error={errors.dayEnd?.message}
               {...form.register("dayEnd")}
