@@ -336,6 +336,47 @@ describe("a change that re-plans open jobs, knock-on first", () => {
   });
 });
 
+describe("the arrival times the workshop offers", () => {
+  it("the booking options carry them, and a booking with another is refused (422)", async () => {
+    const m = t.db.ds.manager;
+    const w = await buildWorkshop(m, { name: "All Day Only Joinery" });
+    const u = await buildUser(m);
+    await buildMember(m, w, u, "owner");
+    const s = await signIn(t, u.email);
+    const customer = await buildCustomer(m, w);
+    const job = await buildJob(m, w, customer, { title: "Media wall" });
+    const task = await buildTask(m, job, {
+      name: "Skim the wall",
+      party: "plasterer",
+      durationDays: 1,
+    });
+    const trade = await buildTrade(m, w, { kind: "plasterer" });
+    await patch(s, { arrivalWindows: ["all-day", "range"] }, w).expect(200);
+    const options = await s.agent
+      .get(`/api/jobs/${job.id}/tasks/${task.id}/booking-options`)
+      .expect(200);
+    expect(options.body.arrivalWindows).toEqual(["all-day", "range"]);
+    const start = options.body.trades[0].firstFree.start as string;
+    const book = (arrivalWindow: string) =>
+      s.agent
+        .post(`/api/jobs/${job.id}/bookings`)
+        .set("X-CSRF-Token", s.csrf)
+        .send({
+          taskId: task.id,
+          tradeId: trade.id,
+          start,
+          arrivalWindow,
+          send: false,
+        });
+    const refused = await book("morning").expect(422);
+    expect(refused.body.error.fields.arrivalWindow).toEqual([
+      "Choose an arrival time the workshop offers",
+    ]);
+    expect(await m.countBy(Booking, { taskId: task.id })).toBe(0);
+    await book("all-day").expect(201);
+  });
+});
+
 describe("reminder timing", () => {
   it("counts working days ahead across a weekend and a bank holiday (GOV.UK: Mon 28 Dec 2026 is the Boxing Day substitute)", () => {
     const cal = [
