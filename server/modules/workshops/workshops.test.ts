@@ -327,6 +327,50 @@ describe("a change that re-plans open jobs, knock-on first", () => {
     expect(mail.text).toContain("Please confirm again");
   });
 
+  it("concurrent changes are serialised by the workshop's lock: none fails, each bumps every open job once", async () => {
+    const m = t.db.ds.manager;
+    const w = await buildWorkshop(m, { name: "Busy Owners Joinery" });
+    const u = await buildUser(m);
+    await buildMember(m, w, u, "owner");
+    const s = await signIn(t, u.email);
+    const customer = await buildCustomer(m, w);
+    const jobs = [];
+    for (let i = 0; i < 3; i++) {
+      const job = await buildJob(m, w, customer, { title: `Run ${i}` });
+      await buildTask(m, job, {
+        name: "Make",
+        party: "workshop",
+        durationDays: 6,
+      });
+      jobs.push(job);
+    }
+    const days = [
+      [1, 2, 3, 4],
+      [1, 2, 3, 4, 5],
+      [2, 3, 4, 5],
+      [1, 2, 3, 5],
+      [1, 3, 4, 5],
+      [1, 2, 4, 5],
+    ];
+    const t0 = Date.now();
+    const answers = await Promise.all(
+      days.map((d) => patch(s, { workingWeekdays: d }, w)),
+    );
+    const took = Date.now() - t0;
+    const statuses = answers.map((a) => a.status);
+    // A lock wait past LOCK_WAIT_SECONDS would be 409 "busy" (server/db/locks.ts), never a 5xx.
+    expect(statuses.every((c) => c === 200 || c === 409)).toBe(true);
+    const ok = statuses.filter((c) => c === 200).length;
+    expect(ok).toBeGreaterThan(0);
+    for (const job of jobs)
+      expect((await m.findOneByOrFail(Job, { id: job.id })).version).toBe(
+        1 + ok,
+      );
+    console.info(
+      `${days.length} concurrent settings changes: ${statuses.join(" ")} in ${took} ms`,
+    );
+  });
+
   it("name, town, arrival times and reminders re-plan nothing", async () => {
     const res = await preview(owner, {
       town: "Wetherfold",

@@ -226,21 +226,10 @@ export function HomeRoute() {
           />
         )
       ) : workshopJobs.length === 0 && otherJobs.length === 0 ? (
-        <EmptyState
-          title="No jobs yet"
-          action={
-            isMember && !creating ? (
-              <Button onClick={() => setCreating(true)}>
-                Create the first job
-              </Button>
-            ) : null
-          }
-        >
-          {isMember
-            ? "Each customer's install is a job. Create one to plan its programme and book trades."
-            : isCustomer
-              ? "When the workshop adds your install, it appears here."
-              : "When a workshop books you for a job, it appears here."}
+        <EmptyState title="No jobs yet">
+          {isCustomer
+            ? "When the workshop adds your install, it appears here."
+            : "When a workshop books you for a job, it appears here."}
         </EmptyState>
       ) : isCustomer ? (
         // The customer's home is their timeline of visits, not a list of jobs.
