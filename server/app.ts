@@ -25,6 +25,7 @@ import { registerFeedRoutes } from "./modules/feeds/feeds.router";
 import { registerHealthRoutes } from "./modules/health/health.router";
 import { registerJobRoutes } from "./modules/jobs/jobs.router";
 import { registerProgrammeRoutes } from "./modules/programme/programme.router";
+import type { AfterApply } from "./modules/programme/programme.service";
 import { registerStarterRoutes } from "./modules/starters/starters.router";
 import { registerBookingRoutes } from "./modules/bookings/bookings.router";
 import { reconfirmAfterChange } from "./modules/bookings/bookings.service";
@@ -228,15 +229,17 @@ export function createApp(deps: AppDeps): SitecueApp {
     replyDomain: deps.replyDomain ?? "replies.sitecue.example.test",
   };
   // Applying a programme change re-books the trades it moves (scenario 4), in the same transaction.
-  registerProgrammeRoutes(api, deps.ds, async (m, job, impact, actorUserId) => {
+  const reconfirm: AfterApply = async (m, job, impact, actorUserId) => {
     await reconfirmAfterChange(m, bookingDeps, job, impact, actorUserId);
-  });
+  };
+  registerProgrammeRoutes(api, deps.ds, reconfirm);
   registerBookingRoutes(api, bookingDeps, {
     linkLimit: deps.linkLimit ?? 120,
     limits,
   });
   registerStarterRoutes(api, deps.ds);
-  registerWorkshopRoutes(api, authDeps);
+  // A settings change that re-plans open jobs re-books the trades it moves, as above (issue 14).
+  registerWorkshopRoutes(api, authDeps, reconfirm);
   registerTradeRoutes(api, deps.ds);
   registerCustomerRoutes(api, deps.ds);
   registerFeedRoutes(api, bookingDeps);

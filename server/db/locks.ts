@@ -26,6 +26,21 @@ export function lockingTransaction<T>(
   return ds.transaction("READ COMMITTED", work);
 }
 
+/**
+ * Locks the workshop's row, before any job row: a settings change takes it, then every open job's
+ * row (id order), then their trades. Nothing else locks a workshop row, so the order holds.
+ */
+export async function lockWorkshopRow(
+  m: EntityManager,
+  workshopId: string,
+): Promise<boolean> {
+  const rows: unknown[] = await m.query(
+    `SELECT id FROM workshops WHERE id = ? FOR UPDATE WAIT ${LOCK_WAIT_SECONDS}`,
+    [workshopId],
+  );
+  return rows.length > 0;
+}
+
 /** Locks one job's row (a no-op when the transaction holds it); false when there is no such job. */
 export async function lockJobRow(
   m: EntityManager,
@@ -52,13 +67,19 @@ export async function lockJob(m: EntityManager, jobId: string): Promise<Job> {
  */
 export async function lockJobTrades(
   m: EntityManager,
-  jobId: string,
+  jobId: string | string[],
   also: string[] = [],
 ): Promise<void> {
-  const booked = await m.find(Booking, {
-    where: { jobId, state: In([...PINNING_STATES]) },
-    select: { tradeId: true },
-  });
+  // Several jobs (a workshop settings change re-plans them all): their rows are locked first, by
+  // the caller, then every trade of all of them here in one id order.
+  const jobIds = Array.isArray(jobId) ? jobId : [jobId];
+  if (!jobIds.length && !also.length) return;
+  const booked = !jobIds.length
+    ? []
+    : await m.find(Booking, {
+        where: { jobId: In(jobIds), state: In([...PINNING_STATES]) },
+        select: { tradeId: true },
+      });
   const ids = new Set([...also, ...booked.map((b) => b.tradeId)]);
   if (!ids.size) return;
   const people = await m.find(TradeMember, {

@@ -114,6 +114,7 @@ export type Action =
   | "bookings.manage"
   | "starters.read"
   | "starters.update"
+  | "starters.delete"
   | "customers.read"
   | "customers.create"
   | "jobs.list"
@@ -270,6 +271,7 @@ export function can(actor: Actor, action: Action, resource: Resource): boolean {
     case "invitations.manage":
     case "trades.delete":
     case "job.delete":
+    case "starters.delete":
       return roleIn(actor, ws, "owner");
     case "trades.read":
     case "trades.create":

@@ -155,6 +155,7 @@ export const expected: Record<string, Row> = {
 
   "GET /workshops/:workshopId": staff(200),
   "PATCH /workshops/:workshopId": ownerOnly(200),
+  "POST /workshops/:workshopId/settings/preview": ownerOnly(200),
   "GET /workshops/:workshopId/members": ownerOnly(200),
   "GET /workshops/:workshopId/invitations": ownerOnly(200),
   "POST /workshops/:workshopId/invitations": ownerOnly(201),
@@ -192,6 +193,8 @@ export const expected: Record<string, Row> = {
 
   "GET /workshops/:workshopId/starters": staff(200),
   "PUT /workshops/:workshopId/starters/:starterId": staff(200),
+  // Deleting is the owner's (roles table), as for trades and jobs.
+  "DELETE /workshops/:workshopId/starters/:starterId": ownerOnly(204),
 
   "GET /workshops/:workshopId/customers": staff(200),
   "POST /workshops/:workshopId/customers": staff(201),

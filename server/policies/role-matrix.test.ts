@@ -32,6 +32,7 @@ import { ProgrammeStarter } from "../modules/starters/starters.entity";
 import { issueFeed } from "../modules/feeds/feeds.service";
 import { User } from "../modules/users/users.entity";
 import { samplePng } from "../../tests/setup/uploads";
+import { newId } from "../db/columns";
 import { expected, roles, type MatrixRole } from "./role-matrix.expected";
 
 let t: TestApp;
@@ -466,6 +467,10 @@ const requests: Record<
     path: `/api/workshops/${ids.workshopId}`,
     body: { town: "Wetherfold" },
   }),
+  "POST /workshops/:workshopId/settings/preview": async () => ({
+    path: `/api/workshops/${ids.workshopId}/settings/preview`,
+    body: { workingWeekdays: [1, 2, 3, 4] },
+  }),
   "GET /workshops/:workshopId/members": async () => ({
     path: `/api/workshops/${ids.workshopId}/members`,
   }),
@@ -525,6 +530,29 @@ const requests: Record<
         links: starter.links,
       },
     };
+  },
+  // A fresh starter per role, so each request finds one to delete.
+  "DELETE /workshops/:workshopId/starters/:starterId": async () => {
+    const m = t.db.ds.manager;
+    const id = newId();
+    await m.insert(ProgrammeStarter, {
+      id,
+      workshopId: ids.workshopId,
+      name: `Spare starter ${unique()}`,
+      description: "",
+      tasks: [
+        {
+          key: "a",
+          name: "A",
+          party: "workshop",
+          durationDays: 1,
+          hazards: [],
+          customerNote: "",
+        },
+      ],
+      links: [],
+    });
+    return { path: `/api/workshops/${ids.workshopId}/starters/${id}` };
   },
   "GET /workshops/:workshopId/customers": async () => ({
     path: `/api/workshops/${ids.workshopId}/customers`,

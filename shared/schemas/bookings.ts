@@ -143,6 +143,8 @@ export const bookingOptionsResponseSchema = z.object({
   keepsHandover: z.boolean(),
   /** The job's handover date; null when none is agreed (the window then keeps the planned finish). */
   handoverDate: z.string().nullable(),
+  /** The arrival times the workshop offers (its settings); the booking form offers only these. */
+  arrivalWindows: z.array(arrivalWindowSchema),
   trades: z.array(
     z.object({
       tradeId: idSchema,

@@ -83,6 +83,7 @@ export const arrivalWindows = [
   "range",
 ] as const;
 export const arrivalWindowSchema = z.enum(arrivalWindows);
+export type ArrivalWindow = z.infer<typeof arrivalWindowSchema>;
 
 export const jobStatuses = [
   "survey",
@@ -93,6 +94,9 @@ export const jobStatuses = [
 ] as const;
 export const jobStatusSchema = z.enum(jobStatuses);
 export type JobStatus = z.infer<typeof jobStatusSchema>;
+
+/** A job still to be done: neither handed over nor cancelled. */
+export const openJobStatuses: JobStatus[] = ["survey", "planned", "on-site"];
 
 /** The body of every API error. */
 export const apiErrorSchema = z.object({

@@ -10,6 +10,7 @@ import {
   tradeKindSchema,
   weekdaysSchema,
 } from "./common";
+import { timeZoneSchema } from "./workshops";
 
 export const viewerRoleSchema = z.enum([
   "owner",
@@ -37,10 +38,12 @@ export const createJobBodySchema = z.object({
     .min(1, "Enter the town or area trades see before they confirm")
     .max(120),
   holidayRegion: holidayRegionSchema,
-  timeZone: z.string().default("Europe/London"),
+  /** The workshop's time zone when left out. */
+  timeZone: timeZoneSchema.optional(),
   status: jobStatusSchema.default("survey"),
   handoverDate: isoDateSchema.nullable().default(null),
-  siteWeekdays: weekdaysSchema.default([1, 2, 3, 4, 5]),
+  /** The workshop's usual site days (its settings) when left out. */
+  siteWeekdays: weekdaysSchema.optional(),
   accessNotes: z.string().max(2000).default(""),
   /** Start from one of the workshop's starting programmes. */
   starterId: idSchema.optional(),

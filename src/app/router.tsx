@@ -19,6 +19,8 @@ import { DrawingRoute } from "./routes/drawing";
 import { VisitRoute } from "./routes/visit";
 import { TradesRoute } from "./routes/trades";
 import { MembersRoute } from "./routes/members";
+import { SettingsRoute } from "./routes/settings";
+import { SetupRoute } from "./routes/setup";
 import { NotFoundRoute } from "./routes/not-found";
 
 function Root() {
@@ -63,6 +65,8 @@ export function createAppRouter() {
             { path: "visits/:bookingId", element: <VisitRoute /> },
             { path: "trades", element: <TradesRoute /> },
             { path: "members", element: <MembersRoute /> },
+            { path: "settings", element: <SettingsRoute /> },
+            { path: "setup", element: <SetupRoute /> },
             // FullCalendar (~80 KB gzip) loads with these routes only.
             { path: "calendar", lazy: () => import("./routes/calendar") },
             { path: "my-calendar", lazy: () => import("./routes/my-calendar") },

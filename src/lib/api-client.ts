@@ -138,6 +138,8 @@ export const api = {
     apiRequest<T>(path, { method: "POST", body: body ?? {} }),
   patch: <T>(path: string, body: unknown) =>
     apiRequest<T>(path, { method: "PATCH", body }),
+  put: <T>(path: string, body: unknown) =>
+    apiRequest<T>(path, { method: "PUT", body }),
   delete: (path: string) => apiRequest<void>(path, { method: "DELETE" }),
 };
 

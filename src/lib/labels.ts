@@ -1,10 +1,12 @@
-import type {
-  BookingState,
-  BookingView,
-  HolidayRegion,
-  JobStatus,
-  Party,
-  TaskView,
+import {
+  nationLabels,
+  type ArrivalWindow,
+  type BookingState,
+  type BookingView,
+  type HolidayRegion,
+  type JobStatus,
+  type Party,
+  type TaskView,
 } from "../../shared/schemas";
 
 // Every word shown for an enum value, in one place, taken from the brief's Words table.
@@ -50,11 +52,15 @@ export const roleLabels = {
   customer: "Customer",
 } as const;
 
-export const holidayRegionLabels: Record<HolidayRegion, string> = {
-  "GB-ENG": "England",
-  "GB-WLS": "Wales",
-  "GB-SCT": "Scotland",
-  "GB-NIR": "Northern Ireland",
+/** A nation in words: the one map lives in shared (England and Wales are one choice). */
+export const holidayRegionLabels: Record<HolidayRegion, string> = nationLabels;
+
+/** An arrival time as a choice: the booking form and the workshop's settings offer these words. */
+export const arrivalChoiceLabels: Record<ArrivalWindow, string> = {
+  morning: "Morning",
+  afternoon: "Afternoon",
+  "all-day": "All day",
+  range: "Between set times",
 };
 
 export const linkKindLabels = {

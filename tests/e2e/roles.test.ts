@@ -47,6 +47,7 @@ describe("each demo role in the browser", () => {
       "Calendar",
       "Trades",
       "Members",
+      "Settings",
     ]);
     await shot(page, "owner-home-desktop");
 

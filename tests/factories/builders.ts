@@ -19,11 +19,12 @@ import {
   Workshop,
   WorkshopMember,
 } from "../../server/modules/workshops/workshops.entity";
-import type {
-  BookingState,
-  MemberRole,
-  Party,
-  TradeKind,
+import {
+  arrivalWindows,
+  type BookingState,
+  type MemberRole,
+  type Party,
+  type TradeKind,
 } from "../../shared/schemas";
 
 let counter = 0;
@@ -69,6 +70,12 @@ export async function buildWorkshop(
     workingWeekdays: [1, 2, 3, 4, 5],
     dayStart: "08:00",
     dayEnd: "16:30",
+    siteWeekdays: [1, 2, 3, 4, 5],
+    arrivalWindows: [...arrivalWindows],
+    reminderDays: 1,
+    setupStep: null,
+    // Built workshops (the demo, tests) count as set up; pass null to be one just signed up.
+    setupCompletedAt: new Date(),
     ...o,
   });
   await m.insert(Workshop, w);

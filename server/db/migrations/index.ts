@@ -10,6 +10,7 @@ import { TimelineViews1765324800000 } from "./1765324800000-timeline-views";
 import { OutboxFailures1765411200000 } from "./1765411200000-outbox-failures";
 import { AuthHardening1765513200000 } from "./1765513200000-auth-hardening";
 import { SignUp1765600000000 } from "./1765600000000-sign-up";
+import { WorkshopSettings1765600100000 } from "./1765600100000-workshop-settings";
 
 /** Migration classes in order (classes, not a glob, so vitest and tsx load them alike). */
 export const migrations = [
@@ -25,4 +26,5 @@ export const migrations = [
   OutboxFailures1765411200000,
   AuthHardening1765513200000,
   SignUp1765600000000,
+  WorkshopSettings1765600100000,
 ];

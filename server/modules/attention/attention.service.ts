@@ -11,7 +11,7 @@ import {
   type AttentionItem,
   type AttentionResponse,
   type BookingState,
-  type JobStatus,
+  openJobStatuses,
   type Party,
 } from "../../../shared/schemas";
 import { authorize, type Actor } from "../../policies";
@@ -28,7 +28,6 @@ import { listAwayClashes } from "../timeline/timeline.service";
 import { Workshop } from "../workshops/workshops.entity";
 
 /** Jobs still in hand: their programmes can need the maker. */
-const OPEN_STATUSES: JobStatus[] = ["survey", "planned", "on-site"];
 
 /** An unbooked trade task this close (in the workshop's working days) needs booking even if it still waits. */
 export const BOOK_AHEAD_WORKING_DAYS = 5;
@@ -170,7 +169,7 @@ export async function attentionFor(
   const workshop = await m.findOneBy(Workshop, { id: workshopId });
   if (!workshop) throw notFound("That workshop");
   const jobs = await m.find(Job, {
-    where: { workshopId, status: In(OPEN_STATUSES) },
+    where: { workshopId, status: In(openJobStatuses) },
     order: { title: "ASC" },
   });
   const workshopCalendar: CalendarInput = {

@@ -134,7 +134,7 @@ type Kind =
   | "reminder"
   | "proposal-rejected";
 
-const subjects: Record<Kind, (c: NoticeContext) => string> = {
+const subjects: Record<Kind, (c: NoticeContext, b: Booking) => string> = {
   invitation: (c) =>
     `${c.workshop.name}: can you do ${c.task.name} at ${c.job.area}?`,
   updated: (c) =>
@@ -142,7 +142,9 @@ const subjects: Record<Kind, (c: NoticeContext) => string> = {
   chase: (c) => `Reminder: please answer for ${c.task.name} at ${c.job.area}`,
   cancel: (c) =>
     `${c.workshop.name}: ${c.task.name} at ${c.job.area} is cancelled`,
-  reminder: (c) => `Tomorrow: ${c.task.name} at ${c.job.area}`,
+  // "Tomorrow" only when the reminder goes the working day before (the workshop's setting).
+  reminder: (c, b) =>
+    `${c.workshop.reminderDays > 1 ? `Coming up ${dayWords(b.start)}` : "Tomorrow"}: ${c.task.name} at ${c.job.area}`,
   "proposal-rejected": (c) =>
     `${c.workshop.name}: your proposed date for ${c.task.name} doesn't work`,
 };
@@ -194,7 +196,7 @@ export async function queueBookingMail(
   await enqueueMail(m, {
     workshopId: ctx.workshop.id,
     to: ctx.trade.email,
-    subject: subjects[kind](ctx),
+    subject: subjects[kind](ctx, b),
     text,
     html,
     calendar: { method, content: ics, filename: "invite.ics" },

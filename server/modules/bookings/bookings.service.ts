@@ -322,6 +322,7 @@ export async function bookingOptions(
     latestStart: window.latestStart,
     keepsHandover: window.keepsHandover,
     handoverDate: job.handoverDate,
+    arrivalWindows: workshop.arrivalWindows,
     trades: options,
   };
 }
@@ -547,6 +548,14 @@ export async function createBooking(
         { taskId: ["Already booked"] },
       );
     const workshop = await m.findOneByOrFail(Workshop, { id: job.workshopId });
+    // The workshop offers only the arrival times in its settings (issue 14).
+    if (!workshop.arrivalWindows.includes(body.arrivalWindow))
+      throw new HttpError(
+        422,
+        "unprocessable",
+        `${workshop.name} does not offer that arrival time; choose one the workshop offers.`,
+        { arrivalWindow: ["Choose an arrival time the workshop offers"] },
+      );
     // An afternoon arrival is the afternoon slot; otherwise a bare date means that morning.
     const start =
       body.arrivalWindow === "afternoon"

@@ -11,23 +11,38 @@ import {
   type BookingDeps,
 } from "./bookings.service";
 
+/** The `n`th working day after `today` on the given calendars (looking at most 3 weeks a day on). */
+export function workingDayAhead(
+  calendars: CalendarInput[],
+  today: string,
+  n: number,
+): string | null {
+  const d = new Date(`${today}T12:00:00Z`);
+  let found = 0;
+  for (let i = 0; i < 21 * Math.max(n, 1); i++) {
+    d.setUTCDate(d.getUTCDate() + 1);
+    const day = d.toISOString().slice(0, 10);
+    if (isWorkingDay(calendars, day) && ++found === n) return day;
+  }
+  return null;
+}
+
 /** The next working day after `today` on the given calendars (at most three weeks on). */
 export function nextWorkingDay(
   calendars: CalendarInput[],
   today: string,
 ): string | null {
-  const d = new Date(`${today}T12:00:00Z`);
-  for (let i = 0; i < 21; i++) {
-    d.setUTCDate(d.getUTCDate() + 1);
-    const day = d.toISOString().slice(0, 10);
-    if (isWorkingDay(calendars, day)) return day;
-  }
-  return null;
+  return workingDayAhead(calendars, today, 1);
+}
+
+/** "the working day before", "2 working days before": when the workshop's reminders go. */
+export function reminderWhen(days: number): string {
+  return days === 1 ? "the working day before" : `${days} working days before`;
 }
 
 /**
- * Sends each confirmed trade a reminder the working day before their visit (on the task's own
- * calendars). Safe to run from several processes at once: a reminder is claimed by the UPDATE
+ * Sends each confirmed trade a reminder the workshop's `reminderDays` working days before their
+ * visit (on the task's own calendars; 0 sends none; issue 14). Safe to run from several processes at once: a reminder is claimed by the UPDATE
  * that sets `reminderSentAt`, so only one process sends it.
  */
 export async function sendDueReminders(
@@ -42,6 +57,8 @@ export async function sendDueReminders(
   for (const c of candidates) {
     const claimed = await ds.transaction(async (m) => {
       const l = await loadBooking(m, c.id);
+      const days = l.workshop.reminderDays;
+      if (days < 1) return false;
       const data = await loadProgramme(m, l.job, l.workshop, now);
       const task = data.input.tasks.find((t) => t.id === l.task.id);
       const ids = Array.isArray(task?.calendar)
@@ -51,7 +68,9 @@ export async function sendDueReminders(
         ids.includes(cal.id),
       );
       const today = localToday(l.job.timeZone, now);
-      if (nextWorkingDay(calendars, today) !== l.booking.start.slice(0, 10))
+      if (
+        workingDayAhead(calendars, today, days) !== l.booking.start.slice(0, 10)
+      )
         return false;
       const res = await m
         .createQueryBuilder()
@@ -79,7 +98,7 @@ export async function sendDueReminders(
         l.booking.state,
         "system",
         null,
-        "Reminder sent for the working day before",
+        `Reminder sent for ${reminderWhen(days)}`,
       );
       return true;
     });

@@ -173,11 +173,17 @@ export async function createJob(
     );
   const id = newId();
   const { starterId, ...fields } = body;
+  const workshop = await ds
+    .getRepository(Workshop)
+    .findOneByOrFail({ id: workshopId });
   await ds.transaction(async (m) => {
     await m.insert(Job, {
       id,
       workshopId,
       ...fields,
+      // Left out, they come from the workshop's settings (issue 14), not a fixed Mon–Fri.
+      siteWeekdays: fields.siteWeekdays ?? workshop.siteWeekdays,
+      timeZone: fields.timeZone ?? workshop.timeZone,
       siteClosedDates: [],
       version: 1,
     });

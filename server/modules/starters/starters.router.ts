@@ -6,7 +6,11 @@ import {
   starterResponseSchema,
 } from "../../../shared/schemas";
 import type { ApiRoutes } from "../../http/routes";
-import { listStarters, replaceStarter } from "./starters.service";
+import {
+  listStarters,
+  replaceStarter,
+  deleteStarter,
+} from "./starters.service";
 
 const workshop = z.object({ workshopId: idSchema });
 
@@ -32,5 +36,15 @@ export function registerStarterRoutes(api: ApiRoutes, ds: DataSource): void {
     response: starterResponseSchema,
     handler: async ({ actor, params, body }) =>
       replaceStarter(ds, actor, params.workshopId, params.starterId, body),
+  });
+  api.add({
+    method: "delete",
+    path: "/workshops/:workshopId/starters/:starterId",
+    tag: "programme",
+    summary: "Delete a starting programme (owner)",
+    params: workshop.extend({ starterId: idSchema }),
+    status: 204,
+    handler: async ({ actor, params }) =>
+      deleteStarter(ds, actor, params.workshopId, params.starterId),
   });
 }

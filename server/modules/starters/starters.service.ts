@@ -109,6 +109,31 @@ export async function replaceStarter(
   );
 }
 
+/** Deletes a starter (owner); jobs made from it keep their own tasks and links. */
+export async function deleteStarter(
+  ds: DataSource,
+  actor: Actor | null,
+  workshopId: string,
+  starterId: string,
+): Promise<void> {
+  authorize(actor, "starters.delete", { kind: "workshop", workshopId });
+  const starter = await ds
+    .getRepository(ProgrammeStarter)
+    .findOneBy({ id: starterId, workshopId });
+  if (!starter) throw notFound("That starting programme");
+  await ds.transaction(async (m) => {
+    await m.delete(ProgrammeStarter, { id: starterId });
+    await audit(m, {
+      workshopId,
+      actorUserId: actor!.userId,
+      action: "starter.deleted",
+      entityType: "starter",
+      entityId: starterId,
+      detail: { name: starter.name },
+    });
+  });
+}
+
 const CREW = "The workshop's fitting crew";
 
 /**

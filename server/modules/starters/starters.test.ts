@@ -229,3 +229,33 @@ describe("a starter's lags", () => {
     expect(await starterNamed("Alcove cabinets (pair)")).toEqual(before);
   });
 });
+
+describe("deleting a starter (issue 14)", () => {
+  it("the owner deletes one; a job made from it keeps its programme; a fitter may not", async () => {
+    const fitter = await signIn(t, demoAccounts.fitter.email);
+    const starter = await starterNamed("Bookcase wall");
+    const jobId = await createJobFromStarter(owner, {
+      workshopId,
+      customerId,
+      title: "Bookcase made before the delete",
+      starter: "Bookcase wall",
+    });
+    const path = `/api/workshops/${workshopId}/starters/${starter.id}`;
+    await fitter.agent
+      .delete(path)
+      .set("X-CSRF-Token", fitter.csrf)
+      .expect(403);
+    await owner.agent.delete(path).set("X-CSRF-Token", owner.csrf).expect(204);
+    const left = await owner.agent
+      .get(`/api/workshops/${workshopId}/starters`)
+      .expect(200);
+    expect(
+      (left.body.starters as StarterResponse[]).map((s) => s.name),
+    ).not.toContain("Bookcase wall");
+    const programme = await owner.agent
+      .get(`/api/jobs/${jobId}/programme`)
+      .expect(200);
+    expect(programme.body.tasks).toHaveLength(starter.tasks.length);
+    await owner.agent.delete(path).set("X-CSRF-Token", owner.csrf).expect(404);
+  });
+});

@@ -9,12 +9,19 @@ import {
 import {
   CreatedColumn,
   IdColumn,
+  InstantColumn,
   JsonColumn,
   RefColumn,
   TextColumn,
 } from "../../db/columns";
 import { User } from "../users/users.entity";
-import type { HolidayRegion, MemberRole } from "../../../shared/schemas";
+import {
+  arrivalWindows,
+  type ArrivalWindow,
+  type HolidayRegion,
+  type MemberRole,
+  type SetupStep,
+} from "../../../shared/schemas";
 
 /** The maker's business: the tenant every other record is scoped to. */
 @Entity("workshops")
@@ -27,6 +34,16 @@ export class Workshop {
   @JsonColumn() workingWeekdays!: number[];
   @TextColumn(5) dayStart!: string;
   @TextColumn(5) dayEnd!: string;
+  // Issue 14 settings. Database defaults are today's behaviour (Mon–Fri on site, every arrival
+  // time, a reminder the working day before), so a workshop made by any code path starts there.
+  @JsonColumn({ default: () => "'[1,2,3,4,5]'" }) siteWeekdays!: number[];
+  @JsonColumn({ default: () => `'${JSON.stringify(arrivalWindows)}'` })
+  arrivalWindows!: ArrivalWindow[];
+  @Column({ type: "int", default: 1 }) reminderDays!: number;
+  /** The set-up step to come back to (null: not begun, or finished). */
+  @TextColumn(16, { nullable: true }) setupStep!: SetupStep | null;
+  /** Null until the owner finishes or leaves the set-up: the home offers "Finish setting up". */
+  @InstantColumn({ nullable: true }) setupCompletedAt!: Date | null;
   @CreatedColumn() createdAt!: Date;
 }
 

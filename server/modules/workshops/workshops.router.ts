@@ -4,6 +4,7 @@ import {
   idSchema,
   invitationResponseSchema,
   memberResponseSchema,
+  settingsPreviewResponseSchema,
   updateWorkshopBodySchema,
   workshopResponseSchema,
 } from "../../../shared/schemas";
@@ -14,12 +15,19 @@ import {
   getWorkshop,
   listInvitations,
   listMembers,
+  previewSettings,
   updateWorkshop,
+  type ReplanHook,
 } from "./workshops.service";
 
 const params = z.object({ workshopId: idSchema });
 
-export function registerWorkshopRoutes(api: ApiRoutes, deps: AuthDeps): void {
+/** The workshop routes; `replan` re-confirms the bookings a settings change moves (app.ts wires it). */
+export function registerWorkshopRoutes(
+  api: ApiRoutes,
+  deps: AuthDeps,
+  replan?: ReplanHook,
+): void {
   const { ds } = deps;
   api.add({
     method: "get",
@@ -40,7 +48,19 @@ export function registerWorkshopRoutes(api: ApiRoutes, deps: AuthDeps): void {
     body: updateWorkshopBodySchema,
     response: workshopResponseSchema,
     handler: async ({ actor, params, body }) =>
-      updateWorkshop(ds, actor, params.workshopId, body),
+      updateWorkshop(ds, actor, params.workshopId, body, replan),
+  });
+  api.add({
+    method: "post",
+    path: "/workshops/:workshopId/settings/preview",
+    tag: "workshops",
+    summary:
+      "What a settings change would do to the open jobs, before it is made: finish before and after, handover at risk, bookings to re-confirm (owner)",
+    params,
+    body: updateWorkshopBodySchema,
+    response: settingsPreviewResponseSchema,
+    handler: async ({ actor, params, body }) =>
+      previewSettings(ds, actor, params.workshopId, body),
   });
   api.add({
     method: "get",

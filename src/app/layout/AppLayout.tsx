@@ -26,7 +26,11 @@ function navItems(viewer: Viewer, isOwnerOfActive: boolean): NavItem[] {
     { to: "/calendar", label: "Calendar" },
     { to: "/trades", label: "Trades" },
   ];
-  if (isOwnerOfActive) items.push({ to: "/members", label: "Members" });
+  if (isOwnerOfActive)
+    items.push(
+      { to: "/members", label: "Members" },
+      { to: "/settings", label: "Settings" },
+    );
   return items;
 }
 
@@ -87,7 +91,8 @@ export function AppLayout({
             aria-label="Main"
             className="order-3 w-full sm:order-none sm:w-auto"
           >
-            <ul className="flex gap-1">
+            {/* Five links for an owner: narrower on a phone, and wrapping rather than overflowing at 375 px. */}
+            <ul className="flex flex-wrap gap-1">
               {items.map((item) => (
                 <li key={item.to}>
                   <NavLink
@@ -95,7 +100,7 @@ export function AppLayout({
                     end={item.to === "/"}
                     className={({ isActive }) =>
                       cx(
-                        "block rounded px-3 py-1.5 text-sm font-medium",
+                        "block rounded px-2 py-1.5 text-sm font-medium sm:px-3",
                         isActive
                           ? "bg-accent-wash text-accent-strong"
                           : "text-ink hover:bg-paper",

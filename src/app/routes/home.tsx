@@ -1,14 +1,18 @@
 import { useState } from "react";
-import { useNavigate } from "react-router-dom";
+import { useNavigate, useSearchParams } from "react-router-dom";
 import { AttentionList } from "../../features/attention/components/AttentionList";
 import { useCustomers } from "../../features/customers/api/list-customers";
 import { AddCustomerForm } from "../../features/customers/components/AddCustomerForm";
 import { useJobs } from "../../features/jobs/api/list-jobs";
 import { JobsTable } from "../../features/jobs/components/JobsTable";
 import { NewJobForm } from "../../features/jobs/components/NewJobForm";
+import { useStarterNames } from "../../features/jobs/components/starter-names";
+import { useWorkshop } from "../../features/settings/api/get-workshop";
+import { useTrades } from "../../features/trades/api/list-trades";
 import {
   Button,
   EmptyState,
+  LinkButton,
   ErrorState,
   LoadingState,
   PageHeader,
@@ -30,6 +34,7 @@ function NewJobPanel({
 }) {
   const navigate = useNavigate();
   const customers = useCustomers(workshop.workshopId);
+  const settings = useWorkshop(workshop.workshopId);
   return (
     <Section title="New job" id="new-job" className="mb-6">
       <NewJobForm
@@ -50,6 +55,7 @@ function NewJobPanel({
         )}
         onCreated={(job) => navigate(`/jobs/${job.id}`)}
         onCancel={onClose}
+        defaults={settings.data}
       />
     </Section>
   );
@@ -90,12 +96,69 @@ function VisitsToYourHome() {
   );
 }
 
+/** The owner's reminder that the set-up after sign-up is not finished (issue 14). */
+function FinishSettingUp({ workshopId }: { workshopId: string }) {
+  const settings = useWorkshop(workshopId);
+  if (!settings.data || settings.data.setupCompletedAt) return null;
+  return (
+    <div
+      role="status"
+      className="mb-6 flex flex-wrap items-center justify-between gap-3 rounded border border-accent/40 bg-accent-wash px-4 py-3"
+    >
+      <p className="text-sm">
+        <span className="font-semibold">Your workshop is not set up yet.</span>{" "}
+        Nation, working days and hours, arrival times and reminders.
+      </p>
+      <LinkButton to="/setup" size="sm">
+        Finish setting up
+      </LinkButton>
+    </div>
+  );
+}
+
+/**
+ * A workshop with no jobs yet: what to do next, in the trade's words, with the buttons for it
+ * (add the trades first when there are none), instead of an empty table.
+ */
+function FirstSteps({
+  workshopId,
+  onNewJob,
+}: {
+  workshopId: string;
+  onNewJob: () => void;
+}) {
+  const trades = useTrades(workshopId);
+  const starters = useStarterNames(workshopId);
+  const noTrades = trades.data?.length === 0;
+  return (
+    <EmptyState
+      title="No jobs yet"
+      action={
+        <div className="flex flex-wrap justify-center gap-2">
+          {noTrades ? (
+            <LinkButton to="/trades" variant="secondary">
+              Add your trades
+            </LinkButton>
+          ) : null}
+          <Button onClick={onNewJob}>Start a job from a starter</Button>
+        </div>
+      }
+    >
+      {noTrades ? "Add the trades you work with, then start" : "Start"} a job
+      from a starter{starters ? ` — ${starters}` : ""}. Its tasks come ready,
+      dated from your first free day; then book the trades it needs.
+    </EmptyState>
+  );
+}
+
 /** Home: the workshop's jobs for members; a trade's or customer's own jobs otherwise. */
 export function HomeRoute() {
   const viewer = useViewer();
   const { active } = useActiveWorkshop();
   const jobs = useJobs();
-  const [creating, setCreating] = useState(false);
+  // "?new=job" (the set-up's "Start a job") opens the New job form at once.
+  const [search] = useSearchParams();
+  const [creating, setCreating] = useState(search.get("new") === "job");
 
   const isMember = !!active;
   const all = jobs.data ?? [];
@@ -144,6 +207,9 @@ export function HomeRoute() {
           ) : null
         }
       />
+      {isMember && active.role === "owner" ? (
+        <FinishSettingUp workshopId={active.workshopId} />
+      ) : null}
       {isMember && creating ? (
         <NewJobPanel workshop={active} onClose={() => setCreating(false)} />
       ) : null}
@@ -152,22 +218,18 @@ export function HomeRoute() {
         <LoadingState label="Loading jobs…" />
       ) : jobs.isError ? (
         <ErrorState error={jobs.error} onRetry={() => jobs.refetch()} />
+      ) : isMember && workshopJobs.length === 0 && otherJobs.length === 0 ? (
+        creating ? null : (
+          <FirstSteps
+            workshopId={active.workshopId}
+            onNewJob={() => setCreating(true)}
+          />
+        )
       ) : workshopJobs.length === 0 && otherJobs.length === 0 ? (
-        <EmptyState
-          title="No jobs yet"
-          action={
-            isMember && !creating ? (
-              <Button onClick={() => setCreating(true)}>
-                Create the first job
-              </Button>
-            ) : null
-          }
-        >
-          {isMember
-            ? "Each customer's install is a job. Create one to plan its programme and book trades."
-            : isCustomer
-              ? "When the workshop adds your install, it appears here."
-              : "When a workshop books you for a job, it appears here."}
+        <EmptyState title="No jobs yet">
+          {isCustomer
+            ? "When the workshop adds your install, it appears here."
+            : "When a workshop books you for a job, it appears here."}
         </EmptyState>
       ) : isCustomer ? (
         // The customer's home is their timeline of visits, not a list of jobs.

@@ -25,6 +25,7 @@ import {
 import { isApiError } from "../../../lib/api-client";
 import { applyServerErrors } from "../../../lib/form-errors";
 import { formatDays } from "../../../lib/format";
+import { arrivalChoiceLabels } from "../../../lib/labels";
 import { useBookingOptions } from "../api/get-booking-options";
 import { useCreateBooking } from "../api/create-booking";
 import {
@@ -210,15 +211,18 @@ function BookForm({
 
   const first =
     options.trades.find((t) => !t.declined && t.firstFree) ?? options.trades[0];
+  // The half's own arrival when the workshop offers it, else the first arrival time it offers.
+  const offered = (a: Values["arrivalWindow"]) =>
+    options.arrivalWindows.includes(a) ? a : options.arrivalWindows[0];
   const form = useForm<Values>({
     resolver: zodResolver(bookFormSchema),
     defaultValues: {
       tradeId: first?.tradeId ?? "",
       date: first?.firstFree ? dateOf(first.firstFree.start) : "",
       half: first?.firstFree ? halfOf(first.firstFree.start) : "morning",
-      arrivalWindow: first?.firstFree
-        ? halfOf(first.firstFree.start)
-        : "morning",
+      arrivalWindow: offered(
+        first?.firstFree ? halfOf(first.firstFree.start) : "morning",
+      ),
       arrivalFrom: "08:00",
       arrivalTo: "09:00",
       shareAddress: false,
@@ -235,13 +239,9 @@ function BookForm({
   const applyStart = (start: string) => {
     form.setValue("date", dateOf(start), { shouldValidate: true });
     form.setValue("half", halfOf(start));
-    if (form.getValues("arrivalWindow") !== "range")
-      form.setValue(
-        "arrivalWindow",
-        form.getValues("arrivalWindow") === "all-day"
-          ? "all-day"
-          : halfOf(start),
-      );
+    const a = form.getValues("arrivalWindow");
+    if (a === "morning" || a === "afternoon")
+      form.setValue("arrivalWindow", offered(halfOf(start)));
   };
 
   async function submit(values: Values, send: boolean, override?: string) {
@@ -389,7 +389,7 @@ function BookForm({
                     setConflict(null);
                     const a = form.getValues("arrivalWindow");
                     if (a === "morning" || a === "afternoon")
-                      form.setValue("arrivalWindow", h);
+                      form.setValue("arrivalWindow", offered(h));
                   },
                 })}
               />
@@ -425,14 +425,8 @@ function BookForm({
       <fieldset className="flex flex-col gap-2">
         <legend className="mb-1 text-sm font-medium">Arrival window</legend>
         <div className="flex flex-wrap gap-x-4 gap-y-1">
-          {(
-            [
-              ["morning", "Morning"],
-              ["afternoon", "Afternoon"],
-              ["all-day", "All day"],
-              ["range", "Between set times"],
-            ] as const
-          ).map(([value, label]) => (
+          {/* Only the arrival times the workshop offers (its settings, issue 14). */}
+          {options.arrivalWindows.map((value) => (
             <label
               key={value}
               className="flex min-h-10 items-center gap-2 text-sm"
@@ -443,7 +437,7 @@ function BookForm({
                 className="accent-accent"
                 {...form.register("arrivalWindow")}
               />
-              {label}
+              {arrivalChoiceLabels[value]}
             </label>
           ))}
         </div>

@@ -5,8 +5,9 @@ import { z } from "zod";
 import {
   createJobBodySchema,
   idSchema,
-  holidayRegionSchema,
   jobStatuses,
+  nationChoices,
+  type HolidayRegion,
   type CustomerResponse,
   type JobDetail,
 } from "../../../../shared/schemas";
@@ -62,6 +63,8 @@ interface NewJobFormProps {
   ) => ReactNode;
   onCreated: (job: JobDetail) => void;
   onCancel: () => void;
+  /** The workshop's settings a new job starts from (its nation and usual site days). */
+  defaults?: { holidayRegion: HolidayRegion | null; siteWeekdays: number[] };
 }
 
 export function NewJobForm({
@@ -72,6 +75,7 @@ export function NewJobForm({
   renderAddCustomer,
   onCreated,
   onCancel,
+  defaults,
 }: NewJobFormProps) {
   const createJob = useCreateJob(workshopId);
   const starters = useStarters(workshopId);
@@ -85,11 +89,12 @@ export function NewJobForm({
       siteAddress: "",
       postcode: "",
       area: "",
-      holidayRegion: "GB-ENG",
-      timeZone: "Europe/London",
+      // GB-WLS has England's bank holidays: the one "England & Wales" choice (shared nationLabels).
+      holidayRegion:
+        nationChoices.find((r) => r === defaults?.holidayRegion) ?? "GB-ENG",
       status: "survey",
       handoverDate: null,
-      siteWeekdays: [1, 2, 3, 4, 5],
+      siteWeekdays: defaults?.siteWeekdays ?? [1, 2, 3, 4, 5],
       accessNotes: "",
     },
   });
@@ -193,7 +198,7 @@ export function NewJobForm({
           error={errors.holidayRegion?.message}
           {...form.register("holidayRegion")}
         >
-          {holidayRegionSchema.options.map((r) => (
+          {nationChoices.map((r) => (
             <option key={r} value={r}>
               {holidayRegionLabels[r]}
             </option>
