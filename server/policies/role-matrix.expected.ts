@@ -86,6 +86,7 @@ export const expected: Record<string, Row> = {
   "POST /auth/password-reset": all(202),
   "GET /auth/tokens/:token": all(404), // an unknown token
   "POST /auth/set-password": all(404), // an unknown token
+  "POST /auth/accept-invitation": signedIn(404), // an unknown token; signing in comes first
 
   "GET /jobs": signedIn(200),
   "GET /jobs/:jobId": {

@@ -275,6 +275,10 @@ const requests: Record<
       password: "a-long-enough-password",
     },
   }),
+  "POST /auth/accept-invitation": async () => ({
+    path: "/api/auth/accept-invitation",
+    body: { token: randomBytes(32).toString("base64url") },
+  }),
   "GET /jobs": async () => ({ path: "/api/jobs" }),
   "GET /jobs/:jobId": async () => ({ path: `/api/jobs/${ids.jobId}` }),
   "POST /workshops/:workshopId/jobs": async () => ({
