@@ -22,7 +22,7 @@ import {
 /** The second demo workshop, its owner (README lists the same) and its one job. */
 export const demoSecondWorkshop = {
   name: "Saltmarsh & Pike Kitchens",
-  owner: { email: "ines@saltmarshpike.example.test", name: "Ines Saltmarsh" },
+  owner: { email: "ines@saltpike.example.test", name: "Ines Saltmarsh" },
   /** The workshop's own name for the demo plasterer's business. */
   tradeBusinessName: "Ashby Plastering",
   jobTitle: "Larder & island, farmhouse kitchen",

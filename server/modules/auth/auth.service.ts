@@ -309,8 +309,7 @@ export async function tokenInfo(
     workshopName: workshop?.name ?? null,
     role: g.role,
     tradeName: trade?.businessName ?? null,
-    existingAccount:
-      token.kind === "invitation" && user.passwordHash !== null,
+    existingAccount: token.kind === "invitation" && user.passwordHash !== null,
   };
 }
 

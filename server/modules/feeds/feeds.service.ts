@@ -155,7 +155,12 @@ export async function setDaysOff(
   });
   const list = [...new Set(daysOff)].sort();
   await ds.transaction(async (m) => {
-    await writeDaysOff(m, actor.userId, await linkedTrades(m, actor.userId), list);
+    await writeDaysOff(
+      m,
+      actor.userId,
+      await linkedTrades(m, actor.userId),
+      list,
+    );
   });
   return { daysOff: list };
 }

@@ -116,7 +116,10 @@ describe("an invitee who already has an account", () => {
   it("adding the trade says only that an account exists, never where", async () => {
     const res = await addTrade(thirdOwner, third.id, dev.email);
     expect(res.status).toBe(201);
-    expect(res.body).toMatchObject({ hasAccount: false, emailHasAccount: true });
+    expect(res.body).toMatchObject({
+      hasAccount: false,
+      emailHasAccount: true,
+    });
     const text = JSON.stringify(res.body);
     for (const word of elsewhere) expect(text).not.toContain(word);
     const list = await thirdOwner.agent
@@ -163,7 +166,9 @@ describe("an invitee who already has an account", () => {
     expect(await m.countBy(User, { email: dev.email })).toBe(1);
 
     // The e-mail says which workshop asks, as what, and to sign in (not to choose a password).
-    expect(mail.subject).toBe("Pennock Fitted Furniture invites you to Sitecue");
+    expect(mail.subject).toBe(
+      "Pennock Fitted Furniture invites you to Sitecue",
+    );
     expect(mail.text).toContain(
       "Pennock Fitted Furniture asks you to join their jobs on Sitecue as Dev Ashby (plaster).",
     );
@@ -172,7 +177,9 @@ describe("an invitee who already has an account", () => {
     for (const word of elsewhere) expect(mail.text).not.toContain(word);
 
     // The link's page says the same.
-    const info = await (await anonymous(t)).agent
+    const info = await (
+      await anonymous(t)
+    ).agent
       .get(`/api/auth/tokens/${token}`)
       .expect(200);
     expect(info.body).toMatchObject({
@@ -295,7 +302,9 @@ describe("the demo's second workshop shares the plasterer", () => {
       .set("X-CSRF-Token", s.csrf)
       .expect(201);
     const text = (
-      await (await anonymous(t)).agent
+      await (
+        await anonymous(t)
+      ).agent
         .get(new URL(made.body.url).pathname)
         .expect(200)
     ).text;
@@ -315,9 +324,7 @@ describe("the demo's second workshop shares the plasterer", () => {
     for (const name of names())
       expect(
         events.some((e) =>
-          String(e.getFirstPropertyValue("description")).startsWith(
-            `${name}:`,
-          ),
+          String(e.getFirstPropertyValue("description")).startsWith(`${name}:`),
         ),
         name,
       ).toBe(true);

@@ -58,11 +58,7 @@ async function withAccounts(
   });
   const withAccount = new Set(accounts.map((u) => u.email));
   return trades.map((t) =>
-    presentTrade(
-      t,
-      linked.has(t.id),
-      withAccount.has(t.email.toLowerCase()),
-    ),
+    presentTrade(t, linked.has(t.id), withAccount.has(t.email.toLowerCase())),
   );
 }
 

@@ -104,8 +104,8 @@ function SignInToAccept({ token, t }: { token: string; t: TokenInfoResponse }) {
         />
         <p className="text-sm">
           You are signed in as <strong className="break-all">{me.email}</strong>
-          . Accepting adds this workshop to your account; your password stays
-          as it is.
+          . Accepting adds this workshop to your account; your password stays as
+          it is.
         </p>
         <Button
           busy={accept.isPending}
