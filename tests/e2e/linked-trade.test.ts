@@ -138,7 +138,7 @@ describe("one plasterer, two workshops", () => {
     });
     await visible(panel);
     // The first workshop's template visit: the morning of the next weekday.
-    await panel.getByLabel("Start").fill(d(1));
+    await panel.getByLabel("Start", { exact: true }).fill(d(1));
     await panel.getByRole("radio", { name: "Morning" }).first().check();
     await panel.getByRole("button", { name: "Save as draft" }).click();
     const alert = panel.getByRole("alert").filter({
