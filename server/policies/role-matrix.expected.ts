@@ -89,6 +89,7 @@ export const expected: Record<string, Row> = {
   "POST /auth/sign-up": all(201), // anyone may create a workshop (a fresh address each time)
   "POST /auth/verify-email": all(404), // an unknown token
   "POST /auth/verify-email/resend": signedIn(409), // everyone in the matrix is verified already
+  "POST /auth/accept-invitation": signedIn(404), // an unknown token; signing in comes first
 
   "GET /jobs": signedIn(200),
   "GET /jobs/:jobId": {

@@ -292,6 +292,10 @@ const requests: Record<
   "POST /auth/verify-email/resend": async () => ({
     path: "/api/auth/verify-email/resend",
   }),
+  "POST /auth/accept-invitation": async () => ({
+    path: "/api/auth/accept-invitation",
+    body: { token: randomBytes(32).toString("base64url") },
+  }),
   "GET /jobs": async () => ({ path: "/api/jobs" }),
   "GET /jobs/:jobId": async () => ({ path: `/api/jobs/${ids.jobId}` }),
   "POST /workshops/:workshopId/jobs": async () => ({

@@ -55,6 +55,11 @@ export const verifyEmailBodySchema = z.object({
 export const verifyEmailResponseSchema = z.object({ email: z.string() });
 export type VerifyEmailResponse = z.infer<typeof verifyEmailResponseSchema>;
 
+/** Accepting an invitation as the signed-in account it was sent to. */
+export const acceptInvitationBodySchema = z.object({
+  token: z.string().min(20).max(200),
+});
+
 export const tokenParamsSchema = z.object({
   token: z.string().min(20).max(200),
 });
@@ -104,5 +109,9 @@ export const tokenInfoResponseSchema = z.object({
   name: z.string(),
   workshopName: z.string().nullable(),
   role: z.enum(["owner", "fitter", "trade", "customer"]).nullable(),
+  /** The trade record an invitation links ("… as Ashby Plaster & Coving"), for a trade. */
+  tradeName: z.string().nullable(),
+  /** The address already has a Sitecue account: the invitee signs in to accept, no new password. */
+  existingAccount: z.boolean(),
 });
 export type TokenInfoResponse = z.infer<typeof tokenInfoResponseSchema>;

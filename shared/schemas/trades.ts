@@ -62,6 +62,11 @@ export const tradeResponseSchema = z.object({
   dayEnd: z.string(),
   daysOff: z.array(z.string()),
   hasAccount: z.boolean(),
+  /**
+   * Not linked yet, but the e-mail belongs to a Sitecue account: an invitation asks them to link
+   * it. Nothing else about that account (which workshops, their records) is told.
+   */
+  emailHasAccount: z.boolean(),
 });
 export type TradeResponse = z.infer<typeof tradeResponseSchema>;
 

@@ -196,5 +196,7 @@ export const invitationResponseSchema = z.object({
   expiresAt: z.string(),
   acceptedAt: z.string().nullable(),
   createdAt: z.string(),
+  /** The address has a Sitecue account already: they are asked to sign in and link it. */
+  existingAccount: z.boolean(),
 });
 export type InvitationResponse = z.infer<typeof invitationResponseSchema>;

@@ -118,7 +118,7 @@ describe("booking a trade and their answer by link", () => {
     // The task is done at height: its caution is shown before booking.
     await visible(page.getByText(/Caution/).first());
     await choice.click();
-    expect(await panel.getByLabel("Start").inputValue()).toBe(
+    expect(await panel.getByLabel("Start", { exact: true }).inputValue()).toBe(
       firstFree.slice(0, 10),
     );
     await shot(page, "booking-panel-desktop");
@@ -260,7 +260,9 @@ describe("booking a trade and their answer by link", () => {
       name: "Book a plasterer for Fit coving & make good",
     });
     await visible(panel);
-    await panel.getByLabel("Start").fill(busy.start.slice(0, 10));
+    await panel
+      .getByLabel("Start", { exact: true })
+      .fill(busy.start.slice(0, 10));
     await panel.getByRole("radio", { name: "Morning" }).first().check();
     await panel.getByRole("button", { name: "Save as draft" }).click();
     const alert = panel.getByRole("alert").filter({
@@ -278,9 +280,9 @@ describe("booking a trade and their answer by link", () => {
       path: path.join(screensDir, "booking-clash-detail-desktop.png"),
     });
     await next.click();
-    expect(await panel.getByLabel("Start").inputValue()).not.toBe(
-      busy.start.slice(0, 10),
-    );
+    expect(
+      await panel.getByLabel("Start", { exact: true }).inputValue(),
+    ).not.toBe(busy.start.slice(0, 10));
     // The 409 itself is logged by the browser as a failed request; nothing else may be.
     expect(problems.filter((p) => !p.includes("409"))).toEqual([]);
   }, 60_000);

@@ -18,6 +18,7 @@ import { addDefaultStarters } from "../../server/modules/starters/starters.servi
 import type { Storage } from "../../server/infra/storage/storage";
 import { loadDemoDrawings } from "./demo-drawings";
 import { setDemoReadMarkers, writeDemoThread } from "./demo-thread";
+import { loadSecondWorkshop } from "./demo-second-workshop";
 
 export const DEMO_PASSWORD = "sitecue-demo";
 /** The demo workshop's name (the seed makes it; tests look it up by it). */
@@ -334,6 +335,9 @@ export async function loadDemoScenario(
       notEarlierThan: day(3),
       hazards: [],
     });
+
+    // A second workshop booking the same plasterer (demo-second-workshop.ts, issue 14).
+    await loadSecondWorkshop(m, day, tradeUser, DEMO_PASSWORD);
 
     // A few days of the thread (demo-thread.ts): every audience on the alcoves, the workshop's own
     // notes on the wardrobe.

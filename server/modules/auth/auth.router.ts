@@ -3,6 +3,7 @@ import type { Request, Response } from "express";
 import { limitRequests, type LimitStore } from "../../http/rate-limit";
 import { z } from "zod";
 import {
+  acceptInvitationBodySchema,
   passwordResetBodySchema,
   sessionResponseSchema,
   setPasswordBodySchema,
@@ -20,6 +21,7 @@ import { requireActor } from "../../policies";
 import { loadSessionUser } from "../users/users.service";
 import { signInLimits } from "./sign-in-limits";
 import {
+  acceptInvitation,
   requestPasswordReset,
   resendVerification,
   setPasswordWithToken,
@@ -246,6 +248,25 @@ export function registerAuthRoutes(
     handler: async ({ actor }) => {
       requireActor(actor);
       return resendVerification(deps, actor.userId);
+    },
+  });
+
+  api.add({
+    method: "post",
+    path: "/auth/accept-invitation",
+    tag: "auth",
+    summary:
+      "Accept an invitation as the signed-in account it was sent to (the password and sessions stay)",
+    before: [links],
+    body: acceptInvitationBodySchema,
+    response: sessionResponseSchema,
+    handler: async ({ actor, req, res, body }) => {
+      // Any signed-in person may try; the service checks the link is theirs (issue 14).
+      requireActor(actor);
+      await acceptInvitation(deps.ds, actor.userId, body.token);
+      // The same session carries on; it now includes what the invitation granted.
+      const loaded = await loadSessionUser(deps.ds.manager, actor.userId);
+      return { user: loaded?.user ?? null, csrfToken: csrfTokenFor(req, res) };
     },
   });
 }

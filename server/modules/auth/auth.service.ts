@@ -3,6 +3,7 @@ import { newId } from "../../db/columns";
 import { HttpError } from "../../http/errors";
 import { enqueueMail } from "../../infra/outbox/outbox";
 import { audit } from "../audit/audit.service";
+import { shareDaysOff } from "../feeds/feeds.service";
 import { Customer } from "../customers/customers.entity";
 import { Trade, TradeMember } from "../trades/trades.entity";
 import { User } from "../users/users.entity";
@@ -73,10 +74,13 @@ const roleWords: Record<string, string> = {
   owner: "an owner",
   fitter: "a fitter",
   trade: "a trade",
-  customer: "a customer",
+  customer: "their customer",
 };
 
-/** Creates (or reuses) the invitee's user and e-mails them a set-password link. */
+/**
+ * Creates (or reuses) the invitee's user and e-mails them the link: "choose a password" for a new
+ * person, "sign in to accept" for an address that already has an account.
+ */
 export async function invite(
   deps: AuthDeps,
   by: { userId: string; name: string },
@@ -92,6 +96,7 @@ export async function invite(
   return deps.ds.transaction(async (m) => {
     const workshop = await m.findOneByOrFail(Workshop, { id: workshopId });
     let grant: TokenGrant;
+    let asWhat: string = roleWords[input.role];
     if (input.role === "trade") {
       const trade = await m.findOneBy(Trade, {
         id: input.tradeId!,
@@ -105,6 +110,7 @@ export async function invite(
           { tradeId: ["Choose one of the workshop's trades"] },
         );
       grant = { role: "trade", workshopId, tradeId: trade.id };
+      asWhat = trade.businessName;
     } else if (input.role === "customer") {
       const customer = await m.findOneBy(Customer, {
         id: input.customerId!,
@@ -163,7 +169,14 @@ export async function invite(
       detail: { role: input.role, email: input.email },
     });
     // In the same transaction: no invitation without its e-mail, no e-mail for a rolled-back one.
+    // Someone who already has an account signs in to accept: the link never sets their password
+    // (it would end their sessions elsewhere). Only this workshop's name is in the e-mail.
+    const existingAccount = user.passwordHash !== null;
     const link = `${deps.appUrl}/invite/${token.raw}`;
+    const asks = `${workshop.name} asks you to join their jobs on Sitecue as ${asWhat}.`;
+    const action = existingAccount
+      ? "Sign in to accept (your password stays as it is)"
+      : "Choose a password to accept";
     await enqueueMail(m, {
       workshopId,
       to: input.email,
@@ -171,16 +184,26 @@ export async function invite(
       text: [
         `Hello ${input.name},`,
         "",
-        `${by.name} of ${workshop.name} has invited you to Sitecue as ${roleWords[input.role]}.`,
-        "Sitecue is where the job's programme, visits and messages are kept.",
+        asks,
+        `${by.name} sent this invitation. Sitecue is where the job's programme, visits and messages are kept.`,
+        ...(existingAccount
+          ? [
+              "You already have a Sitecue account with this address: accepting links it, and your visits for every workshop stay in one list.",
+            ]
+          : []),
         "",
-        `Choose a password to accept: ${link}`,
+        `${action}: ${link}`,
         "",
         `The link works once and expires in ${INVITATION_DAYS} days.`,
       ].join("\n"),
-      html: `<p>Hello ${escapeHtml(input.name)},</p><p>${escapeHtml(by.name)} of ${escapeHtml(workshop.name)} has invited you to Sitecue as ${roleWords[input.role]}.</p><p><a href="${link}">Choose a password to accept</a></p><p>The link works once and expires in ${INVITATION_DAYS} days.</p>`,
+      html: `<p>Hello ${escapeHtml(input.name)},</p><p>${escapeHtml(asks)}</p><p>${escapeHtml(by.name)} sent this invitation.</p>${existingAccount ? "<p>You already have a Sitecue account with this address: accepting links it, and your visits for every workshop stay in one list.</p>" : ""}<p><a href="${link}">${escapeHtml(action)}</a></p><p>The link works once and expires in ${INVITATION_DAYS} days.</p>`,
     });
-    return { id: token.id, expiresAt: token.expiresAt, userId: user.id };
+    return {
+      id: token.id,
+      expiresAt: token.expiresAt,
+      userId: user.id,
+      existingAccount,
+    };
   });
 }
 
@@ -297,13 +320,20 @@ export async function tokenInfo(
   const workshop = token.workshopId
     ? await ds.getRepository(Workshop).findOneBy({ id: token.workshopId })
     : null;
+  const g = token.grant;
+  const trade =
+    g.role === "trade"
+      ? await ds.getRepository(Trade).findOneBy({ id: g.tradeId })
+      : null;
   return {
     // liveToken's default kinds: an address-check link is never a set-password link.
     kind: token.kind as TokenInfoResponse["kind"],
     email: user.email,
     name: user.name,
     workshopName: workshop?.name ?? null,
-    role: token.grant.role,
+    role: g.role,
+    tradeName: trade?.businessName ?? null,
+    existingAccount: token.kind === "invitation" && user.passwordHash !== null,
   };
 }
 
@@ -319,51 +349,99 @@ export async function setPasswordWithToken(
   const passwordHash = await hashPassword(password);
   return ds.transaction(async (m) => {
     const token = await liveToken(m, raw, true);
+    if (token.kind === "invitation") {
+      const user = await m.findOneByOrFail(User, { id: token.userId });
+      // Issue 14: an invitation is not a reset. Setting the password would end the person's
+      // sessions in every other workshop; they prove the account by signing in instead.
+      if (user.passwordHash !== null)
+        throw new HttpError(
+          409,
+          "conflict",
+          "This address already has a Sitecue account. Sign in to accept the invitation; your password stays as it is.",
+        );
+    }
     await setNewPassword(m, token.userId, passwordHash, token.id);
-    await m.update(AuthToken, { id: token.id }, { usedAt: new Date() });
-    // The link reached them, so the address is theirs (an invitation or a reset proves it).
-    await markVerified(m, token.userId);
-    const g = token.grant;
-    if (g.role === "owner" || g.role === "fitter") {
-      const exists = await m.findOneBy(WorkshopMember, {
+    await useInvitation(m, token);
+    return token.userId;
+  });
+}
+
+/**
+ * Accepts an invitation as the signed-in person (an account that already existed): adds the
+ * membership, trade or customer link, leaving the password and every session alone.
+ */
+export async function acceptInvitation(
+  ds: DataSource,
+  userId: string,
+  raw: string,
+): Promise<void> {
+  await ds.transaction(async (m) => {
+    const token = await liveToken(m, raw, true);
+    if (token.kind !== "invitation")
+      throw new HttpError(
+        404,
+        "token-invalid",
+        "This link is not an invitation.",
+      );
+    if (token.userId !== userId) {
+      const invited = await m.findOneByOrFail(User, { id: token.userId });
+      throw new HttpError(
+        403,
+        "forbidden",
+        `This invitation is for ${invited.email}. Sign out, then sign in as ${invited.email} to accept it.`,
+      );
+    }
+    await useInvitation(m, token);
+  });
+}
+
+/** Marks the link used and grants what it carried (membership, trade link, customer link). */
+async function useInvitation(m: EntityManager, token: AuthToken) {
+  await m.update(AuthToken, { id: token.id }, { usedAt: new Date() });
+  // The link reached them, so the address is theirs (an invitation or a reset proves it).
+  await markVerified(m, token.userId);
+  const g = token.grant;
+  if (g.role === "owner" || g.role === "fitter") {
+    const exists = await m.findOneBy(WorkshopMember, {
+      workshopId: g.workshopId,
+      userId: token.userId,
+    });
+    if (!exists)
+      await m.insert(WorkshopMember, {
+        id: newId(),
         workshopId: g.workshopId,
         userId: token.userId,
+        role: g.role,
       });
-      if (!exists)
-        await m.insert(WorkshopMember, {
-          id: newId(),
-          workshopId: g.workshopId,
-          userId: token.userId,
-          role: g.role,
-        });
-    } else if (g.role === "trade") {
-      const exists = await m.findOneBy(TradeMember, {
+  } else if (g.role === "trade") {
+    const exists = await m.findOneBy(TradeMember, {
+      tradeId: g.tradeId,
+      userId: token.userId,
+    });
+    if (!exists) {
+      await m.insert(TradeMember, {
+        id: newId(),
+        workshopId: g.workshopId,
         tradeId: g.tradeId,
         userId: token.userId,
       });
-      if (!exists)
-        await m.insert(TradeMember, {
-          id: newId(),
-          workshopId: g.workshopId,
-          tradeId: g.tradeId,
-          userId: token.userId,
-        });
-    } else if (g.role === "customer") {
-      await m.update(
-        Customer,
-        { id: g.customerId, workshopId: g.workshopId },
-        { userId: token.userId },
-      );
+      // One person, one set of days off, whichever workshop's record (issue 14).
+      await shareDaysOff(m, token.userId);
     }
-    await audit(m, {
-      workshopId: token.workshopId,
-      actorUserId: token.userId,
-      action:
-        token.kind === "invitation" ? "invitation.accepted" : "password.reset",
-      entityType: "user",
-      entityId: token.userId,
-    });
-    return token.userId;
+  } else if (g.role === "customer") {
+    await m.update(
+      Customer,
+      { id: g.customerId, workshopId: g.workshopId },
+      { userId: token.userId },
+    );
+  }
+  await audit(m, {
+    workshopId: token.workshopId,
+    actorUserId: token.userId,
+    action:
+      token.kind === "invitation" ? "invitation.accepted" : "password.reset",
+    entityType: "user",
+    entityId: token.userId,
   });
 }
 

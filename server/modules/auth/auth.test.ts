@@ -188,6 +188,8 @@ describe("invitations", () => {
       name: "Wren Castle",
       workshopName: "Hollin & Vane Joinery",
       role: "fitter",
+      tradeName: null,
+      existingAccount: false,
     });
 
     const s = await anonymous(t);

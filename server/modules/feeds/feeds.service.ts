@@ -155,18 +155,49 @@ export async function setDaysOff(
   });
   const list = [...new Set(daysOff)].sort();
   await ds.transaction(async (m) => {
-    const trades = await linkedTrades(m, actor.userId);
-    for (const t of trades) {
-      await m.update(Trade, { id: t.id }, { daysOff: list });
-      await audit(m, {
-        workshopId: t.workshopId,
-        actorUserId: actor.userId,
-        action: "trade.daysOff.updated",
-        entityType: "trade",
-        entityId: t.id,
-        detail: { before: t.daysOff, after: list },
-      });
-    }
+    await writeDaysOff(
+      m,
+      actor.userId,
+      await linkedTrades(m, actor.userId),
+      list,
+    );
   });
   return { daysOff: list };
+}
+
+/**
+ * Makes a person's days off one set again after a new trade record is linked to them (issue 14):
+ * the union of every linked record's days off (those they entered here, and any the new
+ * workshop had noted) goes to all of them. Inside the linking transaction.
+ */
+export async function shareDaysOff(
+  m: EntityManager,
+  userId: string,
+): Promise<string[]> {
+  const trades = await linkedTrades(m, userId);
+  const list = [...new Set(trades.flatMap((t) => t.daysOff))].sort();
+  const differing = trades.filter(
+    (t) => [...t.daysOff].sort().join() !== list.join(),
+  );
+  await writeDaysOff(m, userId, differing, list);
+  return list;
+}
+
+async function writeDaysOff(
+  m: EntityManager,
+  actorUserId: string,
+  trades: Trade[],
+  list: string[],
+): Promise<void> {
+  for (const t of trades) {
+    await m.update(Trade, { id: t.id }, { daysOff: list });
+    await audit(m, {
+      workshopId: t.workshopId,
+      actorUserId,
+      action: "trade.daysOff.updated",
+      entityType: "trade",
+      entityId: t.id,
+      detail: { before: t.daysOff, after: list },
+    });
+  }
 }

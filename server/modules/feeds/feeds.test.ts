@@ -32,7 +32,7 @@ import { Booking } from "../bookings/bookings.entity";
 import { Customer } from "../customers/customers.entity";
 import { Job } from "../jobs/jobs.entity";
 import { Task } from "../programme/programme.entity";
-import { Trade } from "../trades/trades.entity";
+import { Trade, TradeMember } from "../trades/trades.entity";
 import { User } from "../users/users.entity";
 import { Workshop } from "../workshops/workshops.entity";
 import { taskEventUid } from "./feed-content";
@@ -101,14 +101,26 @@ describe("a trade's feed", () => {
     const dev = await signIn(t, demoAccounts.trade.email);
     const { cal, events, text } = await fetchFeed(await feedPath(dev));
     expectPublishFeed(cal, events);
+    // Their bookings in both demo workshops (the second knows them by its own record, issue 14).
     const mine = await t.db.ds.manager.findBy(Booking, {
-      tradeId: ashby.id,
+      tradeId: In(
+        (
+          await t.db.ds.manager.findBy(TradeMember, {
+            userId: (
+              await t.db.ds.manager.findOneByOrFail(User, {
+                email: demoAccounts.trade.email,
+              })
+            ).id,
+          })
+        ).map((l) => l.tradeId),
+      ),
       state: In(["sent", "confirmed", "date-proposed", "needs-reconfirming"]),
     });
-    expect(mine).toHaveLength(2);
+    expect(mine).toHaveLength(4);
     expect(uids(events)).toEqual(mine.map((b) => b.icalUid).sort());
-    const confirmed = mine.find((b) => b.state === "confirmed")!;
-    const sent = mine.find((b) => b.state === "sent")!;
+    const here = mine.filter((b) => b.tradeId === ashby.id);
+    const confirmed = here.find((b) => b.state === "confirmed")!;
+    const sent = here.find((b) => b.state === "sent")!;
     expect(prop(byUid(events, confirmed.icalUid), "location")).toBe(
       "14 Larkspur Terrace, Wetherfold, QX4 2LT",
     );

@@ -1,4 +1,4 @@
-import { In, Not, type DataSource } from "typeorm";
+import { In, IsNull, Not, type DataSource } from "typeorm";
 import type { z } from "zod";
 import type { Actor } from "../../policies";
 import { authorize, requireActor } from "../../policies";
@@ -6,6 +6,7 @@ import { newId } from "../../db/columns";
 import { HttpError, notFound } from "../../http/errors";
 import { audit } from "../audit/audit.service";
 import { Booking } from "../bookings/bookings.entity";
+import { User } from "../users/users.entity";
 import { Trade, TradeMember } from "./trades.entity";
 import type {
   TradeBusyResponse,
@@ -14,7 +15,11 @@ import type {
   updateTradeBodySchema,
 } from "../../../shared/schemas";
 
-export function presentTrade(t: Trade, hasAccount: boolean): TradeResponse {
+export function presentTrade(
+  t: Trade,
+  hasAccount: boolean,
+  emailHasAccount = false,
+): TradeResponse {
   return {
     id: t.id,
     workshopId: t.workshopId,
@@ -28,6 +33,7 @@ export function presentTrade(t: Trade, hasAccount: boolean): TradeResponse {
     dayEnd: t.dayEnd,
     daysOff: [...t.daysOff].sort(),
     hasAccount,
+    emailHasAccount: !hasAccount && emailHasAccount,
   };
 }
 
@@ -41,7 +47,19 @@ async function withAccounts(
     select: { tradeId: true },
   });
   const linked = new Set(links.map((l) => l.tradeId));
-  return trades.map((t) => presentTrade(t, linked.has(t.id)));
+  // Only whether an account exists (one with a password): never which workshops it works for
+  // or what their records say (DEVELOPERS.md "One account for a trade across workshops").
+  const accounts = await ds.getRepository(User).find({
+    where: {
+      email: In([...new Set(trades.map((t) => t.email.toLowerCase()))]),
+      passwordHash: Not(IsNull()),
+    },
+    select: { email: true },
+  });
+  const withAccount = new Set(accounts.map((u) => u.email));
+  return trades.map((t) =>
+    presentTrade(t, linked.has(t.id), withAccount.has(t.email.toLowerCase())),
+  );
 }
 
 /** The workshop's trades, by kind then name. */
@@ -79,10 +97,10 @@ export async function createTrade(
       detail: { businessName: body.businessName, kind: body.kind },
     });
   });
-  return presentTrade(
+  const [created] = await withAccounts(ds, [
     await ds.getRepository(Trade).findOneByOrFail({ id: trade.id }),
-    false,
-  );
+  ]);
+  return created;
 }
 
 async function load(ds: DataSource, actor: Actor | null, tradeId: string) {

@@ -108,6 +108,8 @@ export function registerWorkshopRoutes(
         expiresAt: record.expiresAt.toISOString(),
         acceptedAt: null,
         createdAt: new Date().toISOString(),
+        // Only that an account exists (they will be asked to sign in and link it), never where.
+        existingAccount: record.existingAccount,
       };
     },
   });

@@ -287,5 +287,6 @@ export async function listInvitations(
     expiresAt: t.expiresAt.toISOString(),
     acceptedAt: t.usedAt?.toISOString() ?? null,
     createdAt: t.createdAt.toISOString(),
+    existingAccount: (t.user as User).passwordHash !== null,
   }));
 }

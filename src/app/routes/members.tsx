@@ -1,4 +1,5 @@
 import { useState } from "react";
+import type { InvitationResponse } from "../../../shared/schemas";
 import { useCustomers } from "../../features/customers/api/list-customers";
 import { useInvitations } from "../../features/members/api/list-invitations";
 import { useMembers } from "../../features/members/api/list-members";
@@ -42,7 +43,7 @@ function MembersPage({
   const invitations = useInvitations(workshopId);
   const trades = useTrades(workshopId);
   const customers = useCustomers(workshopId);
-  const [sentTo, setSentTo] = useState<string | null>(null);
+  const [sent, setSent] = useState<InvitationResponse | null>(null);
 
   const listsError = trades.isError
     ? `Trades could not be loaded: ${errorMessage(trades.error)}`
@@ -84,13 +85,20 @@ function MembersPage({
         </Section>
         <Section title="Invite someone" id="invite" className="lg:col-span-2">
           <div className="flex flex-col gap-4">
-            {sentTo ? <Notice>Invitation sent to {sentTo}.</Notice> : null}
+            {sent ? (
+              <Notice>
+                Invitation sent to {sent.email}.
+                {sent.existingAccount
+                  ? " They have a Sitecue account: they will be asked to sign in and link it."
+                  : null}
+              </Notice>
+            ) : null}
             <InviteForm
               workshopId={workshopId}
               trades={trades.data}
               customers={customers.data}
               listsError={listsError}
-              onInvited={(inv) => setSentTo(inv.email)}
+              onInvited={setSent}
             />
           </div>
         </Section>

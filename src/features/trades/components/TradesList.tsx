@@ -73,6 +73,11 @@ export function TradesList({
               <PartyChip party={t.kind} />
               {t.hasAccount ? (
                 <span className="text-xs text-ink-soft">Has signed in</span>
+              ) : t.emailHasAccount ? (
+                // Only that an account exists: never where else they work (issue 14).
+                <span className="text-xs text-ink-soft">
+                  Has a Sitecue account — they will be asked to link it
+                </span>
               ) : null}
             </span>
           </div>
