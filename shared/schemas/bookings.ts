@@ -49,6 +49,31 @@ export const createBookingBodySchema = z
   .refine(arrivalRule, arrivalMessage);
 export type CreateBookingBody = z.input<typeof createBookingBodySchema>;
 
+/**
+ * Change a draft booking (issue 14): its trade, start, arrival window, address sharing or the
+ * reason it stands despite a clash. Fields left out keep their value; the result is checked as a
+ * new booking would be.
+ */
+export const updateBookingBodySchema = z
+  .object({
+    tradeId: idSchema,
+    start: slotInstantSchema,
+    arrivalWindow: arrivalWindowSchema,
+    arrivalFrom: clockTimeSchema.nullable(),
+    arrivalTo: clockTimeSchema.nullable(),
+    shareAddress: z.boolean(),
+    overrideReason: z.string().trim().max(500).nullable(),
+  })
+  .partial();
+export type UpdateBookingBody = z.input<typeof updateBookingBodySchema>;
+
+/** The arrival rule for a booking as a whole (create, or a draft after its change). */
+export const arrivalProblem = (b: {
+  arrivalWindow: string;
+  arrivalFrom: string | null;
+  arrivalTo: string | null;
+}): string | null => (arrivalRule(b) ? null : arrivalMessage.message);
+
 /** The maker records the trade's answer given by phone or text. */
 export const recordAnswerBodySchema = z
   .object({

@@ -10,7 +10,8 @@ import type {
   customerBodySchema,
 } from "../../../shared/schemas";
 
-const present = (c: Customer): CustomerResponse => ({
+/** A customer as the workshop sees them. */
+export const presentCustomer = (c: Customer): CustomerResponse => ({
   id: c.id,
   name: c.name,
   email: c.email,
@@ -29,7 +30,7 @@ export async function listCustomers(
     await ds
       .getRepository(Customer)
       .find({ where: { workshopId }, order: { name: "ASC" } })
-  ).map(present);
+  ).map(presentCustomer);
 }
 
 export async function createCustomer(
@@ -39,16 +40,14 @@ export async function createCustomer(
   body: z.output<typeof customerBodySchema>,
 ): Promise<CustomerResponse> {
   authorize(actor, "customers.create", { kind: "workshop", workshopId });
-  const customer = ds
-    .getRepository(Customer)
-    .create({
-      id: newId(),
-      workshopId,
-      name: body.name,
-      email: body.email,
-      phone: body.phone ?? null,
-      userId: null,
-    });
+  const customer = ds.getRepository(Customer).create({
+    id: newId(),
+    workshopId,
+    name: body.name,
+    email: body.email,
+    phone: body.phone ?? null,
+    userId: null,
+  });
   await ds.transaction(async (m) => {
     await m.insert(Customer, customer);
     await audit(m, {
@@ -60,5 +59,5 @@ export async function createCustomer(
       detail: { name: body.name },
     });
   });
-  return present(customer);
+  return presentCustomer(customer);
 }
