@@ -42,7 +42,10 @@ function pick(props: ICAL.Property[], liked: string[]): ICAL.Property | null {
   const score = (p: ICAL.Property) => {
     const types = typesOf(p);
     const i = liked.findIndex((l) => types.includes(l));
-    return prefOf(p) * 10 + (i === -1 ? liked.length : i);
+    // A fax or pager number is no use for booking a trade.
+    const unusable =
+      types.includes("fax") || types.includes("pager") ? 1000 : 0;
+    return unusable + prefOf(p) * 10 + (i === -1 ? liked.length : i);
   };
   return [...props].sort((a, b) => score(a) - score(b))[0];
 }
@@ -55,10 +58,33 @@ function telText(p: ICAL.Property): string {
 
 // vCard 2.1 (still exported by some phones) writes quoted-printable values with soft line breaks
 // ("=" at a line's end, RFC 2045 §6.7) that are not RFC 6350 §3.2 folding; join them before parsing.
-function joinSoftBreaks(text: string): string {
-  return text.replace(
-    /^([^:\r\n]*ENCODING=QUOTED-PRINTABLE[^:\r\n]*:.*?)=\r?\n/gim,
-    (_m, start: string) => start,
+// vCard 2.1 also writes bare parameters ("TEL;CELL:", "NOTE;QUOTED-PRINTABLE:"), which 3.0 and
+// 4.0 spell TYPE=CELL and ENCODING=QUOTED-PRINTABLE; they are rewritten so ical.js reads them.
+function from21(text: string): string {
+  let joined = text;
+  // Soft breaks first, repeated: one value may be broken over several lines.
+  for (let i = 0; i < 200; i++) {
+    const next = joined.replace(
+      /^([^:\r\n]*QUOTED-PRINTABLE[^:\r\n]*:.*?)=\r?\n/gim,
+      (_m, start: string) => start,
+    );
+    if (next === joined) break;
+    joined = next;
+  }
+  return joined.replace(
+    /^([A-Za-z0-9.-]+)((?:;[^:;\r\n]*)+):/gm,
+    (_m, name: string, params: string) =>
+      `${name}${params
+        .split(";")
+        .slice(1)
+        .map((p) =>
+          p.includes("=")
+            ? `;${p}`
+            : /^(quoted-printable|base64|8bit|7bit)$/i.test(p)
+              ? `;ENCODING=${p}`
+              : `;TYPE=${p}`,
+        )
+        .join("")}:`,
   );
 }
 
@@ -94,7 +120,7 @@ function text(p: ICAL.Property | null): string {
 export function readVCards(source: string): RawContact[] {
   let parsed: unknown;
   try {
-    parsed = ICAL.parse(joinSoftBreaks(source));
+    parsed = ICAL.parse(from21(source));
   } catch (e) {
     throw new HttpError(
       422,
@@ -150,6 +176,7 @@ const HEADERS: Record<Exclude<keyof RawContact, "row">, string[]> = {
     "organization",
     "org",
     "firm",
+    "firma",
   ],
   contactName: [
     "name",
@@ -171,6 +198,8 @@ const HEADERS: Record<Exclude<keyof RawContact, "row">, string[]> = {
     "cell",
     "mobilephone",
     "workphone",
+    "telefon",
+    "handy",
   ],
   hints: [
     "trade",
