@@ -29,10 +29,11 @@ const arrivalRule = <
   (b.arrivalFrom !== null &&
     b.arrivalTo !== null &&
     b.arrivalFrom < b.arrivalTo);
-const arrivalMessage = {
-  message: "Give the arrival range as from and to times, from before to",
-  path: ["arrivalFrom"],
-};
+const ARRIVAL_WORDS =
+  "Give the arrival range as from and to times, from before to";
+// zod 4 rewrites this object in .refine (its `message` becomes `error`), so the words are
+// kept in their own constant too.
+const arrivalMessage = { message: ARRIVAL_WORDS, path: ["arrivalFrom"] };
 
 /** Book a trade for a task: a draft, or sent at once with `send`. */
 export const createBookingBodySchema = z
@@ -72,7 +73,7 @@ export const arrivalProblem = (b: {
   arrivalWindow: string;
   arrivalFrom: string | null;
   arrivalTo: string | null;
-}): string | null => (arrivalRule(b) ? null : arrivalMessage.message);
+}): string | null => (arrivalRule(b) ? null : ARRIVAL_WORDS);
 
 /** The maker records the trade's answer given by phone or text. */
 export const recordAnswerBodySchema = z
