@@ -16,6 +16,7 @@ import { ProgrammeRoute } from "./routes/programme";
 import { DrawingRoute } from "./routes/drawing";
 import { VisitRoute } from "./routes/visit";
 import { TradesRoute } from "./routes/trades";
+import { CustomersRoute } from "./routes/customers";
 import { MembersRoute } from "./routes/members";
 import { NotFoundRoute } from "./routes/not-found";
 
@@ -58,6 +59,7 @@ export function createAppRouter() {
             },
             { path: "visits/:bookingId", element: <VisitRoute /> },
             { path: "trades", element: <TradesRoute /> },
+            { path: "customers", element: <CustomersRoute /> },
             { path: "members", element: <MembersRoute /> },
             // FullCalendar (~80 KB gzip) loads with these routes only.
             { path: "calendar", lazy: () => import("./routes/calendar") },

@@ -24,6 +24,7 @@ function navItems(viewer: Viewer, isOwnerOfActive: boolean): NavItem[] {
     home,
     { to: "/calendar", label: "Calendar" },
     { to: "/trades", label: "Trades" },
+    { to: "/customers", label: "Customers" },
   ];
   if (isOwnerOfActive) items.push({ to: "/members", label: "Members" });
   return items;
