@@ -87,7 +87,8 @@ export function AppLayout({
             aria-label="Main"
             className="order-3 w-full sm:order-none sm:w-auto"
           >
-            <ul className="flex gap-1">
+            {/* Wraps on a phone: five items do not fit 375 px on one line. */}
+            <ul className="flex flex-wrap gap-1">
               {items.map((item) => (
                 <li key={item.to}>
                   <NavLink
