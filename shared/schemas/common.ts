@@ -66,14 +66,7 @@ export const bookingStateSchema = z.enum(bookingStates);
 export type BookingState = z.infer<typeof bookingStateSchema>;
 
 /** How a booking's state changed: in the app, by the confirmation link, recorded from a call or text, or from the trade's calendar app (iTIP REPLY). */
-export const bookingChannels = [
-  "app",
-  "link",
-  "phone",
-  "text",
-  "calendar-reply",
-  "system",
-] as const;
+export const bookingChannels = ["app", "link", "phone", "text", "calendar-reply", "system"] as const;
 export type BookingChannel = (typeof bookingChannels)[number];
 
 export const arrivalWindows = [
