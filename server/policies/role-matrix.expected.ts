@@ -140,6 +140,8 @@ export const expected: Record<string, Row> = {
   "POST /jobs/:jobId/bookings": jobStaff(201),
   // The booking sent here is the job's only one and still a draft, so the trade is not on the job yet.
   "POST /bookings/:bookingId/send": { ...jobStaff(200), tradeOn: 404 },
+  // A draft, as for send: the trade is not on that job yet.
+  "PATCH /bookings/:bookingId": { ...jobStaff(200), tradeOn: 404 },
   "POST /bookings/:bookingId/answer": jobStaff(200),
   "POST /bookings/:bookingId/proposal": jobStaff(200),
   "POST /bookings/:bookingId/cancel": jobStaff(200),
@@ -199,6 +201,13 @@ export const expected: Record<string, Row> = {
 
   "GET /workshops/:workshopId/customers": staff(200),
   "POST /workshops/:workshopId/customers": staff(201),
+  // Bringing trades and customers in, and taking them out: the workshop's staff.
+  "POST /workshops/:workshopId/trades/import/preview": staff(200),
+  "POST /workshops/:workshopId/trades/import": staff(201),
+  "GET /workshops/:workshopId/trades.csv": staff(200),
+  "POST /workshops/:workshopId/customers/import/preview": staff(200),
+  "POST /workshops/:workshopId/customers/import": staff(201),
+  "GET /workshops/:workshopId/customers.csv": staff(200),
 
   // The job thread: whoever sees the job reads it; the request posts to "Trades & workshop", which
   // the customer sees the job but may not use (403). The file is on such a message, so the

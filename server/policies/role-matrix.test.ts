@@ -425,6 +425,10 @@ const requests: Record<
   "POST /bookings/:bookingId/send": async () => ({
     path: `/api/bookings/${await bookingIn("draft")}/send`,
   }),
+  "PATCH /bookings/:bookingId": async () => ({
+    path: `/api/bookings/${await bookingIn("draft")}`,
+    body: { arrivalWindow: "all-day" },
+  }),
   "POST /bookings/:bookingId/answer": async () => ({
     path: `/api/bookings/${await bookingIn("sent")}/answer`,
     body: {
@@ -564,6 +568,54 @@ const requests: Record<
   "POST /workshops/:workshopId/customers": async () => ({
     path: `/api/workshops/${ids.workshopId}/customers`,
     body: { name: "New Customer", email: `c-${unique()}@example.test` },
+  }),
+  "POST /workshops/:workshopId/trades/import/preview": async () => ({
+    path: `/api/workshops/${ids.workshopId}/trades/import/preview`,
+    body: {
+      fileName: "trades.csv",
+      text: "Business,Name,Email,Phone\r\nA Firm,Al,a@example.test,01632 960 111",
+    },
+  }),
+  "POST /workshops/:workshopId/trades/import": async () => ({
+    path: `/api/workshops/${ids.workshopId}/trades/import`,
+    body: {
+      rows: [
+        {
+          row: 1,
+          businessName: `Trade ${unique()}`,
+          contactName: "A Tiler",
+          kind: "other",
+          email: `tiler-${unique()}@example.test`,
+          phone: "01632 960 998",
+          addDuplicate: true,
+        },
+      ],
+    },
+  }),
+  "GET /workshops/:workshopId/trades.csv": async () => ({
+    path: `/api/workshops/${ids.workshopId}/trades.csv`,
+  }),
+  "POST /workshops/:workshopId/customers/import/preview": async () => ({
+    path: `/api/workshops/${ids.workshopId}/customers/import/preview`,
+    body: {
+      fileName: "customers.csv",
+      text: "Name,Email\r\nAnn Example,ann@example.test",
+    },
+  }),
+  "POST /workshops/:workshopId/customers/import": async () => ({
+    path: `/api/workshops/${ids.workshopId}/customers/import`,
+    body: {
+      rows: [
+        {
+          row: 1,
+          name: "Imported Customer",
+          email: `c-${unique()}@example.test`,
+        },
+      ],
+    },
+  }),
+  "GET /workshops/:workshopId/customers.csv": async () => ({
+    path: `/api/workshops/${ids.workshopId}/customers.csv`,
   }),
   "GET /jobs/:jobId/thread": async () => ({
     path: `/api/jobs/${await freshJob()}/thread`,

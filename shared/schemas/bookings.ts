@@ -29,10 +29,11 @@ const arrivalRule = <
   (b.arrivalFrom !== null &&
     b.arrivalTo !== null &&
     b.arrivalFrom < b.arrivalTo);
-const arrivalMessage = {
-  message: "Give the arrival range as from and to times, from before to",
-  path: ["arrivalFrom"],
-};
+const ARRIVAL_WORDS =
+  "Give the arrival range as from and to times, from before to";
+// zod 4 rewrites this object in .refine (its `message` becomes `error`), so the words are
+// kept in their own constant too.
+const arrivalMessage = { message: ARRIVAL_WORDS, path: ["arrivalFrom"] };
 
 /** Book a trade for a task: a draft, or sent at once with `send`. */
 export const createBookingBodySchema = z
@@ -48,6 +49,31 @@ export const createBookingBodySchema = z
   })
   .refine(arrivalRule, arrivalMessage);
 export type CreateBookingBody = z.input<typeof createBookingBodySchema>;
+
+/**
+ * Change a draft booking (issue 14): its trade, start, arrival window, address sharing or the
+ * reason it stands despite a clash. Fields left out keep their value; the result is checked as a
+ * new booking would be.
+ */
+export const updateBookingBodySchema = z
+  .object({
+    tradeId: idSchema,
+    start: slotInstantSchema,
+    arrivalWindow: arrivalWindowSchema,
+    arrivalFrom: clockTimeSchema.nullable(),
+    arrivalTo: clockTimeSchema.nullable(),
+    shareAddress: z.boolean(),
+    overrideReason: z.string().trim().max(500).nullable(),
+  })
+  .partial();
+export type UpdateBookingBody = z.input<typeof updateBookingBodySchema>;
+
+/** The arrival rule for a booking as a whole (create, or a draft after its change). */
+export const arrivalProblem = (b: {
+  arrivalWindow: string;
+  arrivalFrom: string | null;
+  arrivalTo: string | null;
+}): string | null => (arrivalRule(b) ? null : ARRIVAL_WORDS);
 
 /** The maker records the trade's answer given by phone or text. */
 export const recordAnswerBodySchema = z

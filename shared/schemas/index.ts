@@ -16,3 +16,4 @@ export * from "./files";
 export * from "./timeline";
 export * from "./attention";
 export * from "./visits";
+export * from "./contacts-import";

@@ -18,6 +18,7 @@ import { ProgrammeRoute } from "./routes/programme";
 import { DrawingRoute } from "./routes/drawing";
 import { VisitRoute } from "./routes/visit";
 import { TradesRoute } from "./routes/trades";
+import { CustomersRoute } from "./routes/customers";
 import { MembersRoute } from "./routes/members";
 import { SettingsRoute } from "./routes/settings";
 import { SetupRoute } from "./routes/setup";
@@ -64,6 +65,7 @@ export function createAppRouter() {
             },
             { path: "visits/:bookingId", element: <VisitRoute /> },
             { path: "trades", element: <TradesRoute /> },
+            { path: "customers", element: <CustomersRoute /> },
             { path: "members", element: <MembersRoute /> },
             { path: "settings", element: <SettingsRoute /> },
             { path: "setup", element: <SetupRoute /> },

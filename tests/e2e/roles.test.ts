@@ -46,6 +46,7 @@ describe("each demo role in the browser", () => {
       "Jobs",
       "Calendar",
       "Trades",
+      "Customers",
       "Members",
       "Settings",
     ]);

@@ -11,6 +11,7 @@ import {
   linkTokenParamsSchema,
   proposalDecisionBodySchema,
   recordAnswerBodySchema,
+  updateBookingBodySchema,
 } from "../../../shared/schemas";
 import type { ApiRoutes } from "../../http/routes";
 import { answerByLink, linkPage } from "./booking-link.service";
@@ -25,6 +26,7 @@ import {
   listUnanswered,
   recordAnswer,
   sendBooking,
+  updateDraftBooking,
   type BookingDeps,
 } from "./bookings.service";
 
@@ -79,6 +81,18 @@ export function registerBookingRoutes(
     response: bookingResponseSchema,
     handler: async ({ actor, params, body }) =>
       createBooking(deps, actor, params.jobId, body),
+  });
+  api.add({
+    method: "patch",
+    path: "/bookings/:bookingId",
+    tag,
+    summary:
+      "Change a draft booking: trade, start, arrival window (409 once it is sent)",
+    params: booking,
+    body: updateBookingBodySchema,
+    response: bookingResponseSchema,
+    handler: async ({ actor, params, body }) =>
+      updateDraftBooking(deps, actor, params.bookingId, body),
   });
   api.add({
     method: "post",

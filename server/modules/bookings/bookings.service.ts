@@ -8,13 +8,15 @@ import {
   type ProgrammeInput,
   type ProgrammeResult,
 } from "../../../shared/programme";
-import type {
-  BookingOptionsResponse,
-  BookingResponse,
-  BookingChannel,
-  BookingState,
-  createBookingBodySchema,
-  recordAnswerBodySchema,
+import {
+  arrivalProblem,
+  type BookingOptionsResponse,
+  type BookingResponse,
+  type BookingChannel,
+  type BookingState,
+  type createBookingBodySchema,
+  type recordAnswerBodySchema,
+  type updateBookingBodySchema,
 } from "../../../shared/schemas";
 import { newId } from "../../db/columns";
 import {
@@ -126,12 +128,13 @@ interface Loaded {
 /**
  * Loads a booking with its job, task, trade and workshop. `lock` takes the locking rule's locks
  * (server/db/locks.ts) in its order — the job's row, the trades on the job and the booking's own
- * trade, then the booking's row — so it must run in a `lockingTransaction`.
+ * trade (and `alsoTrades`), then the booking's row — so it must run in a `lockingTransaction`.
  */
 async function loadBooking(
   m: EntityManager,
   bookingId: string,
   lock = false,
+  alsoTrades: string[] = [],
 ): Promise<Loaded> {
   if (lock) {
     const seen = await m.findOne(Booking, {
@@ -140,7 +143,8 @@ async function loadBooking(
     });
     if (!seen) throw notFound("That booking");
     await lockJobRow(m, seen.jobId);
-    await lockJobTrades(m, seen.jobId, [seen.tradeId]);
+    // A trade the change moves the booking to is locked with the rest, in the same id order.
+    await lockJobTrades(m, seen.jobId, [seen.tradeId, ...alsoTrades]);
   }
   const booking = await m.findOne(Booking, {
     where: { id: bookingId },
@@ -488,6 +492,58 @@ export async function listUnanswered(
   return Promise.all(rows.map((b) => presentBooking(deps.ds.manager, b)));
 }
 
+/** The trade for a task of a job, or 422 naming why not (another workshop's, the wrong kind). */
+async function bookableTrade(
+  m: EntityManager,
+  job: Job,
+  task: Task,
+  tradeId: string,
+): Promise<Trade> {
+  const trade = await m.findOneBy(Trade, {
+    id: tradeId,
+    workshopId: job.workshopId,
+  });
+  if (!trade)
+    throw new HttpError(
+      422,
+      "unprocessable",
+      "That trade is not one of this workshop's.",
+      { tradeId: ["Choose one of the workshop's trades"] },
+    );
+  if (task.party === "workshop")
+    throw new HttpError(
+      422,
+      "unprocessable",
+      "This task is the workshop's own; only trade tasks are booked.",
+      { taskId: ["Choose a trade task"] },
+    );
+  if (trade.kind !== task.party)
+    throw new HttpError(
+      422,
+      "unprocessable",
+      `This task is for a ${task.party}; ${trade.businessName} is a ${trade.kind}.`,
+      { tradeId: ["Choose a trade of the task's kind"] },
+    );
+  return trade;
+}
+
+/** The workshop offers only the arrival times in its settings (issue 14): booking and changing a draft alike. */
+function offeredArrival(workshop: Workshop, arrivalWindow: string): void {
+  if (!workshop.arrivalWindows.includes(arrivalWindow as never))
+    throw new HttpError(
+      422,
+      "unprocessable",
+      `${workshop.name} does not offer that arrival time; choose one the workshop offers.`,
+      { arrivalWindow: ["Choose an arrival time the workshop offers"] },
+    );
+}
+
+/** An afternoon arrival is the afternoon slot; otherwise a bare date means the trade's morning. */
+function slotStart(start: string, arrivalWindow: string, trade: Trade): string {
+  if (arrivalWindow === "afternoon") return `${start.slice(0, 10)}T12:00`;
+  return start.length === 10 ? `${start}T${trade.dayStart}` : start;
+}
+
 /** Books a trade for a task (a draft, or sent with its invitation); a clash or day off needs an override reason. */
 export async function createBooking(
   deps: BookingDeps,
@@ -508,31 +564,7 @@ export async function createBooking(
         "That task is not in this job.",
         { taskId: ["Choose a task of this job"] },
       );
-    const trade = await m.findOneBy(Trade, {
-      id: body.tradeId,
-      workshopId: job.workshopId,
-    });
-    if (!trade)
-      throw new HttpError(
-        422,
-        "unprocessable",
-        "That trade is not one of this workshop's.",
-        { tradeId: ["Choose one of the workshop's trades"] },
-      );
-    if (task.party === "workshop")
-      throw new HttpError(
-        422,
-        "unprocessable",
-        "This task is the workshop's own; only trade tasks are booked.",
-        { taskId: ["Choose a trade task"] },
-      );
-    if (trade.kind !== task.party)
-      throw new HttpError(
-        422,
-        "unprocessable",
-        `This task is for a ${task.party}; ${trade.businessName} is a ${trade.kind}.`,
-        { tradeId: ["Choose a trade of the task's kind"] },
-      );
+    const trade = await bookableTrade(m, job, task, body.tradeId);
     // Serialise bookings per trade (issue 13, item 3): two sends for one trade's half-day on two
     // jobs at once would otherwise both pass the clash check below.
     await lockJobTrades(m, jobId, [trade.id]);
@@ -548,21 +580,8 @@ export async function createBooking(
         { taskId: ["Already booked"] },
       );
     const workshop = await m.findOneByOrFail(Workshop, { id: job.workshopId });
-    // The workshop offers only the arrival times in its settings (issue 14).
-    if (!workshop.arrivalWindows.includes(body.arrivalWindow))
-      throw new HttpError(
-        422,
-        "unprocessable",
-        `${workshop.name} does not offer that arrival time; choose one the workshop offers.`,
-        { arrivalWindow: ["Choose an arrival time the workshop offers"] },
-      );
-    // An afternoon arrival is the afternoon slot; otherwise a bare date means that morning.
-    const start =
-      body.arrivalWindow === "afternoon"
-        ? `${body.start.slice(0, 10)}T12:00`
-        : body.start.length === 10
-          ? `${body.start}T${trade.dayStart}`
-          : body.start;
+    offeredArrival(workshop, body.arrivalWindow);
+    const start = slotStart(body.start, body.arrivalWindow, trade);
     const check = await checkBooking(m, job, workshop, trade, task.id, start);
     if (check.problems.length && !body.overrideReason)
       throw clashRefusal(check);
@@ -687,10 +706,11 @@ async function changeBooking(
   actor: Actor | null,
   bookingId: string,
   change: (m: EntityManager, l: Loaded) => Promise<void>,
+  alsoTrades: string[] = [],
 ): Promise<BookingResponse> {
   const { ds } = deps;
   await lockingTransaction(ds, async (m) => {
-    const l = await loadBooking(m, bookingId, true);
+    const l = await loadBooking(m, bookingId, true, alsoTrades);
     await authorizeBooking(m, actor, l);
     await change(m, l);
   });
@@ -731,6 +751,120 @@ export async function sendBooking(
     await sendInTransaction(m, deps, l, actor!.userId, "invitation");
     await bumpJob(m, l.job);
   });
+}
+
+/**
+ * Changes a draft booking (nothing was sent, so nobody is told): its trade, start, arrival window,
+ * address sharing or clash reason. Under the same locks as a send, checked by the engine as a new
+ * booking is (a clash or day off needs a reason), with a history entry and an audit entry, and the
+ * job's version moves as when the draft was made. Anything but a draft answers 409.
+ */
+export async function updateDraftBooking(
+  deps: BookingDeps,
+  actor: Actor | null,
+  bookingId: string,
+  body: z.output<typeof updateBookingBodySchema>,
+): Promise<BookingResponse> {
+  return changeBooking(
+    deps,
+    actor,
+    bookingId,
+    async (m, l) => {
+      const b = l.booking;
+      if (b.state !== "draft")
+        throw new HttpError(
+          409,
+          "conflict",
+          `This booking was ${b.state === "cancelled" ? "cancelled" : "sent"}, so it is no longer a draft to change. ${b.state === "cancelled" ? "Book the task again instead." : "Cancel it and book again, or move it on the programme (the trade is asked to confirm again)."}`,
+        );
+      const trade =
+        body.tradeId && body.tradeId !== b.tradeId
+          ? await bookableTrade(m, l.job, l.task, body.tradeId)
+          : l.trade;
+      const arrivalWindow = body.arrivalWindow ?? b.arrivalWindow;
+      const arrival = {
+        arrivalWindow,
+        arrivalFrom:
+          arrivalWindow === "range"
+            ? body.arrivalFrom !== undefined
+              ? body.arrivalFrom
+              : b.arrivalFrom
+            : null,
+        arrivalTo:
+          arrivalWindow === "range"
+            ? body.arrivalTo !== undefined
+              ? body.arrivalTo
+              : b.arrivalTo
+            : null,
+      };
+      if (body.arrivalWindow) offeredArrival(l.workshop, arrivalWindow);
+      const arrivalWrong = arrivalProblem(arrival);
+      if (arrivalWrong)
+        throw new HttpError(400, "validation", arrivalWrong, {
+          arrivalFrom: [arrivalWrong],
+        });
+      // A start given as a date takes the (new) trade's morning; an unchanged one keeps its slot.
+      const start = slotStart(body.start ?? b.start, arrivalWindow, trade);
+      const reason =
+        body.overrideReason !== undefined
+          ? body.overrideReason
+          : b.overrideReason;
+      const check = await checkBooking(
+        m,
+        l.job,
+        l.workshop,
+        trade,
+        l.task.id,
+        start,
+      );
+      if (check.problems.length && !reason) throw clashRefusal(check);
+      const before = { trade: l.trade.businessName, when: whenWords(b) };
+      Object.assign(b, {
+        tradeId: trade.id,
+        start,
+        finish: check.finish,
+        ...arrival,
+        shareAddress: body.shareAddress ?? b.shareAddress,
+        overrideReason: check.problems.length ? reason : null,
+      });
+      await m.save(Booking, b);
+      const changed = [
+        before.trade !== trade.businessName
+          ? `trade ${before.trade} → ${trade.businessName}`
+          : null,
+        before.when !== whenWords(b)
+          ? `${before.when} → ${whenWords(b)}`
+          : null,
+      ].filter(Boolean);
+      await recordEvent(
+        m,
+        b,
+        "draft",
+        "draft",
+        "app",
+        actor!.userId,
+        `Draft changed${changed.length ? `: ${changed.join("; ")}` : ""}${
+          check.problems.length
+            ? `. Booked despite: ${check.problems.join(" ")} Reason: ${reason}`
+            : ""
+        }`,
+      );
+      await audit(m, {
+        workshopId: b.workshopId,
+        actorUserId: actor!.userId,
+        action: "booking.updated",
+        entityType: "booking",
+        entityId: b.id,
+        detail: {
+          jobId: b.jobId,
+          toVersion: l.job.version + 1,
+          summary: `changed the draft booking of ${trade.businessName} for ${l.task.name}`,
+        },
+      });
+      await bumpJob(m, l.job);
+    },
+    body.tradeId ? [body.tradeId] : [],
+  );
 }
 
 const answerable: BookingState[] = [

@@ -10,7 +10,8 @@ import type {
   customerBodySchema,
 } from "../../../shared/schemas";
 
-const present = (c: Customer): CustomerResponse => ({
+/** A customer as the workshop sees them. */
+export const presentCustomer = (c: Customer): CustomerResponse => ({
   id: c.id,
   name: c.name,
   email: c.email,
@@ -29,7 +30,7 @@ export async function listCustomers(
     await ds
       .getRepository(Customer)
       .find({ where: { workshopId }, order: { name: "ASC" } })
-  ).map(present);
+  ).map(presentCustomer);
 }
 
 export async function createCustomer(
@@ -60,5 +61,5 @@ export async function createCustomer(
       detail: { name: body.name },
     });
   });
-  return present(customer);
+  return presentCustomer(customer);
 }

@@ -575,7 +575,10 @@ const extValue = (name: string) =>
   )}`;
 
 /** RFC 6266 Content-Disposition with an ASCII fallback and the UTF-8 name (RFC 6266 §4.3, RFC 8187). */
-function contentDisposition(kind: "inline" | "attachment", name: string) {
+export function contentDisposition(
+  kind: "inline" | "attachment",
+  name: string,
+) {
   const ascii = name.replace(/[^\x20-\x7e]/g, "_").replace(/["\\]/g, "_");
   return `${kind}; filename="${ascii}"; filename*=${extValue(name)}`;
 }

@@ -2,7 +2,11 @@ import { z } from "zod";
 import type { DataSource } from "typeorm";
 import {
   idSchema,
+  importFileBodySchema,
   tradeBodySchema,
+  tradeImportConfirmSchema,
+  tradeImportPreviewSchema,
+  tradeImportResultSchema,
   tradeBusyQuerySchema,
   tradeBusyResponseSchema,
   tradeResponseSchema,
@@ -16,6 +20,12 @@ import {
   tradeBusy,
   updateTrade,
 } from "./trades.service";
+import { sendCsv } from "../contacts-import/import-rows";
+import {
+  confirmTradeImport,
+  exportTradesCsv,
+  previewTradeImport,
+} from "./trades-import";
 
 const workshopParams = z.object({ workshopId: idSchema });
 const tradeParams = z.object({ tradeId: idSchema });
@@ -77,5 +87,43 @@ export function registerTradeRoutes(api: ApiRoutes, ds: DataSource): void {
     status: 204,
     handler: async ({ actor, params }) =>
       deleteTrade(ds, actor, params.tradeId),
+  });
+  api.add({
+    method: "post",
+    path: "/workshops/:workshopId/trades/import/preview",
+    tag: "trades",
+    summary:
+      "Read a vCard or CSV file into trade rows to choose from (nothing is saved)",
+    params: workshopParams,
+    body: importFileBodySchema,
+    response: tradeImportPreviewSchema,
+    handler: async ({ actor, params, body }) =>
+      previewTradeImport(ds, actor, params.workshopId, body),
+  });
+  api.add({
+    method: "post",
+    path: "/workshops/:workshopId/trades/import",
+    tag: "trades",
+    summary:
+      "Add the chosen rows of an import, all or nothing (duplicates only when ticked in)",
+    params: workshopParams,
+    body: tradeImportConfirmSchema,
+    status: 201,
+    response: tradeImportResultSchema,
+    handler: async ({ actor, params, body }) =>
+      confirmTradeImport(ds, actor, params.workshopId, body),
+  });
+  api.add({
+    method: "get",
+    path: "/workshops/:workshopId/trades.csv",
+    tag: "trades",
+    summary: "The workshop's trades as a CSV download",
+    params: workshopParams,
+    handler: async ({ actor, params, res }) =>
+      sendCsv(
+        res,
+        "trades.csv",
+        await exportTradesCsv(ds, actor, params.workshopId),
+      ),
   });
 }

@@ -25,6 +25,7 @@ function navItems(viewer: Viewer, isOwnerOfActive: boolean): NavItem[] {
     home,
     { to: "/calendar", label: "Calendar" },
     { to: "/trades", label: "Trades" },
+    { to: "/customers", label: "Customers" },
   ];
   if (isOwnerOfActive)
     items.push(
@@ -91,7 +92,7 @@ export function AppLayout({
             aria-label="Main"
             className="order-3 w-full sm:order-none sm:w-auto"
           >
-            {/* Five links for an owner: narrower on a phone, and wrapping rather than overflowing at 375 px. */}
+            {/* Up to six links for an owner: narrower on a phone, and wrapping rather than overflowing at 375 px. */}
             <ul className="flex flex-wrap gap-1">
               {items.map((item) => (
                 <li key={item.to}>

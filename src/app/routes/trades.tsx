@@ -1,9 +1,12 @@
 import { useState } from "react";
 import { useTrades } from "../../features/trades/api/list-trades";
 import { AddTradeForm } from "../../features/trades/components/AddTradeForm";
+import { ImportTrades } from "../../features/trades/components/ImportTrades";
+import { tradesCsvUrl } from "../../features/trades/api/import-trades";
 import { TradesList } from "../../features/trades/components/TradesList";
 import {
   Button,
+  buttonClasses,
   EmptyState,
   ErrorState,
   LoadingState,
@@ -38,6 +41,7 @@ function TradesPage({
   const trades = useTrades(workshopId);
   const [adding, setAdding] = useState(false);
   const [added, setAdded] = useState(false);
+  const [importing, setImporting] = useState(false);
 
   return (
     <>
@@ -46,18 +50,41 @@ function TradesPage({
         eyebrow={workshopName}
         description="The trades this workshop books, with their working days."
         actions={
-          !adding ? (
-            <Button
-              onClick={() => {
-                setAdding(true);
-                setAdded(false);
-              }}
+          <div className="flex flex-wrap gap-2">
+            {!adding ? (
+              <Button
+                onClick={() => {
+                  setAdding(true);
+                  setAdded(false);
+                }}
+              >
+                Add trade
+              </Button>
+            ) : null}
+            {!importing ? (
+              <Button variant="secondary" onClick={() => setImporting(true)}>
+                Import contacts (vCard or CSV)
+              </Button>
+            ) : null}
+            {/* A plain download: the session cookie goes with it, and the server names the file. */}
+            <a
+              href={tradesCsvUrl(workshopId)}
+              download
+              className={buttonClasses("secondary")}
             >
-              Add trade
-            </Button>
-          ) : null
+              Export CSV
+            </a>
+          </div>
         }
       />
+      {importing ? (
+        <Section title="Import contacts (vCard or CSV)" className="mb-6">
+          <ImportTrades
+            workshopId={workshopId}
+            onClose={() => setImporting(false)}
+          />
+        </Section>
+      ) : null}
       {adding ? (
         <Section title="Add a trade" className="mb-6">
           <AddTradeForm
@@ -94,7 +121,12 @@ function TradesPage({
           jobs can be planned around them.
         </EmptyState>
       ) : (
-        <TradesList trades={trades.data} canDelete={isOwner} />
+        <TradesList
+          trades={trades.data}
+          canDelete={isOwner}
+          canEdit
+          workshopId={workshopId}
+        />
       )}
     </>
   );

@@ -20,3 +20,4 @@ export {
 export { PageHeader } from "./PageHeader";
 export { ProgressBar } from "./ProgressBar";
 export { cx } from "./cx";
+export { ImportPanel, type ImportRow } from "./ImportPanel";

@@ -28,6 +28,7 @@ import { formatDays } from "../../../lib/format";
 import { arrivalChoiceLabels } from "../../../lib/labels";
 import { useBookingOptions } from "../api/get-booking-options";
 import { useCreateBooking } from "../api/create-booking";
+import { useUpdateBooking } from "../api/update-booking";
 import {
   aKind,
   dateOf,
@@ -84,6 +85,8 @@ export interface BookTradePanelProps {
   caution?: string | null;
   onBooked: (booking: BookingResponse) => void;
   onClose: () => void;
+  /** A draft to change instead of a new booking: the form starts from it and saves it (PATCH). */
+  editing?: BookingResponse;
 }
 
 /** Book a trade for one task: the window that keeps handover, each trade's first free start, the start and arrival. */
@@ -104,7 +107,7 @@ export function BookTradePanel(props: BookTradePanelProps) {
       className="flex flex-col gap-3 rounded border border-accent/40 bg-paper p-4"
     >
       <h3 id={headingId} className="font-semibold">
-        Book a trade
+        {props.editing ? "Change the draft" : "Book a trade"}
         {options.data ? `: ${options.data.taskName}` : ""}
       </h3>
       {body}
@@ -200,8 +203,10 @@ function BookForm({
   options,
   onBooked,
   onClose,
+  editing,
 }: BookTradePanelProps & { options: BookingOptionsResponse }) {
   const create = useCreateBooking(jobId);
+  const update = useUpdateBooking(jobId);
   const [formError, setFormError] = useState<string | null>(null);
   const [conflict, setConflict] = useState<Conflict | null>(null);
   const [overriding, setOverriding] = useState(false);
@@ -216,17 +221,27 @@ function BookForm({
     options.arrivalWindows.includes(a) ? a : options.arrivalWindows[0];
   const form = useForm<Values>({
     resolver: zodResolver(bookFormSchema),
-    defaultValues: {
-      tradeId: first?.tradeId ?? "",
-      date: first?.firstFree ? dateOf(first.firstFree.start) : "",
-      half: first?.firstFree ? halfOf(first.firstFree.start) : "morning",
-      arrivalWindow: offered(
-        first?.firstFree ? halfOf(first.firstFree.start) : "morning",
-      ),
-      arrivalFrom: "08:00",
-      arrivalTo: "09:00",
-      shareAddress: false,
-    },
+    defaultValues: editing
+      ? {
+          tradeId: editing.tradeId,
+          date: dateOf(editing.start),
+          half: halfOf(editing.start),
+          arrivalWindow: editing.arrivalWindow,
+          arrivalFrom: editing.arrivalFrom ?? "08:00",
+          arrivalTo: editing.arrivalTo ?? "09:00",
+          shareAddress: editing.shareAddress,
+        }
+      : {
+          tradeId: first?.tradeId ?? "",
+          date: first?.firstFree ? dateOf(first.firstFree.start) : "",
+          half: first?.firstFree ? halfOf(first.firstFree.start) : "morning",
+          arrivalWindow: offered(
+            first?.firstFree ? halfOf(first.firstFree.start) : "morning",
+          ),
+          arrivalFrom: "08:00",
+          arrivalTo: "09:00",
+          shareAddress: false,
+        },
   });
   const { errors } = form.formState;
   const [tradeId, date, half, arrivalWindow] = useWatch({
@@ -259,7 +274,21 @@ function BookForm({
       send,
     });
     try {
-      const booking = await create.mutateAsync(body);
+      const booking = editing
+        ? await update.mutateAsync({
+            bookingId: editing.id,
+            body: {
+              tradeId: body.tradeId,
+              start: body.start,
+              arrivalWindow: body.arrivalWindow,
+              arrivalFrom: body.arrivalFrom,
+              arrivalTo: body.arrivalTo,
+              shareAddress: body.shareAddress,
+              // A change that clears the clash drops the old reason on the server.
+              overrideReason: override ?? editing.overrideReason,
+            },
+          })
+        : await create.mutateAsync(body);
       setConflict(null);
       onBooked(booking);
     } catch (error) {
@@ -331,8 +360,13 @@ function BookForm({
   return (
     <form
       noValidate
-      aria-label={`Book ${aKind(options.party)} for ${options.taskName}`}
-      onSubmit={form.handleSubmit((v) => submit(v, true))}
+      aria-label={
+        editing
+          ? `Change the draft booking for ${options.taskName}`
+          : `Book ${aKind(options.party)} for ${options.taskName}`
+      }
+      // A draft being changed is saved, never sent, by Enter.
+      onSubmit={form.handleSubmit((v) => submit(v, !editing))}
       className="flex flex-col gap-4"
     >
       <div className="flex flex-wrap items-center gap-x-3 gap-y-1 text-sm">
@@ -525,7 +559,9 @@ function BookForm({
                 >
                   {conflict.send
                     ? "Book anyway and send"
-                    : "Book anyway as a draft"}
+                    : editing
+                      ? "Save the draft anyway"
+                      : "Book anyway as a draft"}
                 </Button>
                 <Button
                   size="sm"
@@ -541,21 +577,33 @@ function BookForm({
       ) : null}
 
       <div className="flex flex-wrap gap-2">
-        <Button
-          type="submit"
-          busy={pending === "send"}
-          disabled={pending !== null}
-        >
-          {chosen ? `Send to ${chosen.businessName}` : "Send"}
-        </Button>
-        <Button
-          variant="secondary"
-          busy={pending === "draft"}
-          disabled={pending !== null}
-          onClick={form.handleSubmit((v) => submit(v, false))}
-        >
-          Save as draft
-        </Button>
+        {editing ? (
+          <Button
+            busy={pending === "draft"}
+            disabled={pending !== null}
+            onClick={form.handleSubmit((v) => submit(v, false))}
+          >
+            Save the draft
+          </Button>
+        ) : (
+          <>
+            <Button
+              type="submit"
+              busy={pending === "send"}
+              disabled={pending !== null}
+            >
+              {chosen ? `Send to ${chosen.businessName}` : "Send"}
+            </Button>
+            <Button
+              variant="secondary"
+              busy={pending === "draft"}
+              disabled={pending !== null}
+              onClick={form.handleSubmit((v) => submit(v, false))}
+            >
+              Save as draft
+            </Button>
+          </>
+        )}
         <Button variant="quiet" onClick={onClose} disabled={pending !== null}>
           Cancel
         </Button>

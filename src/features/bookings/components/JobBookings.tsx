@@ -107,7 +107,7 @@ function History({ booking }: { booking: BookingResponse }) {
   );
 }
 
-type Open = "answer" | "cancel" | "book-another" | null;
+type Open = "answer" | "cancel" | "book-another" | "edit" | null;
 
 function BookingItem({
   jobId,
@@ -222,6 +222,16 @@ function BookingItem({
             Send
           </Button>
         ) : null}
+        {b.state === "draft" ? (
+          <Button
+            size="sm"
+            variant="secondary"
+            aria-expanded={open === "edit"}
+            onClick={() => setOpen(open === "edit" ? null : "edit")}
+          >
+            Change<span className="sr-only"> the draft for {b.taskName}</span>
+          </Button>
+        ) : null}
         {b.state === "date-proposed" && b.proposedStart ? (
           <>
             <Button
@@ -327,6 +337,20 @@ function BookingItem({
           booking={b}
           onCancel={() => setOpen(null)}
           onDone={done(`The booking of ${b.tradeBusinessName} is cancelled.`)}
+        />
+      ) : null}
+      {open === "edit" ? (
+        <BookTradePanel
+          jobId={jobId}
+          taskId={b.taskId}
+          caution={task?.caution}
+          editing={b}
+          onClose={() => setOpen(null)}
+          onBooked={(nb) =>
+            done(
+              `The draft is changed: ${nb.tradeBusinessName} for ${visitWords(nb)}.`,
+            )()
+          }
         />
       ) : null}
       {open === "book-another" ? (

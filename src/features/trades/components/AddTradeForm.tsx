@@ -1,7 +1,11 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { Controller, useForm } from "react-hook-form";
 import type { z } from "zod";
-import { tradeBodySchema, tradeKinds } from "../../../../shared/schemas";
+import {
+  tradeBodySchema,
+  tradeKinds,
+  type TradeResponse,
+} from "../../../../shared/schemas";
 import {
   Button,
   FormError,
@@ -12,6 +16,7 @@ import {
 import { applyServerErrors } from "../../../lib/form-errors";
 import { partyLabels } from "../../../lib/labels";
 import { useCreateTrade } from "../api/create-trade";
+import { useUpdateTrade } from "../api/update-trade";
 
 type Input = z.input<typeof tradeBodySchema>;
 type Output = z.output<typeof tradeBodySchema>;
@@ -27,49 +32,68 @@ const FIELDS = [
   "dayEnd",
 ];
 
+/** Add a trade, or edit one (`trade`): the same schema and fields either way. */
 export function AddTradeForm({
   workshopId,
+  trade,
   onAdded,
   onCancel,
 }: {
   workshopId: string;
+  /** The trade to edit; the form starts from its details and saves them with PATCH. */
+  trade?: TradeResponse;
   onAdded: () => void;
   onCancel: () => void;
 }) {
-  const create = useCreateTrade(workshopId);
+  const created = useCreateTrade(workshopId);
+  const updated = useUpdateTrade();
+  const create = trade ? updated : created;
   const form = useForm<Input, unknown, Output>({
     resolver: zodResolver(tradeBodySchema),
-    defaultValues: {
-      businessName: "",
-      kind: "plasterer",
-      contactName: "",
-      email: "",
-      phone: "",
-      workingWeekdays: [1, 2, 3, 4, 5],
-      dayStart: "08:00",
-      dayEnd: "16:30",
-      daysOff: [],
-    },
+    defaultValues: trade
+      ? {
+          businessName: trade.businessName,
+          kind: trade.kind,
+          contactName: trade.contactName,
+          email: trade.email,
+          phone: trade.phone,
+          workingWeekdays: trade.workingWeekdays,
+          dayStart: trade.dayStart,
+          dayEnd: trade.dayEnd,
+          daysOff: trade.daysOff,
+        }
+      : {
+          businessName: "",
+          kind: "plasterer",
+          contactName: "",
+          email: "",
+          phone: "",
+          workingWeekdays: [1, 2, 3, 4, 5],
+          dayStart: "08:00",
+          dayEnd: "16:30",
+          daysOff: [],
+        },
   });
   const { errors } = form.formState;
   const formError = create.isError
     ? applyServerErrors(create.error, form.setError, FIELDS)
     : null;
 
+  const onSuccess = () => {
+    form.reset();
+    onAdded();
+  };
   const onSubmit = form.handleSubmit((body) =>
-    create.mutate(body, {
-      onSuccess: () => {
-        form.reset();
-        onAdded();
-      },
-    }),
+    trade
+      ? updated.mutate({ tradeId: trade.id, body }, { onSuccess })
+      : created.mutate(body, { onSuccess }),
   );
 
   return (
     <form
       onSubmit={onSubmit}
       noValidate
-      aria-label="Add a trade"
+      aria-label={trade ? `Edit ${trade.businessName}` : "Add a trade"}
       className="grid gap-4 md:grid-cols-2"
     >
       <FormError className="md:col-span-2" message={formError} />
@@ -146,7 +170,7 @@ export function AddTradeForm({
       </div>
       <div className="flex flex-wrap gap-2 md:col-span-2">
         <Button type="submit" busy={create.isPending}>
-          Add trade
+          {trade ? "Save changes" : "Add trade"}
         </Button>
         <Button variant="secondary" onClick={onCancel}>
           Cancel
