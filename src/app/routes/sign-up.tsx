@@ -1,4 +1,5 @@
-import { Navigate, useNavigate } from "react-router-dom";
+import { useState } from "react";
+import { Navigate } from "react-router-dom";
 import { useSession } from "../../features/auth/api/get-session";
 import { SignUpForm } from "../../features/auth/components/SignUpForm";
 import {
@@ -11,8 +12,11 @@ import {
 /** "Create your workshop", reached from the sign-in page. */
 export function SignUpRoute() {
   const session = useSession();
-  const navigate = useNavigate();
-  if (session.data?.user) return <Navigate to="/" replace />;
+  // One redirect for both cases, so the signed-in guard cannot race the form's own navigation
+  // (it did: the new owner landed on the home instead of the set-up).
+  const [signedUp, setSignedUp] = useState(false);
+  if (session.data?.user)
+    return <Navigate to={signedUp ? "/setup" : "/"} replace />;
   return (
     <>
       <PageHeader
@@ -30,9 +34,7 @@ export function SignUpRoute() {
           />
         ) : (
           // The set-up step comes next (it can be skipped and returned to).
-          <SignUpForm
-            onSignedUp={() => navigate("/setup", { replace: true })}
-          />
+          <SignUpForm onSignedUp={() => setSignedUp(true)} />
         )}
       </Card>
     </>
