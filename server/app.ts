@@ -1,7 +1,7 @@
 import crypto from "node:crypto";
 import express, { type Express } from "express";
 import session from "express-session";
-import MySQLStoreFactory from "express-mysql-session";
+import compression from "compression";
 import helmet from "helmet";
 import { Passport } from "passport";
 import { Strategy as LocalStrategy } from "passport-local";
@@ -11,6 +11,8 @@ import cookieParser from "cookie-parser";
 import { DatabaseWatch } from "./db/database-watch";
 import { csrfProtection } from "./http/csrf";
 import { createLimitStore } from "./http/rate-limit";
+import { SESSION_MAX_AGE_MS, createSessionStore } from "./http/session-store";
+import { queryTally } from "./db/query-tally";
 import { errorHandler, notFoundRoute } from "./http/errors";
 import { openApiDocument } from "./http/openapi";
 import { ApiRoutes } from "./http/routes";
@@ -150,18 +152,8 @@ export function createApp(deps: AppDeps): SitecueApp {
     }),
   );
 
-  const MySQLStore = MySQLStoreFactory(session as never);
-  const store = new MySQLStore({
-    host: deps.db.host,
-    port: deps.db.port,
-    user: deps.db.user,
-    password: deps.db.password,
-    database: deps.db.database,
-    createDatabaseTable: false, // made by the migration
-    clearExpired: true,
-    checkExpirationInterval: 15 * 60 * 1000,
-    expiration: 14 * 24 * 3600 * 1000,
-  });
+  // The sessions table; its expiry moves at most once a minute per session (session-store.ts).
+  const store = createSessionStore(deps.db);
 
   // One Passport per app (not the module singleton), so two apps in one process never share strategies.
   const passport = new Passport();
@@ -264,8 +256,14 @@ export function createApp(deps: AppDeps): SitecueApp {
     handler: async () => openApiDocument(api.specs, version),
   });
 
+  // gzip for the built client and the API's JSON (and the feeds' iCalendar text): the phone's
+  // first load is mostly JavaScript, which compresses to about a quarter (issue 15).
+  app.use(compression());
   app.use(
     "/api",
+    // Counts each request's SQL statements into its Server-Timing header; before the session, so
+    // the session store's reads and writes count too.
+    queryTally,
     // API answers are per person and change all the time: never stored by a browser or proxy
     // (RFC 9111 §5.2.2.5). Routes that allow caching set their own (downloads, feeds).
     noStore,
@@ -283,7 +281,7 @@ export function createApp(deps: AppDeps): SitecueApp {
         httpOnly: true,
         sameSite: "lax",
         secure: deps.production,
-        maxAge: 14 * 24 * 3600 * 1000,
+        maxAge: SESSION_MAX_AGE_MS,
       },
     }),
     passport.initialize(),

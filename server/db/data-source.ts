@@ -1,6 +1,7 @@
 import "reflect-metadata";
 import { AdvancedConsoleLogger, DataSource, type QueryRunner } from "typeorm";
 import { isDatabaseUnreachable } from "./database-watch";
+import { countStatement } from "./query-tally";
 import { entities } from "./entities";
 import { migrations } from "./migrations";
 
@@ -14,9 +15,19 @@ export interface DbSettings {
 
 /**
  * TypeORM's console logger, except for queries that failed because the database is unreachable:
- * those reach the caller, which hands them to the DatabaseWatch (one line per outage).
+ * those reach the caller, which hands them to the DatabaseWatch (one line per outage). Every
+ * statement is counted for the request that sent it (server/db/query-tally.ts).
  */
 class OutageQuietLogger extends AdvancedConsoleLogger {
+  override logQuery(
+    query: string,
+    parameters?: unknown[],
+    queryRunner?: QueryRunner,
+  ): void {
+    countStatement();
+    super.logQuery(query, parameters, queryRunner);
+  }
+
   override logQueryError(
     error: string,
     query: string,

@@ -42,19 +42,95 @@ export async function loadProgramme(
   workshop: Workshop,
   now = new Date(),
 ): Promise<ProgrammeData> {
+  return (await loadProgrammes(m, [job], [workshop], now)).get(job.id)!;
+}
+
+/**
+ * `loadProgramme` for many jobs at once, in a fixed number of statements however many jobs there
+ * are (at most eight: tasks, links, bookings, trades, the trades' bookings, and the people behind
+ * the trades with their bookings for other workshops). The attention list, feeds and timeline use
+ * this; a per-job loop of `loadProgramme` costs eight statements a job (issue 15).
+ */
+export async function loadProgrammes(
+  m: EntityManager,
+  jobs: readonly Job[],
+  workshops: readonly Workshop[],
+  now = new Date(),
+): Promise<Map<string, ProgrammeData>> {
+  const out = new Map<string, ProgrammeData>();
+  if (!jobs.length) return out;
+  const jobIds = jobs.map((j) => j.id);
+  const workshopById = new Map(workshops.map((w) => [w.id, w]));
   const [tasks, links, bookings] = await Promise.all([
-    m.find(Task, { where: { jobId: job.id }, order: { sortOrder: "ASC" } }),
-    m.find(TaskLink, { where: { jobId: job.id } }),
+    m.find(Task, {
+      where: { jobId: In(jobIds) },
+      order: { sortOrder: "ASC" },
+    }),
+    m.find(TaskLink, { where: { jobId: In(jobIds) } }),
     m.find(Booking, {
-      where: { jobId: job.id, state: In([...PINNING_STATES]) },
+      where: { jobId: In(jobIds), state: In([...PINNING_STATES]) },
       order: { updatedAt: "ASC" },
     }),
   ]);
-  const bookingByTask = new Map(bookings.map((b) => [b.taskId, b]));
   const tradeIds = [...new Set(bookings.map((b) => b.tradeId))];
   const tradeList = tradeIds.length
     ? await m.findBy(Trade, { id: In(tradeIds) })
     : [];
+  const busyOf = await busyByTrade(m, tradeList);
+
+  const tasksOf = groupBy(tasks, (t) => t.jobId);
+  const linksOf = groupBy(links, (l) => l.jobId);
+  const bookingsOf = groupBy(bookings, (b) => b.jobId);
+  const tradeById = new Map(tradeList.map((t) => [t.id, t]));
+  for (const job of jobs) {
+    const workshop = workshopById.get(job.workshopId);
+    if (!workshop)
+      throw new Error(`loadProgrammes: workshop of job ${job.id} not given`);
+    const jobBookings = bookingsOf.get(job.id) ?? [];
+    const jobTradeIds = [...new Set(jobBookings.map((b) => b.tradeId))];
+    const jobTrades = jobTradeIds
+      .map((id) => tradeById.get(id))
+      .filter((t): t is Trade => t !== undefined);
+    out.set(
+      job.id,
+      programmeData(
+        job,
+        workshop,
+        tasksOf.get(job.id) ?? [],
+        linksOf.get(job.id) ?? [],
+        jobBookings,
+        jobTrades,
+        busyOf,
+        now,
+      ),
+    );
+  }
+  return out;
+}
+
+function groupBy<T>(items: readonly T[], key: (t: T) => string): Map<string, T[]> {
+  const map = new Map<string, T[]>();
+  for (const item of items) {
+    const k = key(item);
+    const list = map.get(k);
+    if (list) list.push(item);
+    else map.set(k, [item]);
+  }
+  return map;
+}
+
+/** One job's data and engine input, from rows already loaded (no statements). */
+function programmeData(
+  job: Job,
+  workshop: Workshop,
+  tasks: Task[],
+  links: TaskLink[],
+  bookings: Booking[],
+  tradeList: Trade[],
+  busyOf: Map<string, TradeBusyRow[]>,
+  now: Date,
+): ProgrammeData {
+  const bookingByTask = new Map(bookings.map((b) => [b.taskId, b]));
   const trades = new Map(tradeList.map((t) => [t.id, t]));
   // Resource ids double as the name in clash messages ("Ashby Plaster & Coving is already booked …").
   const resourceOf = new Map<string, string>();
@@ -115,8 +191,17 @@ export async function loadProgramme(
   });
 
   const busy: BusyInput[] = [];
-  for (const t of tradeList)
-    busy.push(...(await tradeBusy(m, t, job.id, resourceOf.get(t.id)!)));
+  for (const t of tradeList) {
+    const resource = resourceOf.get(t.id)!;
+    for (const row of busyOf.get(t.id) ?? [])
+      if (row.jobId !== job.id)
+        busy.push({
+          resource,
+          start: row.start,
+          finish: row.finish,
+          ref: row.ref,
+        });
+  }
 
   const input: ProgrammeInput = {
     timeZone: job.timeZone,
@@ -134,6 +219,85 @@ export async function loadProgramme(
     busy,
   };
   return { tasks, links, bookingByTask, trades, input };
+}
+
+/** A trade's dates held elsewhere: `jobId` is null for another workshop's booking. */
+interface TradeBusyRow {
+  jobId: string | null;
+  start: string;
+  finish: string;
+  ref: string;
+}
+
+/**
+ * Each trade's pinning bookings, in four statements for any number of trades: its own on this
+ * workshop's jobs (named by job; a caller drops the job it is planning), and — when the person who
+ * speaks for the trade also works for other workshops — their bookings there, shown only as "busy
+ * for another workshop" (another workshop's job, customer and address stay theirs).
+ */
+async function busyByTrade(
+  m: EntityManager,
+  trades: readonly Trade[],
+): Promise<Map<string, TradeBusyRow[]>> {
+  const out = new Map<string, TradeBusyRow[]>(trades.map((t) => [t.id, []]));
+  if (!trades.length) return out;
+  const tradeIds = trades.map((t) => t.id);
+  const [own, people] = await Promise.all([
+    m.find(Booking, {
+      where: { tradeId: In(tradeIds), state: In([...PINNING_STATES]) },
+      relations: { job: true },
+    }),
+    m.find(TradeMember, {
+      where: { tradeId: In(tradeIds) },
+      select: { userId: true, tradeId: true },
+    }),
+  ]);
+  for (const b of own)
+    out.get(b.tradeId)!.push({
+      jobId: b.jobId,
+      start: b.start,
+      finish: b.finish,
+      ref: b.job?.title ?? "another job",
+    });
+  if (!people.length) return out;
+  const links = await m.find(TradeMember, {
+    where: { userId: In([...new Set(people.map((p) => p.userId))]) },
+    select: { userId: true, tradeId: true, workshopId: true },
+  });
+  // Trades of other workshops already in `own` (a batch across workshops) are not read twice.
+  const elsewhereIds = [...new Set(links.map((l) => l.tradeId))].filter(
+    (id) => !out.has(id),
+  );
+  const theirs = elsewhereIds.length
+    ? await m.find(Booking, {
+        where: { tradeId: In(elsewhereIds), state: In([...PINNING_STATES]) },
+      })
+    : [];
+  const workshopOfTrade = new Map(trades.map((t) => [t.id, t.workshopId]));
+  const byTradeElsewhere = groupBy([...own, ...theirs], (b) => b.tradeId);
+  const usersOf = groupBy(people, (p) => p.tradeId);
+  for (const t of trades) {
+    const mine = new Set((usersOf.get(t.id) ?? []).map((p) => p.userId));
+    const others = new Set(
+      links
+        .filter(
+          (l) =>
+            mine.has(l.userId) &&
+            l.workshopId !== workshopOfTrade.get(t.id) &&
+            l.tradeId !== t.id,
+        )
+        .map((l) => l.tradeId),
+    );
+    for (const id of others)
+      for (const b of byTradeElsewhere.get(id) ?? [])
+        out.get(t.id)!.push({
+          jobId: null,
+          start: b.start,
+          finish: b.finish,
+          ref: "busy for another workshop",
+        });
+  }
+  return out;
 }
 
 /**
