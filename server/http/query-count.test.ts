@@ -89,7 +89,8 @@ const probes: Probe[] = [
   {
     name: "trade calendar range",
     as: "trade",
-    path: () => `/api/calendar?scope=me&from=${today}&to=${plusDays(today, 42)}`,
+    path: () =>
+      `/api/calendar?scope=me&from=${today}&to=${plusDays(today, 42)}`,
   },
   {
     name: "customer's timeline",

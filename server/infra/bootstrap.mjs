@@ -16,8 +16,8 @@ const root = path.resolve(
 );
 const mode = process.argv[2];
 const extraArgs = process.argv.slice(3);
-if (mode !== "start" && mode !== "test") {
-  console.error("Usage: node server/infra/bootstrap.mjs start|test");
+if (mode !== "start" && mode !== "test" && mode !== "bench") {
+  console.error("Usage: node server/infra/bootstrap.mjs start|test|bench");
   process.exit(2);
 }
 const production = process.env.NODE_ENV === "production";
@@ -281,7 +281,7 @@ async function main() {
     mode === "start"
       ? path.join(root, ".data", production ? "prod" : "dev")
       : path.join(root, ".data", "test", `run-${process.pid}`);
-  if (mode === "test") {
+  if (mode !== "start") {
     removeStaleTestRuns();
     testDir = dir;
   }
@@ -370,6 +370,27 @@ async function main() {
       "GRANT ALL PRIVILEGES ON `sitecue\\_t\\_%`.* TO 'sitecue_test'@'127.0.0.1';",
     ].join(" "),
   );
+  if (mode === "bench") {
+    // The API bench (npm run bench:api): its own grown database on this MariaDB, no client.
+    Object.assign(env, {
+      NODE_ENV: "test",
+      DB_ADMIN_USER: "sitecue_test",
+      DB_ADMIN_PASSWORD: adminPassword,
+      SESSION_SECRET: randomBytes(32).toString("base64url"),
+    });
+    const bench = spawn(
+      process.execPath,
+      ["--import", "tsx", "tests/bench/api-bench.ts", ...extraArgs],
+      { cwd: root, env, stdio: "inherit", detached: true },
+    );
+    app = bench;
+    process.exitCode = await new Promise((r) =>
+      bench.once("exit", (c, s) => r(c ?? (s ? 1 : 0))),
+    );
+    app = null;
+    await stopAll();
+    return;
+  }
   // Each run builds into its own folder, so a run never serves another run's half-built client.
   const clientDir = path.join(dir, "client");
   say("Building the client for the browser tests (vite build)");

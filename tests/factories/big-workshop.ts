@@ -184,3 +184,57 @@ export async function growDemoWorkshop(
       );
   });
 }
+
+/** Title of the long-programme job `addLongProgrammeJob` adds. */
+export const LONG_JOB_TITLE = "Whole-house joinery, Example Lodge";
+
+/**
+ * One more open job on the demo workshop with a programme of `tasks` tasks (the bench's
+ * "programme of 40 tasks"): runs of workshop and trade tasks, each waiting for the one before,
+ * with a start-to-start link across every fifth pair so the network is not a single chain.
+ */
+export async function addLongProgrammeJob(
+  ds: DataSource,
+  tasks: number,
+): Promise<string> {
+  const parties = [
+    "workshop",
+    "electrician",
+    "workshop",
+    "plasterer",
+    "decorator",
+  ] as const;
+  return ds.transaction(async (m) => {
+    const workshop = await m.findOneByOrFail(Workshop, {
+      name: DEMO_WORKSHOP_NAME,
+    });
+    const customer = await buildCustomer(m, workshop, {
+      name: "Customer of Example Lodge",
+      email: "lodge@example.test",
+    });
+    const job = await buildJob(m, workshop, customer, {
+      title: LONG_JOB_TITLE,
+      siteAddress: "Example Lodge, Wetherfold",
+      postcode: "QX7 2LL",
+      area: "Wetherfold",
+      status: "planned",
+      handoverDate: null,
+    });
+    const made = [];
+    for (let i = 0; i < tasks; i++) {
+      const party = parties[i % parties.length];
+      made.push(
+        await buildTask(m, job, {
+          name: `Stage ${i + 1}`,
+          party,
+          durationDays:
+            party === "workshop" ? 1 + (i % 3) : 0.5 + (i % 2) * 0.5,
+        }),
+      );
+      if (i > 0) await buildLink(m, made[i - 1], made[i]);
+      if (i >= 2 && i % 5 === 0)
+        await buildLink(m, made[i - 2], made[i], { kind: "SS", lag: 1 });
+    }
+    return job.id;
+  });
+}

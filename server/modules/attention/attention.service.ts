@@ -21,7 +21,7 @@ import { Job } from "../jobs/jobs.entity";
 import { localToday } from "../jobs/jobs.presenter";
 import { localNow } from "../visits/visits.service";
 import { failedMailOf, shortReason } from "../outbox/outbox.service";
-import { loadProgramme } from "../programme/programme-input";
+import { loadProgrammes } from "../programme/programme-input";
 import { Trade } from "../trades/trades.entity";
 import { unreadSummary } from "../thread/thread.service";
 import { listAwayClashes } from "../timeline/timeline.service";
@@ -223,20 +223,20 @@ export async function attentionFor(
   ]);
   const awayByBooking = new Map(awayClashes.map((a) => [a.bookingId, a]));
   const tradeById = new Map(trades.map((t) => [t.id, t]));
-  // Each job's programme, as the programme screen computes it (same input builder, same engine).
-  const programmes = await Promise.all(
-    jobs.map(async (job) => {
-      const data = await loadProgramme(m, job, workshop, now);
-      let result: ProgrammeResult | null = null;
-      try {
-        result = scheduleProgramme(data.input);
-      } catch (err) {
-        // A programme the engine refuses is refused at save; if one slips through, its bookings still count.
-        if (!(err instanceof ProgrammeInputError)) throw err;
-      }
-      return { job, data, result };
-    }),
-  );
+  // Each job's programme, as the programme screen computes it (same input builder, same engine),
+  // loaded for all the jobs at once: a fixed number of statements however many jobs (issue 15).
+  const inputs = await loadProgrammes(m, jobs, [workshop], now);
+  const programmes = jobs.map((job) => {
+    const data = inputs.get(job.id)!;
+    let result: ProgrammeResult | null = null;
+    try {
+      result = scheduleProgramme(data.input);
+    } catch (err) {
+      // A programme the engine refuses is refused at save; if one slips through, its bookings still count.
+      if (!(err instanceof ProgrammeInputError)) throw err;
+    }
+    return { job, data, result };
+  });
 
   const ago = (d: Date, job: Job) =>
     agoText(d, now, job.timeZone, workshopCalendar);

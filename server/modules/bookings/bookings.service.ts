@@ -399,15 +399,31 @@ async function presentBooking(
   m: EntityManager,
   b: Booking,
 ): Promise<BookingResponse> {
-  const [task, trade, job, events] = await Promise.all([
-    m.findOneByOrFail(Task, { id: b.taskId }),
-    m.findOneByOrFail(Trade, { id: b.tradeId }),
-    m.findOneOrFail(Job, {
-      where: { id: b.jobId },
+  return (await presentBookings(m, [b]))[0];
+}
+
+/**
+ * Bookings as the API shows them, with their history, in a fixed number of statements however
+ * many there are (tasks, trades, jobs, events, then the people in the events): a list of bookings
+ * never costs a query per booking (issue 15).
+ */
+async function presentBookings(
+  m: EntityManager,
+  bookings: readonly Booking[],
+): Promise<BookingResponse[]> {
+  if (!bookings.length) return [];
+  const ids = (pick: (b: Booking) => string) => [
+    ...new Set(bookings.map(pick)),
+  ];
+  const [tasks, trades, jobs, events] = await Promise.all([
+    m.findBy(Task, { id: In(ids((b) => b.taskId)) }),
+    m.findBy(Trade, { id: In(ids((b) => b.tradeId)) }),
+    m.find(Job, {
+      where: { id: In(ids((b) => b.jobId)) },
       select: { id: true, timeZone: true },
     }),
     m.find(BookingEvent, {
-      where: { bookingId: b.id },
+      where: { bookingId: In(ids((b) => b.id)) },
       order: { createdAt: "ASC" },
     }),
   ]);
@@ -417,42 +433,60 @@ async function presentBooking(
     ),
   ];
   const users = userIds.length ? await m.findBy(User, { id: In(userIds) }) : [];
-  const who = (e: BookingEvent) =>
-    e.actorUserId
-      ? (users.find((u) => u.id === e.actorUserId)?.name ?? "Someone")
-      : e.channel === "system"
-        ? "Sitecue"
-        : trade.businessName;
-  return {
-    id: b.id,
-    jobId: b.jobId,
-    taskId: b.taskId,
-    taskName: task.name,
-    tradeId: b.tradeId,
-    tradeBusinessName: trade.businessName,
-    tradeKind: trade.kind,
-    state: b.state,
-    start: b.start,
-    finish: b.finish,
-    arrivalWindow: b.arrivalWindow,
-    arrivalFrom: b.arrivalFrom,
-    arrivalTo: b.arrivalTo,
-    proposedStart: b.proposedStart,
-    shareAddress: b.shareAddress,
-    overrideReason: b.overrideReason,
-    sequence: b.sequence,
-    sentAt: b.sentAt?.toISOString() ?? null,
-    answeredAt: b.answeredAt?.toISOString() ?? null,
-    visitOver: visitOver(b, job.timeZone),
-    history: events.map((e) => ({
-      at: e.createdAt.toISOString(),
-      fromState: e.fromState,
-      toState: e.toState,
-      channel: e.channel,
-      who: who(e),
-      note: e.note,
-    })),
-  };
+  const nameOf = new Map(users.map((u) => [u.id, u.name]));
+  const taskById = new Map(tasks.map((t) => [t.id, t]));
+  const tradeById = new Map(trades.map((t) => [t.id, t]));
+  const zoneOf = new Map(jobs.map((j) => [j.id, j.timeZone]));
+  const eventsOf = new Map<string, BookingEvent[]>();
+  for (const e of events) {
+    const list = eventsOf.get(e.bookingId) ?? [];
+    list.push(e);
+    eventsOf.set(e.bookingId, list);
+  }
+  return bookings.map((b) => {
+    const task = taskById.get(b.taskId);
+    const trade = tradeById.get(b.tradeId);
+    const timeZone = zoneOf.get(b.jobId);
+    // Foreign keys hold these rows; a miss is a broken database, not a request to answer.
+    if (!task || !trade || !timeZone)
+      throw new Error(`Booking ${b.id} lacks its task, trade or job`);
+    const who = (e: BookingEvent) =>
+      e.actorUserId
+        ? (nameOf.get(e.actorUserId) ?? "Someone")
+        : e.channel === "system"
+          ? "Sitecue"
+          : trade.businessName;
+    return {
+      id: b.id,
+      jobId: b.jobId,
+      taskId: b.taskId,
+      taskName: task.name,
+      tradeId: b.tradeId,
+      tradeBusinessName: trade.businessName,
+      tradeKind: trade.kind,
+      state: b.state,
+      start: b.start,
+      finish: b.finish,
+      arrivalWindow: b.arrivalWindow,
+      arrivalFrom: b.arrivalFrom,
+      arrivalTo: b.arrivalTo,
+      proposedStart: b.proposedStart,
+      shareAddress: b.shareAddress,
+      overrideReason: b.overrideReason,
+      sequence: b.sequence,
+      sentAt: b.sentAt?.toISOString() ?? null,
+      answeredAt: b.answeredAt?.toISOString() ?? null,
+      visitOver: visitOver(b, timeZone),
+      history: (eventsOf.get(b.id) ?? []).map((e) => ({
+        at: e.createdAt.toISOString(),
+        fromState: e.fromState,
+        toState: e.toState,
+        channel: e.channel,
+        who: who(e),
+        note: e.note,
+      })),
+    };
+  });
 }
 
 /** The job's bookings with their history (workshop). */
@@ -469,7 +503,7 @@ export async function listJobBookings(
     where: { jobId },
     order: { start: "ASC" },
   });
-  return Promise.all(bookings.map((b) => presentBooking(ds.manager, b)));
+  return presentBookings(ds.manager, bookings);
 }
 
 /** Bookings waiting too long for an answer, for the maker's list (each one click from a chase). */
@@ -489,7 +523,7 @@ export async function listUnanswered(
     },
     order: { sentAt: "ASC" },
   });
-  return Promise.all(rows.map((b) => presentBooking(deps.ds.manager, b)));
+  return presentBookings(deps.ds.manager, rows);
 }
 
 /** The trade for a task of a job, or 422 naming why not (another workshop's, the wrong kind). */

@@ -1,4 +1,4 @@
-import { In, type DataSource } from "typeorm";
+import { In, type DataSource, type EntityManager } from "typeorm";
 import type {
   DrawingResource,
   DrawingUploadResource,
@@ -6,7 +6,7 @@ import type {
 } from "../../policies";
 import type { DrawingKind, TradeKind } from "../../../shared/schemas";
 import { Booking } from "../bookings/bookings.entity";
-import { ACTIVE_STATES, jobResource } from "../jobs/job-access";
+import { ACTIVE_STATES, jobResources } from "../jobs/job-access";
 import type { Job } from "../jobs/jobs.entity";
 import { Trade } from "../trades/trades.entity";
 import type { Drawing } from "./drawings.entity";
@@ -21,15 +21,29 @@ export async function drawingJobAccess(
   ds: DataSource,
   job: Job,
 ): Promise<DrawingJobAccess> {
-  const resource = await jobResource(ds.manager, job);
-  const ids = [...resource.activeTradeIds];
-  const trades = ids.length
-    ? await ds.manager.findBy(Trade, { id: In(ids) })
-    : [];
-  return {
-    job: resource,
-    tradeKinds: new Map(trades.map((t) => [t.id, t.kind])),
-  };
+  return (await drawingJobAccesses(ds.manager, [job])).get(job.id)!;
+}
+
+/** `drawingJobAccess` for many jobs in two statements (the bookings, then their trades). */
+export async function drawingJobAccesses(
+  m: EntityManager,
+  jobs: readonly Job[],
+): Promise<Map<string, DrawingJobAccess>> {
+  const resources = await jobResources(m, jobs);
+  const ids = [
+    ...new Set([...resources.values()].flatMap((r) => [...r.activeTradeIds])),
+  ];
+  const trades = ids.length ? await m.findBy(Trade, { id: In(ids) }) : [];
+  const kinds = new Map(trades.map((t) => [t.id, t.kind]));
+  const out = new Map<string, DrawingJobAccess>();
+  for (const [jobId, job] of resources)
+    out.set(jobId, {
+      job,
+      tradeKinds: new Map(
+        [...job.activeTradeIds].map((id) => [id, kinds.get(id)!]),
+      ),
+    });
+  return out;
 }
 
 /** The policy's view of one drawing. */

@@ -32,6 +32,7 @@ import { User } from "../users/users.entity";
 import { Workshop } from "../workshops/workshops.entity";
 import {
   drawingJobAccess,
+  drawingJobAccesses,
   drawingResource,
   uploadResource,
   type DrawingJobAccess,
@@ -153,73 +154,117 @@ export async function listJobDrawings(
   const job = await loadJob(ds, jobId);
   const access = await drawingJobAccess(ds, job);
   authorize(actor, "drawings.list", access.job);
-  const viewer = viewerFor(actor, access);
-  const all = await ds.manager.find(Drawing, {
-    where: { jobId },
-    order: { updatedAt: "DESC" },
-  });
-  const visible = all.filter((d) =>
-    can(actor, "drawing.read", drawingResource(access, d)),
-  );
-  const ids = visible.map((d) => d.id);
-  const [revisions, links, tasks] = await Promise.all([
-    revisionRows(ds.manager, ids),
-    ids.length
-      ? ds.manager.findBy(DrawingTask, { drawingId: In(ids) })
-      : Promise.resolve([]),
-    ds.manager.find(Task, { where: { jobId }, order: { sortOrder: "ASC" } }),
-  ]);
-  const trades = viewer.staff
-    ? await tradesById(
-        ds.manager,
-        visible.flatMap((d) => d.shareTradeIds),
-      )
-    : new Map<string, Trade>();
+  return (await drawingsOfJobs(ds.manager, actor, [job])).get(job.id)!;
+}
 
-  let upload: JobDrawingsResponse["upload"] = null;
-  if (can(actor, "drawings.upload", access.job)) {
-    if (viewer.staff) {
-      upload = {
-        kinds: [...drawingKinds],
-        tasks: tasks.map((t) => ({ id: t.id, name: t.name })),
-        canShare: true,
-      };
-    } else {
-      const own = await ds.manager.find(Booking, {
-        where: {
-          jobId,
-          tradeId: In([...viewer.tradeIds]),
-          state: In(ACTIVE_STATES),
-        },
-        select: { taskId: true },
-      });
-      const ownIds = new Set(own.map((b) => b.taskId));
-      upload = {
-        kinds: [...tradeUploadKinds],
-        tasks: tasks
-          .filter((t) => ownIds.has(t.id))
-          .map((t) => ({ id: t.id, name: t.name })),
-        canShare: false,
-      };
-    }
-  }
-  const taskById = new Map(tasks.map((t) => [t.id, t]));
-  return {
-    jobId,
-    upload,
-    drawings: visible.map((d) =>
-      presentSummary(d, {
-        viewer,
-        revisions: revisions.get(d.id) ?? [],
-        tasks: links
-          .filter((l) => l.drawingId === d.id)
-          .map((l) => taskById.get(l.taskId))
-          .filter((t): t is Task => t !== undefined)
-          .sort((a, b) => a.sortOrder - b.sortOrder),
-        trades,
-      }),
+/**
+ * What `listJobDrawings` answers, for many jobs in a fixed number of statements (a trade's visits
+ * across many jobs: issue 15). A job the person may not list drawings of gets an empty answer;
+ * callers that must refuse (404/403) ask the policy first, as `listJobDrawings` does.
+ */
+export async function drawingsOfJobs(
+  m: EntityManager,
+  actor: Actor,
+  jobs: readonly Job[],
+): Promise<Map<string, JobDrawingsResponse>> {
+  const out = new Map<string, JobDrawingsResponse>();
+  if (!jobs.length) return out;
+  const jobIds = jobs.map((j) => j.id);
+  const accesses = await drawingJobAccesses(m, jobs);
+  const [all, tasks] = await Promise.all([
+    m.find(Drawing, {
+      where: { jobId: In(jobIds) },
+      order: { updatedAt: "DESC" },
+    }),
+    m.find(Task, { where: { jobId: In(jobIds) }, order: { sortOrder: "ASC" } }),
+  ]);
+  const visible = all.filter((d) => {
+    const access = accesses.get(d.jobId)!;
+    return (
+      can(actor, "drawings.list", access.job) &&
+      can(actor, "drawing.read", drawingResource(access, d))
+    );
+  });
+  const ids = visible.map((d) => d.id);
+  const viewers = new Map(
+    jobs.map((j) => [j.id, viewerFor(actor, accesses.get(j.id)!)]),
+  );
+  const staffJobs = new Set(
+    jobs.filter((j) => viewers.get(j.id)!.staff).map((j) => j.id),
+  );
+  const ownTradeIds = [
+    ...new Set([...viewers.values()].flatMap((v) => [...v.tradeIds])),
+  ];
+  const [revisions, links, trades, own] = await Promise.all([
+    revisionRows(m, ids),
+    ids.length
+      ? m.findBy(DrawingTask, { drawingId: In(ids) })
+      : Promise.resolve([]),
+    tradesById(
+      m,
+      visible
+        .filter((d) => staffJobs.has(d.jobId))
+        .flatMap((d) => d.shareTradeIds),
     ),
-  };
+    ownTradeIds.length
+      ? m.find(Booking, {
+          where: {
+            jobId: In(jobIds),
+            tradeId: In(ownTradeIds),
+            state: In(ACTIVE_STATES),
+          },
+          select: { jobId: true, taskId: true, tradeId: true },
+        })
+      : Promise.resolve([]),
+  ]);
+  const taskById = new Map(tasks.map((t) => [t.id, t]));
+  for (const job of jobs) {
+    const access = accesses.get(job.id)!;
+    const viewer = viewers.get(job.id)!;
+    const jobTasks = tasks.filter((t) => t.jobId === job.id);
+    let upload: JobDrawingsResponse["upload"] = null;
+    if (can(actor, "drawings.upload", access.job)) {
+      if (viewer.staff) {
+        upload = {
+          kinds: [...drawingKinds],
+          tasks: jobTasks.map((t) => ({ id: t.id, name: t.name })),
+          canShare: true,
+        };
+      } else {
+        const ownIds = new Set(
+          own
+            .filter((b) => b.jobId === job.id && viewer.tradeIds.has(b.tradeId))
+            .map((b) => b.taskId),
+        );
+        upload = {
+          kinds: [...tradeUploadKinds],
+          tasks: jobTasks
+            .filter((t) => ownIds.has(t.id))
+            .map((t) => ({ id: t.id, name: t.name })),
+          canShare: false,
+        };
+      }
+    }
+    out.set(job.id, {
+      jobId: job.id,
+      upload,
+      drawings: visible
+        .filter((d) => d.jobId === job.id)
+        .map((d) =>
+          presentSummary(d, {
+            viewer,
+            revisions: revisions.get(d.id) ?? [],
+            tasks: links
+              .filter((l) => l.drawingId === d.id)
+              .map((l) => taskById.get(l.taskId))
+              .filter((t): t is Task => t !== undefined)
+              .sort((a, b) => a.sortOrder - b.sortOrder),
+            trades: viewer.staff ? trades : new Map<string, Trade>(),
+          }),
+        ),
+    });
+  }
+  return out;
 }
 
 async function detail(

@@ -11,7 +11,7 @@ import { Booking } from "../bookings/bookings.entity";
 import { organizerAddress, whenWords } from "../bookings/booking-notices";
 import { bookingCalendar, type BookingEventInput } from "../bookings/ical";
 import { Job } from "../jobs/jobs.entity";
-import { PINNING_STATES, loadProgramme } from "../programme/programme-input";
+import { PINNING_STATES, loadProgrammes } from "../programme/programme-input";
 import { Task } from "../programme/programme.entity";
 import { schedule } from "../programme/programme.service";
 import { Trade } from "../trades/trades.entity";
@@ -194,11 +194,18 @@ export async function feedContent(
         later(b.updatedAt, task.updatedAt),
       );
     }
-    // The workshop's own tasks, on the dates the programme engine plans for them.
+    // The workshop's own tasks, on the dates the programme engine plans for them; every job's
+    // programme input loaded at once, in a fixed number of statements (issue 15).
+    const inputs = await loadProgrammes(
+      m,
+      openJobs.filter((j) => l.workshops.has(j.workshopId)),
+      [...l.workshops.values()],
+      now,
+    );
     for (const job of openJobs) {
       const ws = l.workshops.get(job.workshopId);
-      if (!ws) continue;
-      const data = await loadProgramme(m, job, ws, now);
+      const data = inputs.get(job.id);
+      if (!ws || !data) continue;
       const own = data.tasks.filter((t) => t.party === "workshop");
       if (own.length === 0) continue;
       let result;

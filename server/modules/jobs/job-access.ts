@@ -1,4 +1,4 @@
-import type { EntityManager } from "typeorm";
+import { In, type EntityManager } from "typeorm";
 import type { JobResource } from "../../policies";
 import type { BookingState } from "../../../shared/schemas";
 import { Booking } from "../bookings/bookings.entity";
@@ -21,20 +21,35 @@ export async function jobResource(
   m: EntityManager,
   job: Job,
 ): Promise<JobResource> {
-  const bookings = await m
-    .getRepository(Booking)
-    .find({ where: { jobId: job.id }, select: { tradeId: true, state: true } });
-  return {
-    kind: "job",
-    workshopId: job.workshopId,
-    customerId: job.customerId,
-    activeTradeIds: new Set(
-      bookings
-        .filter((b) => ACTIVE_STATES.includes(b.state))
-        .map((b) => b.tradeId),
-    ),
-    confirmedTradeIds: new Set(
-      bookings.filter((b) => b.state === "confirmed").map((b) => b.tradeId),
-    ),
-  };
+  return (await jobResources(m, [job])).get(job.id)!;
+}
+
+/** `jobResource` for many jobs in one statement (a list never asks per job: issue 15). */
+export async function jobResources(
+  m: EntityManager,
+  jobs: readonly Job[],
+): Promise<Map<string, JobResource>> {
+  const out = new Map<string, JobResource>();
+  if (!jobs.length) return out;
+  const bookings = await m.getRepository(Booking).find({
+    where: { jobId: In(jobs.map((j) => j.id)) },
+    select: { jobId: true, tradeId: true, state: true },
+  });
+  for (const job of jobs) {
+    const own = bookings.filter((b) => b.jobId === job.id);
+    out.set(job.id, {
+      kind: "job",
+      workshopId: job.workshopId,
+      customerId: job.customerId,
+      activeTradeIds: new Set(
+        own
+          .filter((b) => ACTIVE_STATES.includes(b.state))
+          .map((b) => b.tradeId),
+      ),
+      confirmedTradeIds: new Set(
+        own.filter((b) => b.state === "confirmed").map((b) => b.tradeId),
+      ),
+    });
+  }
+  return out;
 }

@@ -22,6 +22,7 @@ import {
   authorize,
   requireActor,
   type Actor,
+  type JobResource,
   type VisitResource,
 } from "../../policies";
 import { audit } from "../audit/audit.service";
@@ -36,13 +37,14 @@ import {
   type BookingDeps,
   type Loaded,
 } from "../bookings/bookings.service";
-import { listJobDrawings } from "../drawings/drawings.service";
-import { ACTIVE_STATES, jobResource } from "../jobs/job-access";
+import { drawingsOfJobs } from "../drawings/drawings.service";
+import { ACTIVE_STATES, jobResource, jobResources } from "../jobs/job-access";
 import { Job } from "../jobs/jobs.entity";
 import { localToday } from "../jobs/jobs.presenter";
 import { cautionFor } from "../programme/cautions";
 import {
   loadProgramme,
+  loadProgrammes,
   type ProgrammeData,
 } from "../programme/programme-input";
 import { Task } from "../programme/programme.entity";
@@ -75,27 +77,52 @@ interface JobContext {
 }
 
 async function jobContext(
-  ds: DataSource,
   m: EntityManager,
   actor: Actor,
   job: Job,
-  onJob: boolean,
 ): Promise<JobContext> {
-  const workshop = await m.findOneByOrFail(Workshop, { id: job.workshopId });
-  const data = await loadProgramme(m, job, workshop);
-  const result = schedule(data.input);
-  // The drawings module filters to what this person may see; a trade no longer on the job sees none.
-  const drawings = onJob
-    ? (await listJobDrawings(ds, actor, job.id)).drawings
-    : [];
-  return {
-    job,
-    workshop,
-    data,
-    result,
-    drawings,
-    today: localToday(job.timeZone),
-  };
+  return (await jobContexts(m, actor, [job])).get(job.id)!;
+}
+
+/**
+ * The contexts of many jobs in a fixed number of statements. The drawings come only where the
+ * person is on the job (a trade with a standing booking there); a trade no longer on it sees none.
+ */
+async function jobContexts(
+  m: EntityManager,
+  actor: Actor,
+  jobs: readonly Job[],
+  known?: Map<string, JobResource>,
+): Promise<Map<string, JobContext>> {
+  const out = new Map<string, JobContext>();
+  if (!jobs.length) return out;
+  const wsIds = [...new Set(jobs.map((j) => j.workshopId))];
+  const [workshops, resources] = await Promise.all([
+    m.findBy(Workshop, { id: In(wsIds) }),
+    known ?? jobResources(m, jobs),
+  ]);
+  const onJob = jobs.filter((job) =>
+    [...resources.get(job.id)!.activeTradeIds].some(
+      (id) => actor.trades.get(id) === job.workshopId,
+    ),
+  );
+  const [inputs, drawings] = await Promise.all([
+    loadProgrammes(m, jobs, workshops, new Date()),
+    drawingsOfJobs(m, actor, onJob),
+  ]);
+  const workshopById = new Map(workshops.map((w) => [w.id, w]));
+  for (const job of jobs) {
+    const data = inputs.get(job.id)!;
+    out.set(job.id, {
+      job,
+      workshop: workshopById.get(job.workshopId)!,
+      data,
+      result: schedule(data.input),
+      drawings: drawings.get(job.id)?.drawings ?? [],
+      today: localToday(job.timeZone),
+    });
+  }
+  return out;
 }
 
 function visitResource(
@@ -243,22 +270,19 @@ export async function myVisits(
     m,
     bookings.map((b) => b.id),
   );
-  const contexts = new Map<string, JobContext>();
+  // Every job, its policy view, workshop, programme and drawings loaded for all the visits at
+  // once: a fixed number of statements however many bookings (issue 15).
+  const jobIds = [...new Set(bookings.map((b) => b.jobId))];
+  const jobs = jobIds.length ? await m.findBy(Job, { id: In(jobIds) }) : [];
+  const resources = await jobResources(m, jobs);
+  for (const b of bookings)
+    // The policy decides per booking, as for any single visit.
+    authorize(actor, "visit.read", visitResource(b, resources.get(b.jobId)!));
+  const contexts = await jobContexts(m, actor, jobs, resources);
   const upcoming: Visit[] = [];
   const past: Visit[] = [];
   for (const b of bookings) {
-    // The policy decides per booking, as for any single visit.
-    const job = await m.findOneByOrFail(Job, { id: b.jobId });
-    const resource = await jobResource(m, job);
-    authorize(actor, "visit.read", visitResource(b, resource));
-    let ctx = contexts.get(job.id);
-    if (!ctx) {
-      const onJob = [...resource.activeTradeIds].some(
-        (id) => actor.trades.get(id) === job.workshopId,
-      );
-      ctx = await jobContext(ds, m, actor, job, onJob);
-      contexts.set(job.id, ctx);
-    }
+    const ctx = contexts.get(b.jobId)!;
     const v = presentVisit(ctx, b, trades.get(b.tradeId)!, late.get(b.id));
     const standing = (ACTIVE_STATES as string[]).includes(b.state);
     if (standing && dateOf(b.finish) >= ctx.today && v.progress !== "done")
@@ -298,11 +322,7 @@ async function oneVisit(
 ): Promise<Visit> {
   const m = ds.manager;
   const l = await loadVisit(m, actor, bookingId, "visit.read");
-  const resource = await jobResource(m, l.job);
-  const onJob = [...resource.activeTradeIds].some(
-    (id) => actor.trades.get(id) === l.job.workshopId,
-  );
-  const ctx = await jobContext(ds, m, actor, l.job, onJob);
+  const ctx = await jobContext(m, actor, l.job);
   const late = await lateEvents(m, [l.booking.id]);
   return presentVisit(ctx, l.booking, l.trade, late.get(l.booking.id));
 }
