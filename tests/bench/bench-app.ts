@@ -2,7 +2,9 @@
 // open jobs on the demo workshop (53 open in all), 5 on the second one sharing the plasterer, and a
 // job with a 40-task programme — on its own database, listening on a loopback port. It prints one
 // JSON line with its URL, then serves until its stdin ends.
+import fs from "node:fs";
 import http from "node:http";
+import inspector from "node:inspector";
 import type { AddressInfo } from "node:net";
 import { startTestApp } from "../setup/test-app";
 import {
@@ -22,7 +24,26 @@ server.keepAliveTimeout = 30_000;
 await new Promise<void>((r) => server.listen(0, "127.0.0.1", r));
 const { port } = server.address() as AddressInfo;
 
+// BENCH_PROFILE=<file>: a V8 CPU profile of the app while it serves, written when it stops.
+const profiler = process.env.BENCH_PROFILE ? new inspector.Session() : null;
+if (profiler) {
+  profiler.connect();
+  await post(profiler, "Profiler.enable");
+  await post(profiler, "Profiler.start");
+}
+function post(s: inspector.Session, method: string): Promise<unknown> {
+  return new Promise((resolve, reject) =>
+    s.post(method, (err, result) => (err ? reject(err) : resolve(result))),
+  );
+}
+
 async function shutDown() {
+  if (profiler) {
+    const { profile } = (await post(profiler, "Profiler.stop")) as {
+      profile: unknown;
+    };
+    fs.writeFileSync(process.env.BENCH_PROFILE!, JSON.stringify(profile));
+  }
   server.closeAllConnections();
   await new Promise<void>((r) => server.close(() => r()));
   await t.close();

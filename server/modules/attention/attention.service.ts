@@ -238,8 +238,19 @@ export async function attentionFor(
     return { job, data, result };
   });
 
-  const ago = (d: Date, job: Job) =>
-    agoText(d, now, job.timeZone, workshopCalendar);
+  // From a day on, the words depend only on the day a wait began: each day is counted once per list.
+  const agoMemo = new Map<string, string>();
+  const ago = (d: Date, job: Job) => {
+    if (now.getTime() - d.getTime() < 86_400_000)
+      return agoText(d, now, job.timeZone, workshopCalendar);
+    const key = `${localToday(job.timeZone, d)}|${job.timeZone}`;
+    let text = agoMemo.get(key);
+    if (text === undefined) {
+      text = agoText(d, now, job.timeZone, workshopCalendar);
+      agoMemo.set(key, text);
+    }
+    return text;
+  };
 
   for (const { job, data, result } of programmes) {
     const jobRef = { id: job.id, title: job.title, area: job.area };

@@ -53,7 +53,12 @@ const dateTimePattern = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}$/;
 const utcNames = new Set(["UTC", "Etc/UTC", "Etc/GMT", "GMT"]);
 
 let knownZones: Set<string> | null = null;
+/** Each zone's VTIMEZONE text, made once: the library rebuilds it on every call (issue 15, feeds). */
+const zoneBlocks = new Map<string, string>();
+
 function zoneBlock(tz: string): string {
+  const made = zoneBlocks.get(tz);
+  if (made) return made;
   knownZones ??= new Set(
     (() => {
       const list = tzlib_get_timezones();
@@ -64,6 +69,7 @@ function zoneBlock(tz: string): string {
   const block = knownZones.has(tz) ? tzlib_get_ical_block(tz) : "";
   const text = Array.isArray(block) ? block[0] : "";
   if (!text) throw new Error(`No time-zone definition (VTIMEZONE) for "${tz}"`);
+  zoneBlocks.set(tz, text);
   return text;
 }
 

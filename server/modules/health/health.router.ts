@@ -9,6 +9,20 @@ export function registerHealthRoutes(
   watch: DatabaseWatch,
   version: string,
 ): void {
+  // Checks that arrive while one is in flight share its answer: a monitor or load balancer polling
+  // hard gets one database round trip at a time, each answer no older than that trip (issue 15).
+  let inFlight: Promise<boolean> | null = null;
+  const check = () =>
+    (inFlight ??= ds
+      .query("SELECT 1")
+      .then(() => true)
+      .catch((err: unknown) => {
+        watch.markDown(err);
+        return false;
+      })
+      .finally(() => {
+        inFlight = null;
+      }));
   api.add({
     method: "get",
     path: "/health",
@@ -17,13 +31,7 @@ export function registerHealthRoutes(
       "Whether the app and its database answer (503 while the database is down)",
     response: healthResponseSchema,
     handler: async ({ res }) => {
-      const up = await ds
-        .query("SELECT 1")
-        .then(() => true)
-        .catch((err: unknown) => {
-          watch.markDown(err);
-          return false;
-        });
+      const up = await check();
       if (up) {
         watch.markUp();
         return { status: "ok", database: "up", version };

@@ -213,9 +213,27 @@ export function presentJobDetail(
   };
 }
 
+/**
+ * One formatter per time zone and pattern, made once: building an Intl.DateTimeFormat costs far
+ * more than formatting with one (it was an eighth of the home's CPU time at 53 jobs, issue 15).
+ */
+const formatters = new Map<string, Intl.DateTimeFormat>();
+export function zonedFormatter(
+  locale: string,
+  options: Intl.DateTimeFormatOptions & { timeZone: string },
+): Intl.DateTimeFormat {
+  const key = `${locale}|${JSON.stringify(options)}`;
+  let f = formatters.get(key);
+  if (!f) {
+    f = new Intl.DateTimeFormat(locale, options);
+    formatters.set(key, f);
+  }
+  return f;
+}
+
 /** Today's date in a time zone, as YYYY-MM-DD. */
 export function localToday(timeZone: string, now = new Date()): string {
-  return new Intl.DateTimeFormat("en-CA", {
+  return zonedFormatter("en-CA", {
     timeZone,
     year: "numeric",
     month: "2-digit",

@@ -1,3 +1,4 @@
+import { zonedFormatter } from "../jobs/jobs.presenter";
 import type { Request, Response } from "express";
 import { In, type DataSource, type EntityManager } from "typeorm";
 import type { z } from "zod";
@@ -488,7 +489,7 @@ export async function sendAttachment(
 }
 
 const noticeTime = (timeZone: string, at: Date) =>
-  new Intl.DateTimeFormat("en-GB", {
+  zonedFormatter("en-GB", {
     timeZone,
     weekday: "short",
     day: "numeric",

@@ -40,7 +40,7 @@ import {
 import { drawingsOfJobs } from "../drawings/drawings.service";
 import { ACTIVE_STATES, jobResource, jobResources } from "../jobs/job-access";
 import { Job } from "../jobs/jobs.entity";
-import { localToday } from "../jobs/jobs.presenter";
+import { localToday, zonedFormatter } from "../jobs/jobs.presenter";
 import { cautionFor } from "../programme/cautions";
 import {
   loadProgramme,
@@ -55,7 +55,7 @@ import { Workshop } from "../workshops/workshops.entity";
 
 /** The local date and time now in a time zone: ["2026-03-05", "14:05"]. */
 export function localNow(timeZone: string, now = new Date()): [string, string] {
-  const time = new Intl.DateTimeFormat("en-GB", {
+  const time = zonedFormatter("en-GB", {
     timeZone,
     hour: "2-digit",
     minute: "2-digit",
