@@ -354,13 +354,41 @@ export async function feedContent(
   }
 
   const calName = `Sitecue: ${name}`;
-  const body = out.events.length
-    ? bookingCalendar(out.events, {
+  return {
+    body: writtenFeed(calName, out.events),
+    lastModified: out.lastModified,
+  };
+}
+
+/**
+ * Written feeds by what went into them. Writing the iCalendar text is most of a feed's cost
+ * (ical-generator and luxon, about 200 ms for a 53-job workshop's 200 events), and calendar apps
+ * re-read an unchanged feed every hour: the same events give the same text, so it is written once.
+ * Keyed by a SHA-256 of the events themselves, so any change to any event writes it afresh.
+ */
+const written = new Map<string, string>();
+const WRITTEN_KEEP = 64;
+
+function writtenFeed(calName: string, events: BookingEventInput[]): string {
+  const key = createHash("sha256")
+    .update(JSON.stringify([calName, REFRESH_HOURS, events]))
+    .digest("base64");
+  const hit = written.get(key);
+  if (hit !== undefined) {
+    // Most recently used last, so the oldest is the first to go.
+    written.delete(key);
+    written.set(key, hit);
+    return hit;
+  }
+  const body = events.length
+    ? bookingCalendar(events, {
         name: calName,
         refreshIntervalHours: REFRESH_HOURS,
       })
     : emptyCalendar(calName);
-  return { body, lastModified: out.lastModified };
+  written.set(key, body);
+  if (written.size > WRITTEN_KEEP) written.delete(written.keys().next().value!);
+  return body;
 }
 
 /**
