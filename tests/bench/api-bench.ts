@@ -77,8 +77,10 @@ async function measure(
     throw new Error(
       `${name}: ${result.non2xx} non-2xx answers, ${result.errors} errors, ${result.timeouts} timeouts`,
     );
+  // A timed-out request counts at autocannon's timeout (10 s); no answer at all is infinite.
+  for (let i = 0; i < result.timeouts; i++) times.push(10_000);
+  if (!times.length) times.push(Infinity);
   times.sort((a, b) => a - b);
-  if (result.timeouts || !times.length) times.push(Infinity);
   return {
     name,
     p50: percentile(times, 0.5),
