@@ -34,7 +34,7 @@ import {
   sendStoredFile,
   type FilesDeps,
 } from "../files/files.service";
-import { ACTIVE_STATES, jobResource } from "../jobs/job-access";
+import { ACTIVE_STATES, jobResource, jobResources } from "../jobs/job-access";
 import { Job } from "../jobs/jobs.entity";
 import { TradeMember, Trade } from "../trades/trades.entity";
 import { User } from "../users/users.entity";
@@ -400,30 +400,14 @@ export async function unreadSummary(
   const jobs = new Map<string, Job>();
   for (const j of [...wsJobs, ...bookedJobs, ...ownJobs]) jobs.set(j.id, j);
   if (!jobs.size) return { total: 0, jobs: [] };
-  const bookings = await m.find(Booking, {
-    where: { jobId: In([...jobs.keys()]) },
-    select: { jobId: true, tradeId: true, state: true },
-  });
+  const resources = await jobResources(m, [...jobs.values()]);
   // Group the jobs by the audiences the policy gives this person there; one count query per group.
   const groups = new Map<
     string,
     { audiences: ThreadAudience[]; jobIds: string[] }
   >();
   for (const job of jobs.values()) {
-    const own = bookings.filter((b) => b.jobId === job.id);
-    const resource: JobResource = {
-      kind: "job",
-      workshopId: job.workshopId,
-      customerId: job.customerId,
-      activeTradeIds: new Set(
-        own
-          .filter((b) => ACTIVE_STATES.includes(b.state))
-          .map((b) => b.tradeId),
-      ),
-      confirmedTradeIds: new Set(
-        own.filter((b) => b.state === "confirmed").map((b) => b.tradeId),
-      ),
-    };
+    const resource = resources.get(job.id)!;
     const audiences = threadAudiencesFor(actor, resource);
     if (!audiences.length) continue;
     const key = audiences.join(",");
