@@ -7,6 +7,8 @@
 //   customer – their own job(s)
 // Visibility decides 404 versus 403: a record the person cannot see at all is "not found" (its
 // existence is not revealed); one they can see but may not change is "forbidden".
+import { tradeSeesAddress } from "../../shared/bookings/lifecycle";
+import type { BookingState } from "../../shared/schemas";
 import {
   threadAudiences,
   tradeUploadKinds,
@@ -39,8 +41,11 @@ export interface JobResource {
   customerId: string;
   /** Trades with a booking on this job that has been sent (not draft, declined or cancelled). */
   activeTradeIds: ReadonlySet<string>;
-  /** Trades with a confirmed booking on this job. */
-  confirmedTradeIds: ReadonlySet<string>;
+  /**
+   * Trades who see the job's full address: one of their bookings on it allows it by the booking
+   * lifecycle's one address rule (`tradeSeesAddress`: confirmed, or shared by the workshop).
+   */
+  addressTradeIds: ReadonlySet<string>;
 }
 
 export interface TradeResource {
@@ -294,7 +299,7 @@ export function can(actor: Actor, action: Action, resource: Resource): boolean {
       return (
         isMember(actor, ws) ||
         customerOfJob(actor, resource) ||
-        tradeOnJob(actor, resource, resource.confirmedTradeIds)
+        tradeOnJob(actor, resource, resource.addressTradeIds)
       );
     // Drawings: anyone who sees the job sees its list (filtered drawing by drawing); the workshop
     // and the trades on the job may upload (what and where: drawings.uploadTo); customers never.
@@ -376,6 +381,19 @@ export function authorize(
 }
 
 /** For routes any signed-in person may use (their own session, their own jobs list). */
+/**
+ * Whether what is shown or sent about booking `b` carries the job's full address: the lifecycle
+ * table's rule for the booking itself (confirmed, or shared by the workshop), or the trade is one
+ * who sees the job's address already (another booking of theirs on it allows it), so the visit,
+ * the job page, the link page, the e-mails and the feed never disagree (issue 16).
+ */
+export function bookingShowsAddress(
+  b: { tradeId: string; state: BookingState; shareAddress: boolean },
+  job: JobResource,
+): boolean {
+  return tradeSeesAddress(b) || job.addressTradeIds.has(b.tradeId);
+}
+
 export function requireActor(actor: Actor | null): asserts actor is Actor {
   if (!actor) throw unauthenticated();
 }

@@ -1,3 +1,4 @@
+import { stateIs } from "../../../shared/bookings/lifecycle";
 import { In, type DataSource } from "typeorm";
 import {
   ProgrammeInputError,
@@ -10,7 +11,6 @@ import {
   attentionKinds,
   type AttentionItem,
   type AttentionResponse,
-  type BookingState,
   openJobStatuses,
   type Party,
 } from "../../../shared/schemas";
@@ -34,15 +34,6 @@ export const BOOK_AHEAD_WORKING_DAYS = 5;
 
 /** A sent booking unanswered this long reads as a wait to chase (the bookings panel uses the same 48 h). */
 export const CHASE_AFTER_HOURS = 48;
-
-/** Bookings that hold the task: a new booking is not needed beside one of these. */
-const STANDING: BookingState[] = [
-  "draft",
-  "sent",
-  "confirmed",
-  "date-proposed",
-  "needs-reconfirming",
-];
 
 const kindNouns: Record<Party, string> = {
   workshop: "workshop",
@@ -268,7 +259,7 @@ export async function attentionFor(
     };
     const bookings = allBookings.filter((b) => b.jobId === job.id);
     const standingTasks = new Set(
-      bookings.filter((b) => STANDING.includes(b.state)).map((b) => b.taskId),
+      bookings.filter((b) => stateIs(b.state, "standing")).map((b) => b.taskId),
     );
     const declinedTasks = new Set<string>();
 

@@ -1,3 +1,6 @@
+import { stateIs } from "../../../shared/bookings/lifecycle";
+import { bookingShowsAddress } from "../../policies";
+import { jobResource } from "../jobs/job-access";
 import type { DataSource, EntityManager } from "typeorm";
 import type { z } from "zod";
 import { firstFreeStart, startWindow } from "../../../shared/programme";
@@ -145,7 +148,8 @@ export async function bookingPage(
       after = next.toISOString().slice(0, 10);
     }
   }
-  const showAddress = current && (b.state === "confirmed" || b.shareAddress);
+  const showAddress =
+    current && bookingShowsAddress(b, await jobResource(m, l.job));
   const cancelled = b.state === "cancelled";
   return {
     status: cancelled ? "cancelled" : current ? "current" : "dates-changed",
@@ -171,11 +175,7 @@ export async function bookingPage(
     handoverKept: window.keepsHandover,
     handoverDate: l.job.handoverDate,
     answeredAt: b.answeredAt?.toISOString() ?? null,
-    canAnswer:
-      current &&
-      ["sent", "needs-reconfirming", "date-proposed", "confirmed"].includes(
-        b.state,
-      ),
+    canAnswer: current && stateIs(b.state, "answerable"),
   };
 }
 

@@ -1,3 +1,4 @@
+import type { BookingMailKind } from "../../../shared/bookings/lifecycle";
 import type { EntityManager } from "typeorm";
 import { enqueueMail } from "../../infra/outbox/outbox";
 import { escapeHtml } from "../auth/auth.service";
@@ -126,13 +127,7 @@ export function bookingIcs(
   });
 }
 
-type Kind =
-  | "invitation"
-  | "updated"
-  | "chase"
-  | "cancel"
-  | "reminder"
-  | "proposal-rejected";
+type Kind = BookingMailKind;
 
 const subjects: Record<Kind, (c: NoticeContext, b: Booking) => string> = {
   invitation: (c) =>

@@ -1,3 +1,8 @@
+import {
+  actionAllowed,
+  stateIs,
+  statesWhere,
+} from "../../../shared/bookings/lifecycle";
 import { randomUUID } from "node:crypto";
 import { In, LessThan, type DataSource, type EntityManager } from "typeorm";
 import type { z } from "zod";
@@ -26,7 +31,12 @@ import {
   lockJobTrades,
 } from "../../db/locks";
 import { HttpError, notFound } from "../../http/errors";
-import { authorize, requireActor, type Actor } from "../../policies";
+import {
+  authorize,
+  bookingShowsAddress,
+  requireActor,
+  type Actor,
+} from "../../policies";
 import { audit } from "../audit/audit.service";
 import { Job } from "../jobs/jobs.entity";
 import { jobResource } from "../jobs/job-access";
@@ -236,7 +246,7 @@ async function noticeContext(
     trade: l.trade,
     waitsOn: await waitsOnWords(m, l),
     link,
-    showAddress: l.booking.state === "confirmed" || l.booking.shareAddress,
+    showAddress: bookingShowsAddress(l.booking, await jobResource(m, l.job)),
   };
 }
 
@@ -518,7 +528,7 @@ export async function listUnanswered(
   const rows = await deps.ds.manager.find(Booking, {
     where: {
       workshopId,
-      state: In(["sent", "needs-reconfirming"]),
+      state: In(statesWhere("chaseable")),
       sentAt: LessThan(before),
     },
     order: { sentAt: "ASC" },
@@ -901,13 +911,6 @@ export async function updateDraftBooking(
   );
 }
 
-const answerable: BookingState[] = [
-  "sent",
-  "needs-reconfirming",
-  "date-proposed",
-  "confirmed",
-];
-
 /**
  * Applies a trade's answer, however it came (link, phone, text, calendar app): one path, so each
  * counts the same. Returns the new state.
@@ -925,7 +928,7 @@ export async function applyAnswer(
   actorUserId: string | null,
 ): Promise<BookingState> {
   const b = l.booking;
-  if (!answerable.includes(b.state))
+  if (!stateIs(b.state, "answerable"))
     throw new HttpError(
       409,
       "conflict",
@@ -1193,7 +1196,7 @@ export async function chaseBooking(
 ): Promise<BookingResponse> {
   return changeBooking(deps, actor, bookingId, async (m, l) => {
     const b = l.booking;
-    if (!["sent", "needs-reconfirming"].includes(b.state))
+    if (!actionAllowed("chase", b.state))
       throw new HttpError(
         409,
         "conflict",

@@ -44,6 +44,12 @@ export interface BookingEventInput {
   end: string;
   /** A display alarm at 18:00 local the evening before the start. */
   alarmEveningBefore: boolean;
+  /**
+   * STATUS (RFC 5545 §3.8.1.11) for a PUBLISH feed's event: the booking lifecycle's status for its
+   * state, so a visit the trade has not confirmed reads TENTATIVE. Omitted: CONFIRMED (CANCELLED
+   * for a CANCEL).
+   */
+  status?: "TENTATIVE" | "CONFIRMED" | "CANCELLED";
 }
 
 const uuidPattern =
@@ -246,7 +252,9 @@ export function bookingCalendar(
       status:
         e.method === "CANCEL"
           ? ICalEventStatus.CANCELLED
-          : ICalEventStatus.CONFIRMED,
+          : e.status
+            ? ICalEventStatus[e.status]
+            : ICalEventStatus.CONFIRMED,
       organizer: {
         name: paramText(e.organizer.name),
         email: e.organizer.email,

@@ -40,16 +40,14 @@ export async function createCustomer(
   body: z.output<typeof customerBodySchema>,
 ): Promise<CustomerResponse> {
   authorize(actor, "customers.create", { kind: "workshop", workshopId });
-  const customer = ds
-    .getRepository(Customer)
-    .create({
-      id: newId(),
-      workshopId,
-      name: body.name,
-      email: body.email,
-      phone: body.phone ?? null,
-      userId: null,
-    });
+  const customer = ds.getRepository(Customer).create({
+    id: newId(),
+    workshopId,
+    name: body.name,
+    email: body.email,
+    phone: body.phone ?? null,
+    userId: null,
+  });
   await ds.transaction(async (m) => {
     await m.insert(Customer, customer);
     await audit(m, {

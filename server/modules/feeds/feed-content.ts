@@ -4,9 +4,11 @@ import { createHash } from "node:crypto";
 import ical, { ICalCalendarMethod } from "ical-generator";
 import { tzlib_get_ical_block } from "timezones-ical-library";
 import { In, Not, type EntityManager } from "typeorm";
-import type { TradeKind } from "../../../shared/schemas";
+import type { BookingState, TradeKind } from "../../../shared/schemas";
+import { bookingStateTraits } from "../../../shared/bookings/lifecycle";
 import { HttpError } from "../../http/errors";
-import type { Actor } from "../../policies";
+import { bookingShowsAddress, type Actor } from "../../policies";
+import { jobResources } from "../jobs/job-access";
 import { Booking } from "../bookings/bookings.entity";
 import { organizerAddress, whenWords } from "../bookings/booking-notices";
 import { bookingCalendar, type BookingEventInput } from "../bookings/ical";
@@ -79,6 +81,13 @@ function bookingTimes(
     end: b.finish,
   };
 }
+
+/**
+ * A booking's STATUS in a feed, from the lifecycle table: confirmed only once the trade confirmed;
+ * a draft (only in the workshop's own feed) is tentative too.
+ */
+const feedStatus = (state: BookingState) =>
+  bookingStateTraits[state].status ?? "TENTATIVE";
 
 const address = (job: Job) => `${job.siteAddress}, ${job.postcode}`;
 const later = (a: Date, b: Date) => (a > b ? a : b);
@@ -190,6 +199,7 @@ export async function feedContent(
           timeZone: job.timeZone,
           ...bookingTimes(b, trade),
           alarmEveningBefore: false,
+          status: feedStatus(b.state),
         },
         later(b.updatedAt, task.updatedAt),
       );
@@ -268,13 +278,15 @@ export async function feedContent(
       order: { start: "ASC" },
     });
     const l = await loadAround(m, bookings);
+    const resources = await jobResources(m, [...l.jobs.values()]);
     for (const b of bookings) {
       const job = l.jobs.get(b.jobId);
       const task = l.tasks.get(b.taskId);
       const trade = l.trades.get(b.tradeId);
       const ws = job && l.workshops.get(job.workshopId);
-      if (!job || !task || !trade || !ws) continue;
-      const showAddress = b.state === "confirmed" || b.shareAddress;
+      const resource = job && resources.get(job.id);
+      if (!job || !task || !trade || !ws || !resource) continue;
+      const showAddress = bookingShowsAddress(b, resource);
       add(
         {
           method: "PUBLISH",
@@ -300,6 +312,7 @@ export async function feedContent(
           timeZone: job.timeZone,
           ...bookingTimes(b, trade),
           alarmEveningBefore: false,
+          status: feedStatus(b.state),
         },
         b.updatedAt,
       );
@@ -347,6 +360,7 @@ export async function feedContent(
           timeZone: job.timeZone,
           ...bookingTimes(b, trade),
           alarmEveningBefore: false,
+          status: feedStatus(b.state),
         },
         later(b.updatedAt, task.updatedAt),
       );

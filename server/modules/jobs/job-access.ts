@@ -1,16 +1,15 @@
 import { In, type EntityManager } from "typeorm";
 import type { JobResource } from "../../policies";
 import type { BookingState } from "../../../shared/schemas";
+import {
+  statesWhere,
+  tradeSeesAddress,
+} from "../../../shared/bookings/lifecycle";
 import { Booking } from "../bookings/bookings.entity";
 import type { Job } from "./jobs.entity";
 
-/** Booking states in which the trade has been asked and the visit stands. */
-export const ACTIVE_STATES: BookingState[] = [
-  "sent",
-  "confirmed",
-  "date-proposed",
-  "needs-reconfirming",
-];
+/** Booking states in which the trade is on the job: those that hold their dates (the lifecycle table). */
+export const ACTIVE_STATES: BookingState[] = statesWhere("holdsDates");
 
 /**
  * The policy's view of a job: its workshop, customer and the trades booked on it. It reads through
@@ -33,7 +32,7 @@ export async function jobResources(
   if (!jobs.length) return out;
   const bookings = await m.getRepository(Booking).find({
     where: { jobId: In(jobs.map((j) => j.id)) },
-    select: { jobId: true, tradeId: true, state: true },
+    select: { jobId: true, tradeId: true, state: true, shareAddress: true },
   });
   for (const job of jobs) {
     const own = bookings.filter((b) => b.jobId === job.id);
@@ -46,8 +45,8 @@ export async function jobResources(
           .filter((b) => ACTIVE_STATES.includes(b.state))
           .map((b) => b.tradeId),
       ),
-      confirmedTradeIds: new Set(
-        own.filter((b) => b.state === "confirmed").map((b) => b.tradeId),
+      addressTradeIds: new Set(
+        own.filter((b) => tradeSeesAddress(b)).map((b) => b.tradeId),
       ),
     });
   }

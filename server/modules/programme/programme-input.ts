@@ -1,3 +1,4 @@
+import { statesWhere } from "../../../shared/bookings/lifecycle";
 import { In, Not, type EntityManager } from "typeorm";
 import type {
   BusyInput,
@@ -12,13 +13,8 @@ import { Trade, TradeMember } from "../trades/trades.entity";
 import type { Workshop } from "../workshops/workshops.entity";
 import { Task, TaskLink } from "./programme.entity";
 
-/** Booking states that hold the trade's dates: the engine treats them as pins. */
-export const PINNING_STATES = [
-  "sent",
-  "confirmed",
-  "date-proposed",
-  "needs-reconfirming",
-] as const;
+/** Booking states that hold the trade's dates: the engine treats them as pins (the lifecycle table). */
+export const PINNING_STATES = statesWhere("holdsDates");
 
 export interface ProgrammeData {
   tasks: Task[];
@@ -108,7 +104,10 @@ export async function loadProgrammes(
   return out;
 }
 
-function groupBy<T>(items: readonly T[], key: (t: T) => string): Map<string, T[]> {
+function groupBy<T>(
+  items: readonly T[],
+  key: (t: T) => string,
+): Map<string, T[]> {
   const map = new Map<string, T[]>();
   for (const item of items) {
     const k = key(item);

@@ -199,27 +199,23 @@ export async function tradeBusy(
   const inRange = (b: Booking) =>
     b.start.slice(0, 10) <= to && b.finish.slice(0, 10) >= from;
   const own = (
-    await ds
-      .getRepository(Booking)
-      .find({
-        where: { tradeId, state: holding },
-        relations: { job: true, task: true },
-      })
+    await ds.getRepository(Booking).find({
+      where: { tradeId, state: holding },
+      relations: { job: true, task: true },
+    })
   ).filter(inRange);
   const people = await ds
     .getRepository(TradeMember)
     .find({ where: { tradeId }, select: { userId: true } });
   const elsewhere = people.length
     ? (
-        await ds
-          .getRepository(TradeMember)
-          .find({
-            where: {
-              userId: In(people.map((p) => p.userId)),
-              workshopId: Not(trade.workshopId),
-            },
-            select: { tradeId: true },
-          })
+        await ds.getRepository(TradeMember).find({
+          where: {
+            userId: In(people.map((p) => p.userId)),
+            workshopId: Not(trade.workshopId),
+          },
+          select: { tradeId: true },
+        })
       ).map((l) => l.tradeId)
     : [];
   const theirs = elsewhere.length

@@ -1,3 +1,4 @@
+import { stateIs } from "../../../shared/bookings/lifecycle";
 import { In, Not, type DataSource, type EntityManager } from "typeorm";
 import type { z } from "zod";
 import {
@@ -24,6 +25,7 @@ import {
   type Actor,
   type JobResource,
   type VisitResource,
+  bookingShowsAddress,
 } from "../../policies";
 import { audit } from "../audit/audit.service";
 import { bookingPage } from "../bookings/booking-link.service";
@@ -69,6 +71,7 @@ const dateOf = (instant: string) => instant.slice(0, 10);
 /** One job's programme as the engine computes it, shared by all of the person's visits on it. */
 interface JobContext {
   job: Job;
+  resource: JobResource;
   workshop: Workshop;
   data: ProgrammeData;
   result: ProgrammeResult;
@@ -115,6 +118,7 @@ async function jobContexts(
     const data = inputs.get(job.id)!;
     out.set(job.id, {
       job,
+      resource: resources.get(job.id)!,
       workshop: workshopById.get(job.workshopId)!,
       data,
       result: schedule(data.input),
@@ -138,8 +142,6 @@ function visitResource(
   };
 }
 
-const answerable = ["sent", "needs-reconfirming", "date-proposed", "confirmed"];
-
 function presentVisit(
   ctx: JobContext,
   b: Booking,
@@ -161,7 +163,7 @@ function presentVisit(
     : task.actualStart
       ? "started"
       : "not-started";
-  const showAddress = confirmed || (active && b.shareAddress);
+  const showAddress = bookingShowsAddress(b, ctx.resource);
   const lateDetail = late?.detail.runningLate as
     { day: string; arrivalTime: string } | undefined;
   return {
@@ -213,7 +215,7 @@ function presentVisit(
         : null,
     can: {
       answer:
-        answerable.includes(b.state) &&
+        stateIs(b.state, "answerable") &&
         progress === "not-started" &&
         dateOf(b.finish) >= ctx.today,
       // Started on the day, or earlier once nothing holds it back.
