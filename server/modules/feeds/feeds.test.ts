@@ -124,8 +124,40 @@ describe("a trade's feed", () => {
     expect(prop(byUid(events, confirmed.icalUid), "location")).toBe(
       "14 Larkspur Terrace, Wetherfold, QX4 2LT",
     );
+    // One address rule (issue 16): they are confirmed for another task on this job, so they know
+    // the address already; the visit not yet confirmed carries it too (before, the job page showed
+    // it while this event said "Larkspur, Wetherfold").
     expect(prop(byUid(events, sent.icalUid), "location")).toBe(
-      "Larkspur, Wetherfold",
+      "14 Larkspur Terrace, Wetherfold, QX4 2LT",
+    );
+    // Unconfirmed and unshared, with no confirmed booking on the job: the area only.
+    await t.db.ds.manager.update(
+      Booking,
+      { id: confirmed.id },
+      { state: "needs-reconfirming" },
+    );
+    try {
+      const again = await fetchFeed(await feedPath(dev));
+      for (const b of [confirmed, sent])
+        expect(prop(byUid(again.events, b.icalUid), "location")).toBe(
+          "Larkspur, Wetherfold",
+        );
+      // Not confirmed: STATUS says so (RFC 5545 §3.8.1.11), from the lifecycle table.
+      expect(
+        byUid(again.events, confirmed.icalUid).getFirstPropertyValue("status"),
+      ).toBe("TENTATIVE");
+    } finally {
+      await t.db.ds.manager.update(
+        Booking,
+        { id: confirmed.id },
+        { state: "confirmed" },
+      );
+    }
+    expect(
+      byUid(events, confirmed.icalUid).getFirstPropertyValue("status"),
+    ).toBe("CONFIRMED");
+    expect(byUid(events, sent.icalUid).getFirstPropertyValue("status")).toBe(
+      "TENTATIVE",
     );
     expect(
       byUid(events, confirmed.icalUid).getFirstPropertyValue("sequence"),

@@ -272,7 +272,8 @@ describe("GET /me/visits", () => {
       jobTitle: demoJobTitles.alcoves,
       jobArea: "Larkspur, Wetherfold",
       state: "sent",
-      siteAddress: null,
+      // One address rule (issue 16): confirmed for the coving on this job, they know the address.
+      siteAddress: "14 Larkspur Terrace, Wetherfold, QX4 2LT",
       arrivalWindow: "morning",
       readiness: {
         state: "waiting",
