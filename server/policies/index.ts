@@ -143,7 +143,10 @@ export type Action =
   | "thread.audience.workshop"
   // The customer's timeline of visits and the dates they will be away.
   | "timeline.read"
-  | "awayDates.update";
+  | "awayDates.update"
+  // Calendars (issue 15): a workshop's or a job's (its owners and fitters), a trade's own.
+  | "calendar.read"
+  | "calendar.readOwn";
 
 type Resource =
   | WorkshopResource
@@ -249,6 +252,8 @@ function canOwn(actor: Actor, action: Action, person: PersonResource): boolean {
     case "daysOff.read":
       return true;
     case "daysOff.update":
+    // A trade's calendar is their bookings and days off: nobody else has one.
+    case "calendar.readOwn":
       return actor.trades.size > 0;
     default:
       return false;
@@ -263,6 +268,7 @@ export function can(actor: Actor, action: Action, resource: Resource): boolean {
     case "feed.manage":
     case "daysOff.read":
     case "daysOff.update":
+    case "calendar.readOwn":
       return false;
     case "workshop.read":
       return isMember(actor, ws);
@@ -286,6 +292,9 @@ export function can(actor: Actor, action: Action, resource: Resource): boolean {
     case "jobs.create":
     case "job.update":
     case "job.readFull":
+    // The workshop's and a job's calendar show every trade's bookings: staff only (a trade on
+    // the job sees it, so 403; see `canSee`).
+    case "calendar.read":
       return roleIn(actor, ws, "owner", "fitter");
     case "job.read":
       return resource.kind === "job" && canSee(actor, resource);
