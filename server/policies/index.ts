@@ -251,8 +251,8 @@ function canOwn(actor: Actor, action: Action, person: PersonResource): boolean {
     case "feed.manage":
     case "daysOff.read":
       return true;
+    // A trade's calendar (calendar.readOwn) is their bookings and days off: nobody else has one.
     case "daysOff.update":
-    // A trade's calendar is their bookings and days off: nobody else has one.
     case "calendar.readOwn":
       return actor.trades.size > 0;
     default:
@@ -279,6 +279,8 @@ export function can(actor: Actor, action: Action, resource: Resource): boolean {
     case "job.delete":
     case "starters.delete":
       return roleIn(actor, ws, "owner");
+    // calendar.read: the workshop's and a job's calendar show every trade's bookings, so staff
+    // only (a trade on the job sees the job, so 403; see `canSee`).
     case "trades.read":
     case "trades.create":
     case "trades.update":
@@ -292,8 +294,6 @@ export function can(actor: Actor, action: Action, resource: Resource): boolean {
     case "jobs.create":
     case "job.update":
     case "job.readFull":
-    // The workshop's and a job's calendar show every trade's bookings: staff only (a trade on
-    // the job sees it, so 403; see `canSee`).
     case "calendar.read":
       return roleIn(actor, ws, "owner", "fitter");
     case "job.read":

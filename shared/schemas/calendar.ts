@@ -167,7 +167,8 @@ export interface CalendarTask {
   party: Party;
   actualStart: string | null;
   actualFinish: string | null;
-  booking: { state: BookingState; tradeId: string; tradeName: string } | null;
+  /** Its booking; the state is a `BookingState` (the programme response types it as a string). */
+  booking: { state: string; tradeId: string; tradeName: string } | null;
 }
 
 /**
@@ -189,9 +190,10 @@ export function entriesOfTasks(
   for (const t of tasks) {
     const r = byId.get(t.id);
     if (!r) continue;
+    const state = t.booking?.state as BookingState | undefined;
     const booking =
-      t.booking && calendarShownBookingStates.includes(t.booking.state)
-        ? t.booking
+      t.booking && state && calendarShownBookingStates.includes(state)
+        ? { ...t.booking, state }
         : null;
     const start = r.plannedStart.slice(0, 10);
     const last = lastDayOf(r.plannedFinish);
