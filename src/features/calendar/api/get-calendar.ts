@@ -39,8 +39,8 @@ export function useCalendarRange(q: CalendarRequest) {
   return useQuery({
     ...calendarRangeQueryOptions(q),
     placeholderData: (previous, previousQuery) =>
-      previousQuery?.queryKey[3] === q.scope &&
-      previousQuery.queryKey[4] === (q.id ?? "")
+      previousQuery?.queryKey[2] === q.scope &&
+      previousQuery.queryKey[3] === (q.id ?? "")
         ? previous
         : undefined,
   });
