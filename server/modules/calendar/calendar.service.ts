@@ -85,9 +85,23 @@ async function planned(
   workshop: Workshop,
   range: Range,
 ): Promise<Body> {
-  const data = await loadProgrammes(m, jobs, [workshop]);
+  // Drafts do not hold the trade's dates (the engine leaves them out), but the workshop's own
+  // calendar names them: one more statement, the trade joined.
+  const [data, drafts] = await Promise.all([
+    loadProgrammes(m, jobs, [workshop]),
+    jobs.length
+      ? m.find(Booking, {
+          where: { jobId: In(jobs.map((j) => j.id)), state: "draft" },
+          relations: { trade: true },
+          order: { updatedAt: "ASC" },
+        })
+      : [],
+  ]);
+  const draftByTask = new Map(drafts.map((b) => [b.taskId, b]));
   const plannedJobs: PlannedJob[] = [];
   const trades = new Map<string, string>();
+  for (const b of drafts)
+    if (b.trade) trades.set(b.tradeId, b.trade.businessName);
   for (const job of jobs) {
     const d = data.get(job.id)!;
     const result = schedule(d.input);
@@ -100,6 +114,7 @@ async function planned(
       title: job.title,
       tasks: d.tasks.map((t) => {
         const b = d.bookingByTask.get(t.id);
+        const draft = b ? undefined : draftByTask.get(t.id);
         return {
           id: t.id,
           name: t.name,
@@ -112,7 +127,13 @@ async function planned(
                 tradeId: b.tradeId,
                 tradeName: tradeNames.get(b.tradeId) ?? "",
               }
-            : null,
+            : draft
+              ? {
+                  state: draft.state,
+                  tradeId: draft.tradeId,
+                  tradeName: draft.trade?.businessName ?? "",
+                }
+              : null,
         };
       }),
       planned: result.tasks,

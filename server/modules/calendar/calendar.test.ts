@@ -94,6 +94,12 @@ describe("the workshop's calendar", () => {
       start: day(6),
       last: day(7),
     });
+    // A draft holds no dates for the engine, but the workshop sees whom it is drafted for.
+    expect(entry(c, "Lay bedroom floor")).toMatchObject({
+      jobId: wardrobe.id,
+      state: "draft",
+      who: "Tarn Floors",
+    });
     // A done task is not movable; a workshop task carries no trade.
     expect(entry(c, "Electrician first fix (cabinet lights)")).toMatchObject({
       state: "confirmed",

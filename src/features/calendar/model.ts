@@ -55,7 +55,8 @@ export function asEntries(list: readonly CalendarEntry[]): Entry[] {
 
 /**
  * The calendar's entries with one job's replaced by its programme under a knock-on preview:
- * the moved tasks on their previewed dates, marked as previewed.
+ * the moved tasks on their previewed dates, marked as previewed. A draft booking is not in the
+ * programme (it holds no dates), so a task the server named as a draft keeps that name.
  */
 export function withPreview(
   entries: readonly Entry[],
@@ -65,11 +66,25 @@ export function withPreview(
 ): Entry[] {
   const moved = new Set(preview.impact.moves.map((m) => m.task));
   moved.add(preview.taskId);
+  const drafts = new Map(
+    entries
+      .filter((e) => e.jobId === programme.jobId && e.state === "draft")
+      .map((e) => [e.taskId, e]),
+  );
   const jobEntries = entriesOfTasks(
     { id: programme.jobId, title: jobTitle },
     programme.tasks,
     preview.result.tasks,
-  ).map((e) => ({ ...e, previewed: moved.has(e.taskId) }));
+  ).map((e) => {
+    const draft = e.state === "not-booked" ? drafts.get(e.taskId) : undefined;
+    return {
+      ...e,
+      ...(draft
+        ? { state: draft.state, who: draft.who, tradeId: draft.tradeId }
+        : {}),
+      previewed: moved.has(e.taskId),
+    };
+  });
   return [...entries.filter((e) => e.jobId !== programme.jobId), ...jobEntries];
 }
 
