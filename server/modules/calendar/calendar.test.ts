@@ -14,7 +14,11 @@ import {
   weekdaysFrom,
 } from "../../../tests/factories/demo-scenario";
 import { demoSecondWorkshop } from "../../../tests/factories/demo-second-workshop";
-import { buildBooking } from "../../../tests/factories/builders";
+import {
+  buildBooking,
+  buildJob,
+  buildTask,
+} from "../../../tests/factories/builders";
 import {
   CALENDAR_RANGE_WORDS,
   type CalendarEntry,
@@ -22,6 +26,8 @@ import {
   type ProgrammeResponse,
 } from "../../../shared/schemas";
 import { Booking } from "../bookings/bookings.entity";
+import { Customer } from "../customers/customers.entity";
+import { Workshop } from "../workshops/workshops.entity";
 import { Job } from "../jobs/jobs.entity";
 import { localToday } from "../jobs/jobs.presenter";
 import { Task } from "../programme/programme.entity";
@@ -124,6 +130,46 @@ describe("the workshop's calendar", () => {
     for (const e of c.entries) {
       expect(e.last >= from && e.start <= to, e.taskName).toBe(true);
     }
+  });
+
+  it("leaves out handed-over and cancelled jobs, which the job's own calendar still shows", async () => {
+    const m = t.db.ds.manager;
+    const workshop = await m.findOneByOrFail(Workshop, {
+      id: alcoves.workshopId,
+    });
+    const customer = await m.findOneByOrFail(Customer, {
+      id: alcoves.customerId,
+    });
+    const done: Job[] = [];
+    for (const status of ["handed-over", "cancelled"] as const) {
+      const job = await buildJob(m, workshop, customer, {
+        title: `Finished: ${status}`,
+        status,
+      });
+      await buildTask(m, job, {
+        name: `Snagging (${status})`,
+        party: "workshop",
+        durationDays: 1,
+        notEarlierThan: day(2),
+      });
+      done.push(job);
+    }
+    const c = await calendar(
+      owner,
+      `scope=workshop&id=${alcoves.workshopId}&from=${from}&to=${to}`,
+    );
+    const ids = new Set([
+      ...c.jobs.map((j) => j.id),
+      ...c.entries.map((e) => e.jobId),
+    ]);
+    for (const job of done) expect(ids.has(job.id), job.title).toBe(false);
+    const own = await calendar(
+      owner,
+      `scope=job&id=${done[0].id}&from=${from}&to=${to}`,
+    );
+    expect(own.entries.map((e) => e.taskName)).toEqual([
+      "Snagging (handed-over)",
+    ]);
   });
 
   it("puts every task on the dates GET /programme plans it on", async () => {
