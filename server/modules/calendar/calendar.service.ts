@@ -229,13 +229,20 @@ async function ownCalendar(
   );
   return {
     ...body,
-    jobs: jobs.map((j) => ({
-      id: j.id,
-      title: `${j.title}, ${j.area}`,
-      workshopId: j.workshopId,
-      workshopName: workshopName.get(j.workshopId) ?? "",
-      taskCount: visits.filter((v) => v.jobId === j.id).length,
-    })),
+    // In the order of their first visit (bookings come by start), so the workshops are named
+    // soonest first and the same way every time.
+    jobs: jobIds
+      .flatMap((id) => {
+        const j = jobById.get(id);
+        return j ? [j] : [];
+      })
+      .map((j) => ({
+        id: j.id,
+        title: `${j.title}, ${j.area}`,
+        workshopId: j.workshopId,
+        workshopName: workshopName.get(j.workshopId) ?? "",
+        taskCount: visits.filter((v) => v.jobId === j.id).length,
+      })),
     trades: [],
   };
 }
