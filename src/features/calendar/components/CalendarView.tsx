@@ -158,7 +158,9 @@ export function CalendarView({
     date: initialDate,
   });
 
-  // One array per change of data: a new array for the same data would snap a drop back.
+  // One array per change of data: a new array for the same data would snap a drop back (so
+  // it depends on whether moving is allowed, not on the handler, new at each render).
+  const canMove = !!onMove;
   const events = useMemo<EventInput[]>(
     () => [
       ...entries.map((e) => ({
@@ -167,7 +169,7 @@ export function CalendarView({
         start: e.start,
         end: addDays(e.last, 1),
         allDay: true,
-        startEditable: !!onMove && e.movable,
+        startEditable: canMove && e.movable,
         durationEditable: false,
         extendedProps: { entry: e },
       })),
@@ -181,7 +183,7 @@ export function CalendarView({
         extendedProps: { mark: m },
       })),
     ],
-    [entries, marks, onMove],
+    [entries, marks, canMove],
   );
 
   const shown = entries

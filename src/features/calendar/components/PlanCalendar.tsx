@@ -119,6 +119,8 @@ export function PlanCalendar({
   const [state, setState] = useState("");
   const [pending, setPending] = useState<Pending | null>(null);
   const [previewError, setPreviewError] = useState<string | null>(null);
+  // The moving job's programme is on its way (asked for when the drag or Move began).
+  const [working, setWorking] = useState(false);
   const [saveError, setSaveError] = useState<string | null>(null);
   const [saved, setSaved] = useState<{
     text: string;
@@ -182,12 +184,15 @@ export function PlanCalendar({
     setSaved(null);
     setSaveError(null);
     let programme: ProgrammeResponse;
+    setWorking(true);
     try {
       programme = await programmeOf(entry.jobId);
     } catch (error) {
       setPending(null);
       setPreviewError(errorMessage(error));
       return false;
+    } finally {
+      setWorking(false);
     }
     try {
       setPending({
@@ -317,6 +322,11 @@ export function PlanCalendar({
           <span>{saved.text}</span>
           <ImpactSummary programme={saved.programme} impact={saved.impact} />
         </div>
+      ) : null}
+      {working ? (
+        <p role="status" className="text-sm text-ink-soft">
+          Working out the knock-on…
+        </p>
       ) : null}
       <FormError message={previewError} />
       {pending ? (
