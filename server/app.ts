@@ -41,6 +41,7 @@ import { registerVisitRoutes } from "./modules/visits/visits.router";
 import { registerThreadRoutes } from "./modules/thread/thread.router";
 import { registerTimelineRoutes } from "./modules/timeline/timeline.router";
 import { registerAttentionRoutes } from "./modules/attention/attention.router";
+import { registerCalendarRoutes } from "./modules/calendar/calendar.router";
 import { registerOutboxRoutes } from "./modules/outbox/outbox.router";
 import {
   DEFAULT_NOTICE_DELAY_MS,
@@ -246,6 +247,7 @@ export function createApp(deps: AppDeps): SitecueApp {
   registerThreadRoutes(api, threadDeps);
   registerTimelineRoutes(api, deps.ds);
   registerAttentionRoutes(api, deps.ds);
+  registerCalendarRoutes(api, deps.ds);
   registerOutboxRoutes(api, deps.ds);
   if (deps.mailbox) registerDevMailRoutes(api, deps.mailbox);
   api.add({

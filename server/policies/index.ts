@@ -148,7 +148,10 @@ export type Action =
   | "thread.audience.workshop"
   // The customer's timeline of visits and the dates they will be away.
   | "timeline.read"
-  | "awayDates.update";
+  | "awayDates.update"
+  // Calendars (issue 15): a workshop's or a job's (its owners and fitters), a trade's own.
+  | "calendar.read"
+  | "calendar.readOwn";
 
 type Resource =
   | WorkshopResource
@@ -253,7 +256,9 @@ function canOwn(actor: Actor, action: Action, person: PersonResource): boolean {
     case "feed.manage":
     case "daysOff.read":
       return true;
+    // A trade's calendar (calendar.readOwn) is their bookings and days off: nobody else has one.
     case "daysOff.update":
+    case "calendar.readOwn":
       return actor.trades.size > 0;
     default:
       return false;
@@ -268,6 +273,7 @@ export function can(actor: Actor, action: Action, resource: Resource): boolean {
     case "feed.manage":
     case "daysOff.read":
     case "daysOff.update":
+    case "calendar.readOwn":
       return false;
     case "workshop.read":
       return isMember(actor, ws);
@@ -278,6 +284,8 @@ export function can(actor: Actor, action: Action, resource: Resource): boolean {
     case "job.delete":
     case "starters.delete":
       return roleIn(actor, ws, "owner");
+    // calendar.read: the workshop's and a job's calendar show every trade's bookings, so staff
+    // only (a trade on the job sees the job, so 403; see `canSee`).
     case "trades.read":
     case "trades.create":
     case "trades.update":
@@ -291,6 +299,7 @@ export function can(actor: Actor, action: Action, resource: Resource): boolean {
     case "jobs.create":
     case "job.update":
     case "job.readFull":
+    case "calendar.read":
       return roleIn(actor, ws, "owner", "fitter");
     case "job.read":
       return resource.kind === "job" && canSee(actor, resource);

@@ -383,4 +383,29 @@ export const expected: Record<string, Row> = {
   },
   // Bookings on days a customer is away: the workshop's to sort out.
   "GET /workshops/:workshopId/away-clashes": staff(200),
+
+  // The calendar's range request, as its job-page form (scope=job): the workshop's staff; a trade
+  // on the job sees the job but not everyone's bookings on it (403); the others do not see it
+  // (404). Its other scopes are rows of `expectedVariants` below.
+  "GET /calendar": jobStaff(200),
+};
+
+/**
+ * Routes whose answer depends on a query parameter: one more row for each other form, keyed
+ * "METHOD /path?form". The test sends each form's request to every role, as for `expected`.
+ */
+export const expectedVariants: Record<string, Row> = {
+  // The workshop's calendar: its owner and fitter; its trades and customers know the workshop (403).
+  "GET /calendar?scope=workshop": staff(200),
+  // A trade's own calendar, whoever booked them (tradeOff has a trade record too); the others
+  // have no trade calendar to read (403, their own data).
+  "GET /calendar?scope=me": {
+    owner: 403,
+    fitter: 403,
+    tradeOn: 200,
+    tradeOff: 200,
+    customer: 403,
+    other: 403,
+    anon: 401,
+  },
 };

@@ -33,7 +33,12 @@ import { issueFeed } from "../modules/feeds/feeds.service";
 import { User } from "../modules/users/users.entity";
 import { samplePng } from "../../tests/setup/uploads";
 import { newId } from "../db/columns";
-import { expected, roles, type MatrixRole } from "./role-matrix.expected";
+import {
+  expected,
+  expectedVariants,
+  roles,
+  type MatrixRole,
+} from "./role-matrix.expected";
 
 let t: TestApp;
 let ids: {
@@ -746,6 +751,19 @@ const requests: Record<
   "GET /workshops/:workshopId/away-clashes": async () => ({
     path: `/api/workshops/${ids.workshopId}/away-clashes`,
   }),
+  "GET /calendar": async () => ({
+    path: `/api/calendar?scope=job&id=${await freshJob()}&from=2027-01-25&to=2027-02-28`,
+  }),
+};
+
+/** The requests of `expectedVariants`: the other forms of a route. */
+const variantRequests: typeof requests = {
+  "GET /calendar?scope=workshop": async () => ({
+    path: `/api/calendar?scope=workshop&id=${ids.workshopId}&from=2027-01-25&to=2027-02-28`,
+  }),
+  "GET /calendar?scope=me": async () => ({
+    path: "/api/calendar?scope=me&from=2027-01-25&to=2027-02-28",
+  }),
 };
 
 async function sessionFor(role: MatrixRole): Promise<Session> {
@@ -759,15 +777,33 @@ describe("role matrix: every /api route for every role", () => {
       .sort();
     expect(Object.keys(expected).sort()).toEqual(registered);
     expect(Object.keys(requests).sort()).toEqual(registered);
+    // Each variant is a form of a registered route, with its own request.
+    for (const key of Object.keys(expectedVariants))
+      expect(registered, key).toContain(key.split("?")[0]);
+    expect(Object.keys(variantRequests).sort()).toEqual(
+      Object.keys(expectedVariants).sort(),
+    );
   });
 
-  for (const [route, row] of Object.entries(expected)) {
+  const rows: (readonly [
+    string,
+    Record<MatrixRole, number>,
+    (typeof requests)[string],
+  ])[] = [
+    ...Object.entries(expected).map(
+      ([route, row]) => [route, row, requests[route]] as const,
+    ),
+    ...Object.entries(expectedVariants).map(
+      ([route, row]) => [route, row, variantRequests[route]] as const,
+    ),
+  ];
+  for (const [route, row, request] of rows) {
     it(route, async () => {
       const [method, path] = route.split(" ");
       const seen: Record<string, number> = {};
       for (const role of roles) {
         const s = await sessionFor(role);
-        const req = await requests[route]();
+        const req = await request();
         const call = s.agent[
           method.toLowerCase() as "get" | "post" | "patch" | "put" | "delete"
         ](req.path).set("X-CSRF-Token", s.csrf);

@@ -17,3 +17,4 @@ export * from "./timeline";
 export * from "./attention";
 export * from "./visits";
 export * from "./contacts-import";
+export * from "./calendar";

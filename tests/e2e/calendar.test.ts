@@ -1,7 +1,9 @@
 // The calendars of issue 6 in the browser: the workshop calendar in month and week views with
 // bank holidays, a drag whose knock-on is read before saving, Save and the result after a reload;
 // FullCalendar's run-time CSS applied under the production CSP (nonce) with no console errors;
-// the demo plasterer's own calendar. Chromium against the built client.
+// the demo plasterer's own calendar. Issue 15: each view is one GET /api/calendar for its days
+// (the last range stays on screen while the next loads), and a job's programme is asked for only
+// when one of its tasks starts to move. Chromium against the built client.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
 import { startTestApp, type TestApp } from "../setup/test-app";
@@ -31,6 +33,20 @@ afterAll(async () => {
 
 const signIn = (email: string, viewport = desktop) =>
   signInPage(browser, t.url!, email, { viewport });
+
+/** The API requests a page makes from now on, as paths with their query. */
+function apiRequests(page: Page): string[] {
+  const seen: string[] = [];
+  page.on("request", (r) => {
+    const u = new URL(r.url());
+    if (u.pathname.startsWith("/api/")) seen.push(u.pathname + u.search);
+  });
+  return seen;
+}
+const calendarRequests = (seen: string[]) =>
+  seen.filter((p) => p.startsWith("/api/calendar?"));
+const programmeRequests = (seen: string[]) =>
+  seen.filter((p) => /^\/api\/jobs\/[^/]+\/programme$/.test(p));
 
 /** A calendar event (FullCalendar's harness) by the task name in its label. */
 const fcEvent = (page: Page, name: string) =>
@@ -71,12 +87,57 @@ async function goToMonth(page: Page, yyyyMm: string): Promise<void> {
 describe("workshop calendar", () => {
   it("renders month and week, shows the drag's knock-on before saving, saves it, keeps it after a reload", async () => {
     const { page, problems } = await signIn(demoAccounts.owner.email);
+    const seen = apiRequests(page);
     // The calendar sits in the members' navigation and loads lazily.
     await page
       .getByRole("navigation", { name: "Main" })
       .getByRole("link", { name: "Calendar" })
       .click();
     await page.waitForURL(/\/calendar$/);
+    await visible(fcEvent(page, "Template coving"));
+    // One request for the month on screen (the range FullCalendar shows), no programme.
+    const firstDay = await page
+      .locator(".fc-daygrid-day[data-date]")
+      .first()
+      .getAttribute("data-date");
+    const lastDay = await page
+      .locator(".fc-daygrid-day[data-date]")
+      .last()
+      .getAttribute("data-date");
+    expect(calendarRequests(seen)).toEqual([
+      expect.stringMatching(
+        new RegExp(
+          `^/api/calendar\\?scope=workshop&id=[^&]+&from=${firstDay}&to=${lastDay}$`,
+        ),
+      ),
+    ]);
+    expect(programmeRequests(seen)).toEqual([]);
+
+    // The next month while its answer is held back: the month before stays on screen with a
+    // loading line, never the full-page loading state.
+    let release: () => void = () => {};
+    const held = new Promise<void>((r) => (release = r));
+    const isCalendar = (u: URL) => u.pathname === "/api/calendar";
+    await page.route(isCalendar, async (route) => {
+      await held;
+      await route.continue();
+    });
+    await page.getByRole("button", { name: "Next", exact: true }).click();
+    await visible(
+      page.getByRole("status").filter({ hasText: "Loading these days…" }),
+    );
+    expect(await page.locator(".fc").count()).toBe(1);
+    expect(await page.getByText("Loading the calendar…").count()).toBe(0);
+    release();
+    await page.waitForFunction(
+      () =>
+        ![...document.querySelectorAll('[role="status"]')].some((e) =>
+          e.textContent?.includes("Loading these days…"),
+        ),
+    );
+    await page.unrouteAll({ behavior: "wait" });
+    expect(calendarRequests(seen)).toHaveLength(2);
+    await page.getByRole("button", { name: "Previous", exact: true }).click();
     await visible(fcEvent(page, "Template coving"));
 
     // FullCalendar's injected stylesheet applied: production CSP allows it by nonce only.
@@ -134,6 +195,15 @@ describe("workshop calendar", () => {
     // Week view.
     await page.getByRole("button", { name: "Week", exact: true }).click();
     await visible(page.locator(".fc-dayGridWeek-view"));
+    // Template coving is booked the next weekday: this week, or next week from a Friday.
+    await page.waitForFunction(
+      () =>
+        ![...document.querySelectorAll('[role="status"]')].some((e) =>
+          e.textContent?.includes("Loading these days…"),
+        ),
+    );
+    if ((await fcEvent(page, "Template coving").count()) === 0)
+      await page.getByRole("button", { name: "Next", exact: true }).click();
     await visible(fcEvent(page, "Template coving"));
     await page.waitForTimeout(300);
     // Still the week after the re-render datesSet causes.
@@ -187,15 +257,17 @@ describe("workshop calendar", () => {
     );
     await expect(panel.innerText()).resolves.toContain("Not saved yet");
     await shot(page, "calendar-drag-preview-desktop");
-
-    // Nothing saved yet: the server still has the old date.
-    const before = await page.evaluate(async () => {
-      const jobs = (await (await fetch("/api/jobs")).json()) as {
-        jobs: { id: string; title: string }[];
-      };
-      return jobs.jobs.map((j) => j.id);
-    });
-    expect(before.length).toBeGreaterThan(0);
+    // The drag asked for that one job's programme, once, and nothing else was read for it.
+    const alcovesId = (
+      await page.evaluate(async () => {
+        const r = await fetch("/api/jobs");
+        return ((await r.json()) as { jobs: { id: string; title: string }[] })
+          .jobs;
+      })
+    ).find((j) => j.title === "Alcove cabinets, front room")!.id;
+    expect(programmeRequests(seen)).toEqual([
+      `/api/jobs/${alcovesId}/programme`,
+    ]);
 
     await panel.getByRole("button", { name: "Save the move" }).click();
     await visible(
@@ -225,11 +297,26 @@ describe("workshop calendar", () => {
       () => document.documentElement.scrollWidth,
     );
     expect(wide).toBeLessThanOrEqual(375);
+    // "Later →" asks for the next two weeks; "← Earlier" comes back to the ones already read.
+    const phoneSeen = apiRequests(page);
+    await page.getByRole("button", { name: "Later →" }).click();
+    await page.waitForFunction(
+      () =>
+        ![...document.querySelectorAll('[role="status"]')].some((e) =>
+          e.textContent?.includes("Loading these days…"),
+        ),
+    );
+    expect(calendarRequests(phoneSeen)).toHaveLength(1);
+    await page.getByRole("button", { name: "← Earlier" }).click();
+    await visible(entry);
 
     const paint = page
       .getByTestId("calendar-list-entry")
       .filter({ hasText: "Fill, caulk & paint" })
       .first();
+    // Painting is 6–7 weekdays ahead: in these two weeks or the next, by the day of the week.
+    if ((await paint.count()) === 0)
+      await page.getByRole("button", { name: "Later →" }).click();
     await paint
       .getByRole("button", { name: /^Move Fill, caulk & paint/ })
       .click();
@@ -252,6 +339,7 @@ describe("workshop calendar", () => {
 describe("job calendar", () => {
   it("shows one job's tasks on the job page, loaded lazily", async () => {
     const { page, problems } = await signIn(demoAccounts.owner.email);
+    const seen = apiRequests(page);
     await page
       .getByRole("link", { name: "Alcove cabinets, front room" })
       .first()
@@ -267,6 +355,13 @@ describe("job calendar", () => {
     await section.screenshot({
       path: `${screensDir}/job-calendar-desktop.png`,
     });
+    // One range request for this job; its programme only once something moves.
+    expect(calendarRequests(seen)).toEqual([
+      expect.stringMatching(/^\/api\/calendar\?scope=job&id=/),
+    ]);
+    expect(
+      seen.filter((p) => p.startsWith("/api/calendar?scope=workshop")),
+    ).toEqual([]);
     expect(problems).toEqual([]);
     await page.context().close();
   }, 60_000);
@@ -275,6 +370,7 @@ describe("job calendar", () => {
 describe("trade calendar", () => {
   it("shows the demo plasterer their own visits", async () => {
     const { page, problems } = await signIn(demoAccounts.trade.email);
+    const seen = apiRequests(page);
     await page
       .getByRole("navigation", { name: "Main" })
       .getByRole("link", { name: "My calendar" })
@@ -288,6 +384,11 @@ describe("trade calendar", () => {
     expect(await page.locator("body").innerText()).toContain(
       "Hollin & Vane Joinery",
     );
+    // One request for the trade's own month; no job read one by one.
+    expect(calendarRequests(seen)).toEqual([
+      expect.stringMatching(/^\/api\/calendar\?scope=me&from=/),
+    ]);
+    expect(seen.filter((p) => p.startsWith("/api/jobs/"))).toEqual([]);
     // Days off, entered once for every workshop: added here, shown on the calendar.
     const off = await page.evaluate(() => {
       const d = new Date();

@@ -89,8 +89,16 @@ describe("one plasterer, two workshops", () => {
         { exact: false },
       ),
     );
-    for (let i = 0; i < 4 && !(await entry("Skim larder walls").count()); i++)
+    // Each "Later →" reads the next two weeks from the server: wait for them before looking.
+    for (let i = 0; i < 4 && !(await entry("Skim larder walls").count()); i++) {
       await page.getByRole("button", { name: "Later →" }).click();
+      await page.waitForFunction(
+        () =>
+          ![...document.querySelectorAll('[role="status"]')].some((e) =>
+            e.textContent?.includes("Loading these days…"),
+          ),
+      );
+    }
     await visible(entry("Skim larder walls"));
     expect(
       flat(await entry("Skim larder walls").first().innerText()),

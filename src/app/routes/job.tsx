@@ -195,7 +195,7 @@ export function JobRoute() {
       {isWorkshop ? (
         <div className="mt-6">
           <Suspense fallback={<LoadingState label="Loading the calendar…" />}>
-            <JobCalendar jobId={j.id} title={j.title} />
+            <JobCalendar jobId={j.id} />
           </Suspense>
         </div>
       ) : null}

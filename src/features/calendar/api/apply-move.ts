@@ -5,7 +5,7 @@ import type {
   changeBodySchema,
 } from "../../../../shared/schemas";
 import { api } from "../../../lib/api-client";
-import { jobPath } from "./get-programmes";
+import { jobPath } from "./get-programme";
 import { calendarKeys } from "./keys";
 
 export type MoveBody = z.output<typeof changeBodySchema>;
@@ -24,10 +24,16 @@ export function useApplyMove() {
   return useMutation({
     mutationFn: ({ jobId, body }: { jobId: string; body: MoveBody }) =>
       applyMove(jobId, body),
+    // Returned, so the save resolves once the days in view have been read again: the
+    // server's dates, never the preview. Programmes are read again at the next move (another
+    // job may share a re-booked trade).
     onSuccess: (answer, { jobId }) => {
-      // The server's answer, never the preview; other jobs may share a trade, so re-read them.
       queryClient.setQueryData(calendarKeys.programme(jobId), answer.programme);
-      void queryClient.invalidateQueries({ queryKey: calendarKeys.all });
+      void queryClient.invalidateQueries({
+        queryKey: calendarKeys.programmes(),
+        refetchType: "none",
+      });
+      return queryClient.invalidateQueries({ queryKey: calendarKeys.ranges() });
     },
   });
 }

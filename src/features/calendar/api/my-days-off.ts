@@ -26,7 +26,10 @@ export function useSetMyDaysOff() {
   return useMutation({
     mutationFn: (body: DaysOffBody) =>
       apiRequest<DaysOffResponse>("/api/me/days-off", { method: "PUT", body }),
-    onSuccess: (answer) =>
-      queryClient.setQueryData(calendarKeys.daysOff(), answer),
+    onSuccess: (answer) => {
+      queryClient.setQueryData(calendarKeys.daysOff(), answer);
+      // The calendar marks them: read the days in view again.
+      void queryClient.invalidateQueries({ queryKey: calendarKeys.ranges() });
+    },
   });
 }

@@ -27,9 +27,12 @@ export const tradeBusyQueryOptions = (
     queryFn: ({ signal }) => getTradeBusy(tradeId, from, to, signal),
   });
 
+/** The busy days of the range in view; the last range's stay while the next loads (same trade). */
 export function useTradeBusy(tradeId: string | null, from: string, to: string) {
   return useQuery({
     ...tradeBusyQueryOptions(tradeId ?? "", from, to),
     enabled: !!tradeId,
+    placeholderData: (previous, previousQuery) =>
+      previousQuery?.queryKey[2] === tradeId ? previous : undefined,
   });
 }

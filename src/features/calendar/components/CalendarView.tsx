@@ -8,16 +8,19 @@ import type {
 } from "@fullcalendar/core";
 import enGbLocale from "@fullcalendar/core/locales/en-gb";
 import dayGridPlugin from "@fullcalendar/daygrid";
-import interactionPlugin from "@fullcalendar/interaction";
+import interactionPlugin, {
+  type EventDragStartArg,
+} from "@fullcalendar/interaction";
 import { Button, cx } from "../../../components/ui";
 import { formatDateShort } from "../../../lib/format";
 import {
   addDays,
   entryDetail,
   entryLabel,
-  mondayOf,
+  initialRange,
   todayDate,
   type DayMark,
+  type DayRange,
   type Entry,
 } from "../model";
 
@@ -79,6 +82,17 @@ function useWide(): boolean {
   );
 }
 
+/**
+ * The days in view, held by the screen that asks the server for them: at first FullCalendar's
+ * month around `initialDate` at a desk (what its first `datesSet` reports, so the first request
+ * is the right one), or two weeks on a phone; then whatever the person moves to.
+ */
+export function useDayRange(initialDate?: string) {
+  return useState<DayRange>(() =>
+    initialRange(initialDate ?? todayDate(), window.matchMedia(wide).matches),
+  );
+}
+
 function EventBox({ entry }: { entry: Entry }) {
   return (
     <div
@@ -101,8 +115,18 @@ function EventBox({ entry }: { entry: Entry }) {
 interface CalendarViewProps {
   entries: Entry[];
   marks: DayMark[];
-  /** Dragging (and the per-entry Move control) only when given. */
-  onMove?: (entry: Entry, date: string) => void;
+  /** The days in view (from `useDayRange`), changed by the calendar's and the list's buttons. */
+  range: DayRange;
+  onRangeChange: (range: DayRange) => void;
+  /** The next range is loading (the last one stays on screen meanwhile). */
+  loading?: boolean;
+  /** A drag began: the screen may start loading what the move's knock-on needs. */
+  onMoveStart?: (entry: Entry) => void;
+  /**
+   * Dragging (and the per-entry Move control) only when given. Resolves false when the move
+   * could not be previewed, and the dragged event goes back.
+   */
+  onMove?: (entry: Entry, date: string) => Promise<boolean> | void;
   /** The Move control's form, rendered under the entry it belongs to. */
   renderMove?: (entry: Entry) => ReactNode;
   initialDate?: string;
@@ -116,16 +140,16 @@ interface CalendarViewProps {
 export function CalendarView({
   entries,
   marks,
+  range,
+  onRangeChange,
+  loading = false,
+  onMoveStart,
   onMove,
   renderMove,
   initialDate,
   emptyText,
 }: CalendarViewProps) {
   const isWide = useWide();
-  const [range, setRange] = useState<{ from: string; to: string }>(() => {
-    const from = mondayOf(initialDate ?? todayDate());
-    return { from, to: addDays(from, 13) };
-  });
 
   // Where the person is (view and date), fed back as the initial ones: when FullCalendar
   // re-initialises (seen on a window resize) it stays there instead of jumping to the month.
@@ -134,7 +158,9 @@ export function CalendarView({
     date: initialDate,
   });
 
-  // One array per change of data: a new array for the same data would snap a drop back.
+  // One array per change of data: a new array for the same data would snap a drop back (so
+  // it depends on whether moving is allowed, not on the handler, new at each render).
+  const canMove = !!onMove;
   const events = useMemo<EventInput[]>(
     () => [
       ...entries.map((e) => ({
@@ -143,7 +169,7 @@ export function CalendarView({
         start: e.start,
         end: addDays(e.last, 1),
         allDay: true,
-        startEditable: !!onMove && e.movable,
+        startEditable: canMove && e.movable,
         durationEditable: false,
         extendedProps: { entry: e },
       })),
@@ -157,7 +183,7 @@ export function CalendarView({
         extendedProps: { mark: m },
       })),
     ],
-    [entries, marks, onMove],
+    [entries, marks, canMove],
   );
 
   const shown = entries
@@ -176,7 +202,13 @@ export function CalendarView({
   const onDrop = (info: EventDropArg) => {
     const entry = info.event.extendedProps.entry as Entry | undefined;
     if (!entry || !onMove) return info.revert();
-    onMove(entry, info.event.startStr.slice(0, 10));
+    void Promise.resolve(onMove(entry, info.event.startStr.slice(0, 10))).then(
+      (ok) => ok === false && info.revert(),
+    );
+  };
+  const onDragStart = (info: EventDragStartArg) => {
+    const entry = info.event.extendedProps.entry as Entry | undefined;
+    if (entry) onMoveStart?.(entry);
   };
 
   return (
@@ -210,6 +242,7 @@ export function CalendarView({
                 <EventBox entry={arg.event.extendedProps.entry as Entry} />
               );
             }}
+            eventDragStart={onDragStart}
             eventDrop={onDrop}
             datesSet={(arg: DatesSetArg) => {
               const from = arg.startStr.slice(0, 10);
@@ -219,9 +252,8 @@ export function CalendarView({
               setNav((n) =>
                 n.view === view && n.date === date ? n : { view, date },
               );
-              setRange((r) =>
-                r.from === from && r.to === to ? r : { from, to },
-              );
+              if (range.from !== from || range.to !== to)
+                onRangeChange({ from, to });
             }}
           />
         </div>
@@ -231,10 +263,10 @@ export function CalendarView({
             size="sm"
             variant="secondary"
             onClick={() =>
-              setRange((r) => ({
-                from: addDays(r.from, -14),
-                to: addDays(r.from, -1),
-              }))
+              onRangeChange({
+                from: addDays(range.from, -14),
+                to: addDays(range.from, -1),
+              })
             }
           >
             ← Earlier
@@ -246,16 +278,21 @@ export function CalendarView({
             size="sm"
             variant="secondary"
             onClick={() =>
-              setRange((r) => ({
-                from: addDays(r.to, 1),
-                to: addDays(r.to, 14),
-              }))
+              onRangeChange({
+                from: addDays(range.to, 1),
+                to: addDays(range.to, 14),
+              })
             }
           >
             Later →
           </Button>
         </div>
       )}
+
+      {/* Kept in the layout (one line) so the calendar does not jump when it shows. */}
+      <p role="status" className="-my-2 min-h-5 text-xs text-ink-soft">
+        {loading ? "Loading these days…" : ""}
+      </p>
 
       <section aria-label="In view, day by day" className="flex flex-col gap-3">
         {isWide ? (

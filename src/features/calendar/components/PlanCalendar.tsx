@@ -1,5 +1,6 @@
 import { useMemo, useState } from "react";
-import type { JobSummary, ProgrammeResponse } from "../../../../shared/schemas";
+import { useQueryClient } from "@tanstack/react-query";
+import { lastDayOf, type ProgrammeResponse } from "../../../../shared/schemas";
 import { ProgrammeInputError } from "../../../../shared/programme";
 import { ImpactSummary, KnockOnPanel } from "../../../components/KnockOnPanel";
 import {
@@ -14,30 +15,34 @@ import { errorMessage } from "../../../lib/api-client";
 import { previewMove, type Preview } from "../../../lib/knock-on";
 import { partyLabels } from "../../../lib/labels";
 import { useApplyMove, type MoveAnswer } from "../api/apply-move";
-import { useProgrammes } from "../api/get-programmes";
+import { useCalendarRange } from "../api/get-calendar";
+import { calendarProgrammeQueryOptions } from "../api/get-programme";
 import { useTradeBusy } from "../api/trade-busy";
 import {
   addDays,
-  dayMarks,
-  entriesOfProgramme,
+  asEntries,
   entryStateLabels,
-  lastDayOf,
-  todayDate,
+  withPreview,
+  type DayMark,
   type Entry,
   type EntryState,
 } from "../model";
-import { CalendarView } from "./CalendarView";
+import { CalendarView, useDayRange } from "./CalendarView";
 
 interface Pending {
   jobId: string;
+  /** The job's programme, loaded when the move began: the preview's input and its version. */
+  programme: ProgrammeResponse;
   preview: Preview;
 }
 
 function MoveControl({
   entry,
+  onOpen,
   onPreview,
 }: {
   entry: Entry;
+  onOpen: (entry: Entry) => void;
   onPreview: (entry: Entry, date: string) => void;
 }) {
   const [open, setOpen] = useState(false);
@@ -48,7 +53,10 @@ function MoveControl({
         size="sm"
         variant="quiet"
         className="self-start"
-        onClick={() => setOpen(true)}
+        onClick={() => {
+          setOpen(true);
+          onOpen(entry);
+        }}
         aria-label={`Move ${entry.taskName} (${entry.jobTitle})`}
       >
         Move
@@ -83,21 +91,27 @@ function MoveControl({
 }
 
 interface PlanCalendarProps {
-  /** The member's jobs to show (one on the job page). */
-  jobs: Pick<JobSummary, "id" | "title">[];
+  /** The workshop's calendar (its live jobs) or one job's, by id. */
+  scope: "workshop" | "job";
+  id: string;
   /** Job filter (hidden on the job page). */
   showJobFilter?: boolean;
 }
 
 /**
  * The workshop's calendar of bookings and tasks across its jobs (or one job's): drag a task or
- * use Move, read the knock-on the shared engine works out at once, then Save or Cancel.
+ * use Move, read the knock-on the shared engine works out at once, then Save or Cancel. The
+ * days in view come from one request (GET /api/calendar); a job's programme is loaded only when
+ * one of its tasks starts to move.
  */
 export function PlanCalendar({
-  jobs,
+  scope,
+  id,
   showJobFilter = true,
 }: PlanCalendarProps) {
-  const queries = useProgrammes(jobs.map((j) => j.id));
+  const [range, setRange] = useDayRange();
+  const calendar = useCalendarRange({ scope, id, ...range });
+  const queryClient = useQueryClient();
   const apply = useApplyMove();
   const [party, setParty] = useState("");
   const [business, setBusiness] = useState("");
@@ -105,6 +119,8 @@ export function PlanCalendar({
   const [state, setState] = useState("");
   const [pending, setPending] = useState<Pending | null>(null);
   const [previewError, setPreviewError] = useState<string | null>(null);
+  // The moving job's programme is on its way (asked for when the drag or Move began).
+  const [working, setWorking] = useState(false);
   const [saveError, setSaveError] = useState<string | null>(null);
   const [saved, setSaved] = useState<{
     text: string;
@@ -112,49 +128,32 @@ export function PlanCalendar({
     impact: MoveAnswer["impact"];
   } | null>(null);
 
-  const programmes = queries
-    .map((q) => q.data)
-    .filter((p): p is ProgrammeResponse => !!p);
-  const businesses = [
-    ...new Map(
-      programmes.flatMap((p) =>
-        p.tasks.flatMap((t) =>
-          t.booking ? [[t.booking.tradeId, t.booking.tradeName] as const] : [],
-        ),
-      ),
-    ),
-  ].sort((a, b) => a[1].localeCompare(b[1]));
-  function businessName(tradeId: string) {
-    return businesses.find(([id]) => id === tradeId)?.[1] ?? null;
-  }
+  const data = calendar.data;
+  const jobs = useMemo(() => data?.jobs ?? [], [data]);
+  const businesses = data?.trades ?? [];
 
-  // Rebuilt only when a programme, the preview or a filter changes (see CalendarView).
-  const dataKey = queries.map((q) => q.dataUpdatedAt).join(",");
+  // Rebuilt only when the range's data, the preview or a filter changes (see CalendarView).
   const entries = useMemo(() => {
-    const title = new Map(jobs.map((j) => [j.id, j.title]));
-    return programmes
-      .flatMap((p) =>
-        entriesOfProgramme(
-          p,
-          title.get(p.jobId) ?? "Job",
-          pending?.jobId === p.jobId ? pending.preview : null,
-        ),
-      )
-      .filter(
-        (e) =>
-          (!party || e.party === party) &&
-          (!business || e.who === businessName(business)) &&
-          (!jobFilter || e.jobId === jobFilter) &&
-          (!state || e.state === state),
+    let list = asEntries(data?.entries ?? []);
+    if (pending)
+      list = withPreview(
+        list,
+        pending.programme,
+        jobs.find((j) => j.id === pending.jobId)?.title ?? "Job",
+        pending.preview,
       );
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [dataKey, pending, party, business, jobFilter, state, jobs]);
+    return list.filter(
+      (e) =>
+        (!party || e.party === party) &&
+        (!business || e.tradeId === business) &&
+        (!jobFilter || e.jobId === jobFilter) &&
+        (!state || e.state === state),
+    );
+  }, [data, jobs, pending, party, business, jobFilter, state]);
   // A chosen business's time booked by other workshops shows only as "busy" days.
-  const busyFrom = addDays(todayDate(), -60);
-  const busyTo = addDays(todayDate(), 400);
-  const busy = useTradeBusy(business || null, busyFrom, busyTo);
+  const busy = useTradeBusy(business || null, range.from, range.to);
   const marks = useMemo(() => {
-    const days = dayMarks(programmes, busyFrom, busyTo);
+    const days: DayMark[] = [...(data?.marks ?? [])];
     for (const b of busy.data ?? []) {
       if (b.ownWorkshop) continue;
       for (
@@ -165,31 +164,44 @@ export function PlanCalendar({
         days.push({ date: d, kind: "busy", label: b.label });
     }
     return days;
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [dataKey, busy.data]);
+  }, [data, busy.data]);
 
-  if (queries.some((q) => q.isPending))
-    return <LoadingState label="Loading the calendar…" />;
-  const failed = queries.find((q) => q.isError);
-  if (failed)
+  if (calendar.isPending) return <LoadingState label="Loading the calendar…" />;
+  if (!data)
     return (
-      <ErrorState error={failed.error} onRetry={() => void failed.refetch()} />
+      <ErrorState
+        error={calendar.error}
+        onRetry={() => void calendar.refetch()}
+      />
     );
 
   const programmeOf = (jobId: string) =>
-    programmes.find((p) => p.jobId === jobId);
+    queryClient.fetchQuery(calendarProgrammeQueryOptions(jobId));
+  const onMoveStart = (entry: Entry) =>
+    void queryClient.prefetchQuery(calendarProgrammeQueryOptions(entry.jobId));
 
-  const onMove = (entry: Entry, date: string) => {
-    const p = programmeOf(entry.jobId);
-    if (!p) return;
+  const onMove = async (entry: Entry, date: string): Promise<boolean> => {
     setSaved(null);
     setSaveError(null);
+    let programme: ProgrammeResponse;
+    setWorking(true);
+    try {
+      programme = await programmeOf(entry.jobId);
+    } catch (error) {
+      setPending(null);
+      setPreviewError(errorMessage(error));
+      return false;
+    } finally {
+      setWorking(false);
+    }
     try {
       setPending({
         jobId: entry.jobId,
-        preview: previewMove(p, entry.taskId, date),
+        programme,
+        preview: previewMove(programme, entry.taskId, date),
       });
       setPreviewError(null);
+      return true;
     } catch (error) {
       setPending(null);
       setPreviewError(
@@ -197,6 +209,7 @@ export function PlanCalendar({
           ? error.problems.join(" ")
           : errorMessage(error),
       );
+      return false;
     }
   };
   const cancel = () => {
@@ -205,11 +218,12 @@ export function PlanCalendar({
   };
   const save = async () => {
     if (!pending) return;
-    const p = programmeOf(pending.jobId);
-    if (!p) return;
+    const p = pending.programme;
     const task = p.tasks.find((t) => t.id === pending.preview.taskId);
     setSaveError(null);
     try {
+      // Resolves once the calendar's range has been read again, so the preview gives way to
+      // the saved dates without the moved tasks jumping back in between.
       const answer = await apply.mutateAsync({
         jobId: pending.jobId,
         body: {
@@ -233,8 +247,13 @@ export function PlanCalendar({
     }
   };
 
-  const pendingProgramme = pending ? programmeOf(pending.jobId) : undefined;
-  const nothing = programmes.every((p) => p.tasks.length === 0);
+  if (scope === "workshop" && jobs.length === 0)
+    return (
+      <EmptyState title="No live jobs yet">
+        Once a job has a programme, its tasks and bookings show here.
+      </EmptyState>
+    );
+  const nothing = jobs.every((j) => j.taskCount === 0);
 
   return (
     <div className="flex flex-col gap-4">
@@ -261,9 +280,9 @@ export function PlanCalendar({
           onChange={(e) => setBusiness(e.target.value)}
         >
           <option value="">Every business</option>
-          {businesses.map(([id, name]) => (
-            <option key={id} value={id}>
-              {name}
+          {businesses.map((b) => (
+            <option key={b.id} value={b.id}>
+              {b.name}
             </option>
           ))}
         </Select>
@@ -304,10 +323,15 @@ export function PlanCalendar({
           <ImpactSummary programme={saved.programme} impact={saved.impact} />
         </div>
       ) : null}
+      {working ? (
+        <p role="status" className="text-sm text-ink-soft">
+          Working out the knock-on…
+        </p>
+      ) : null}
       <FormError message={previewError} />
-      {pending && pendingProgramme ? (
+      {pending ? (
         <KnockOnPanel
-          programme={pendingProgramme}
+          programme={pending.programme}
           preview={pending.preview}
           saving={apply.isPending}
           error={saveError}
@@ -324,12 +348,17 @@ export function PlanCalendar({
         <CalendarView
           entries={entries}
           marks={marks}
+          range={range}
+          onRangeChange={setRange}
+          loading={calendar.isPlaceholderData}
+          onMoveStart={onMoveStart}
           onMove={onMove}
           renderMove={(e) => (
             <MoveControl
               key={`${e.id}:${e.start}`}
               entry={e}
-              onPreview={onMove}
+              onOpen={onMoveStart}
+              onPreview={(entry, date) => void onMove(entry, date)}
             />
           )}
           emptyText="Nothing in these days for the filters chosen."

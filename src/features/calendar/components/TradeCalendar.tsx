@@ -1,64 +1,32 @@
 import { useMemo } from "react";
-import type { JobDetail } from "../../../../shared/schemas";
 import { EmptyState, ErrorState, LoadingState } from "../../../components/ui";
-import { useJobDetails } from "../api/get-job-details";
-import { useCalendarJobs } from "../api/list-jobs";
-import { useMyDaysOff } from "../api/my-days-off";
-import {
-  addDays,
-  entriesOfJobBookings,
-  holidayMarks,
-  todayDate,
-  type DayMark,
-} from "../model";
-import { CalendarView } from "./CalendarView";
+import { useCalendarRange } from "../api/get-calendar";
+import { asEntries } from "../model";
+import { CalendarView, useDayRange } from "./CalendarView";
 
 /** A trade's own visits from every workshop they work for, in one view (read-only). */
 export function TradeCalendar() {
-  const jobs = useCalendarJobs();
-  const tradeJobs = (jobs.data ?? []).filter((j) => j.viewerRole === "trade");
-  const details = useJobDetails(tradeJobs.map((j) => j.id));
-  const dataKey = details.map((q) => q.dataUpdatedAt).join(",");
-  const entries = useMemo(
-    () =>
-      details
-        .map((q) => q.data)
-        .filter((d): d is JobDetail => !!d)
-        .flatMap(entriesOfJobBookings),
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-    [dataKey],
-  );
-  const daysOff = useMyDaysOff();
-  const marks = useMemo<DayMark[]>(() => {
-    const today = todayDate();
-    const regions = details
-      .map((q) => q.data?.holidayRegion)
-      .filter((r): r is NonNullable<typeof r> => !!r);
-    return [
-      ...holidayMarks(regions, addDays(today, -60), addDays(today, 400)),
-      ...(daysOff.data?.daysOff ?? []).map((date): DayMark => ({
-        date,
-        kind: "day-off",
-        label: "Your day off",
-      })),
-    ];
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [daysOff.data, dataKey]);
+  const [range, setRange] = useDayRange();
+  const calendar = useCalendarRange({ scope: "me", ...range });
+  const data = calendar.data;
+  const entries = useMemo(() => asEntries(data?.entries ?? []), [data]);
 
-  if (jobs.isPending || details.some((q) => q.isPending))
-    return <LoadingState label="Loading your visits…" />;
-  const failed = jobs.isError ? jobs : details.find((q) => q.isError);
-  if (failed)
+  if (calendar.isPending) return <LoadingState label="Loading your visits…" />;
+  if (!data)
     return (
-      <ErrorState error={failed.error} onRetry={() => void failed.refetch()} />
+      <ErrorState
+        error={calendar.error}
+        onRetry={() => void calendar.refetch()}
+      />
     );
-  if (entries.length === 0)
+  // No booking on any day (not only the ones in view): nothing to show yet.
+  if (data.jobs.length === 0)
     return (
       <EmptyState title="No visits booked yet">
         When a workshop books you for a job, the visit shows here.
       </EmptyState>
     );
-  const workshops = [...new Set(tradeJobs.map((j) => j.workshopName))];
+  const workshops = [...new Set(data.jobs.map((j) => j.workshopName))];
   return (
     <div className="flex flex-col gap-3">
       <p className="text-sm text-ink-soft">
@@ -67,7 +35,10 @@ export function TradeCalendar() {
       </p>
       <CalendarView
         entries={entries}
-        marks={marks}
+        marks={data.marks}
+        range={range}
+        onRangeChange={setRange}
+        loading={calendar.isPlaceholderData}
         emptyText="No visits in these days."
       />
     </div>

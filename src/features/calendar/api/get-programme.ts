@@ -1,4 +1,4 @@
-import { queryOptions, useQueries } from "@tanstack/react-query";
+import { queryOptions } from "@tanstack/react-query";
 import type { ProgrammeResponse } from "../../../../shared/schemas";
 import { api } from "../../../lib/api-client";
 import { calendarKeys } from "./keys";
@@ -15,15 +15,12 @@ export function getProgramme(
   return api.get<ProgrammeResponse>(`${jobPath(jobId)}/programme`, signal);
 }
 
+/**
+ * One job's programme, asked for only when a drag or Move of one of its tasks starts: the
+ * knock-on preview runs the engine on its input (the calendar itself needs no programme).
+ */
 export const calendarProgrammeQueryOptions = (jobId: string) =>
   queryOptions({
     queryKey: calendarKeys.programme(jobId),
     queryFn: ({ signal }) => getProgramme(jobId, signal),
   });
-
-/** Each job's programme (a workshop has a handful of live jobs: one request each). */
-export function useProgrammes(jobIds: string[]) {
-  return useQueries({
-    queries: jobIds.map((id) => calendarProgrammeQueryOptions(id)),
-  });
-}
