@@ -1,3 +1,4 @@
+import { statesWhere } from "../bookings/lifecycle";
 import { z } from "zod";
 import {
   bookingStates,
@@ -152,13 +153,8 @@ export function lastDayOf(finish: string): string {
 }
 
 /** Booking states a workshop calendar draws on the booked task (the others leave it unbooked). */
-export const calendarShownBookingStates: readonly BookingState[] = [
-  "draft",
-  "sent",
-  "confirmed",
-  "date-proposed",
-  "needs-reconfirming",
-];
+export const calendarShownBookingStates: readonly BookingState[] =
+  statesWhere("onCalendar");
 
 /** One task of a programme with what the calendar needs of it and its booking. */
 export interface CalendarTask {
