@@ -60,6 +60,12 @@ export const timelineVisitSchema = z.object({
   arrival: arrivalSchema,
   /** What to prepare (the task's note for the customer); null when there is nothing to do. */
   prepare: z.string().nullable(),
+  /**
+   * The days are settled: the trade has confirmed them (the workshop's own visits are its own
+   * plan). False while a booking is unanswered, proposed otherwise or moved and not yet
+   * re-confirmed: the customer is told "to be confirmed" (the booking lifecycle's customerSees).
+   */
+  settled: z.boolean(),
   /** The visit is over (its last day has passed, or the workshop marked it done). */
   past: z.boolean(),
   /** Since the person last looked: a new visit, or one whose days or arrival changed. */

@@ -140,6 +140,12 @@ describe("the customer's timeline on a phone", () => {
     expect(await coving.getByTestId("visit-prepare").textContent()).toBe(
       "Expect dust: keep the room closed and pets out.",
     );
+    // Issue 16: the template is sent and not answered, so it is to be confirmed; the coving is
+    // confirmed and says nothing of the kind.
+    expect(await template.getByTestId("visit-unsettled").textContent()).toBe(
+      "To be confirmedAshby Plaster & Coving has not confirmed these days yet, so they may still change.",
+    );
+    expect(await coving.getByTestId("visit-unsettled").count()).toBe(0);
 
     const secondFix = visitCard(
       page,

@@ -78,6 +78,7 @@ describe("changes since the last look", () => {
     finish: "2027-01-12T12:00",
     arrival: { window: "morning", from: null, to: null },
     prepare: null,
+    settled: true,
     done: false,
     ...o,
   });

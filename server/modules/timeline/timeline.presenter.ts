@@ -20,6 +20,8 @@ export interface VisitRow {
   prepare: string | null;
   /** The task is marked done. */
   done: boolean;
+  /** The days are settled (see TimelineVisit.settled). */
+  settled: boolean;
 }
 
 /** An ISO date `n` calendar days on (wall-clock dates, so computed at UTC noon). */
@@ -132,6 +134,7 @@ export function presentTimeline(ctx: {
         finish: r.finish,
         arrival: r.arrival,
         prepare: r.prepare,
+        settled: r.settled,
         past,
         change: changeOf(r, seen, past),
         awayDays: past ? [] : awayDaysOf(r, away),

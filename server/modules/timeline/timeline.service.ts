@@ -1,3 +1,4 @@
+import { bookingStateTraits } from "../../../shared/bookings/lifecycle";
 import { In, type DataSource, type EntityManager } from "typeorm";
 import {
   AWAY_MAX_DAYS_AHEAD,
@@ -89,6 +90,7 @@ async function visitRows(
       },
       prepare: task.customerNote.trim() || null,
       done: !!task.actualFinish,
+      settled: bookingStateTraits[b.state].customerSees === "confirmed",
     });
   }
   const own = tasks.filter(
@@ -111,6 +113,7 @@ async function visitRows(
         arrival: workshopArrival(r.plannedStart, r.plannedFinish, workshop),
         prepare: t.customerNote.trim() || null,
         done: !!t.actualFinish,
+        settled: true,
       });
     }
   }

@@ -75,3 +75,10 @@ export function plusDays(date: string, n: number): string {
   d.setUTCDate(d.getUTCDate() + n);
   return d.toISOString().slice(0, 10);
 }
+
+/** A visit whose days the trade has not confirmed yet (TimelineVisit.settled false). */
+export const unsettledWords = {
+  badge: "To be confirmed",
+  line: (v: Pick<TimelineVisit, "businessName">) =>
+    `${v.businessName} has not confirmed these days yet, so they may still change.`,
+};

@@ -19,6 +19,7 @@ import {
   dayWords,
   daysWords,
   listWords,
+  unsettledWords,
   wasWords,
   whoWords,
 } from "../words";
@@ -174,6 +175,15 @@ function VisitItem({
             </>
           ) : null}
         </dl>
+        {!visit.settled && !visit.past ? (
+          <p
+            className="flex flex-wrap items-center gap-2 text-sm"
+            data-testid="visit-unsettled"
+          >
+            <StatusBadge tone="wait">{unsettledWords.badge}</StatusBadge>
+            <span>{unsettledWords.line(visit)}</span>
+          </p>
+        ) : null}
         <ChangeNote visit={visit} change={change} />
         {visit.awayDays.length ? (
           <p
