@@ -447,7 +447,7 @@ describe("the customer's job page", () => {
       "Sprayed doors",
       "Float",
       "float",
-      "To be confirmed",
+      // She is told a visit is "to be confirmed" (issue 16), never the workshop's state names.
       "Needs re-confirming",
       "Who's involved",
       "01632 960 114",

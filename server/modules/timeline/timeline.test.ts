@@ -161,6 +161,8 @@ describe("the customer's timeline", () => {
         "party",
         "past",
         "prepare",
+        // Whether the trade has confirmed the days: a yes or no, not the booking's state.
+        "settled",
         "start",
         "taskName",
       ].sort(),
