@@ -1,4 +1,8 @@
-import type { BookingMailKind } from "../../../shared/bookings/lifecycle";
+import {
+  bookingStateTraits,
+  stateIs,
+  type BookingMailKind,
+} from "../../../shared/bookings/lifecycle";
 import type { EntityManager } from "typeorm";
 import { enqueueMail } from "../../infra/outbox/outbox";
 import { escapeHtml } from "../auth/auth.service";
@@ -67,11 +71,9 @@ export function organizerAddress(
   return `booking-${bookingId}@${replyDomain}`;
 }
 
+/** The trade's PARTSTAT in the invitation, from the lifecycle table (RFC 5545 §3.2.12). */
 function partstat(b: Booking): PartStat {
-  if (b.state === "confirmed") return "ACCEPTED";
-  if (b.state === "declined") return "DECLINED";
-  if (b.state === "date-proposed") return "TENTATIVE";
-  return "NEEDS-ACTION";
+  return bookingStateTraits[b.state].partstat ?? "NEEDS-ACTION";
 }
 
 /** The iCalendar object for a booking (RFC 5545/5546): REQUEST while it stands, CANCEL when withdrawn. */
@@ -129,20 +131,70 @@ export function bookingIcs(
 
 type Kind = BookingMailKind;
 
-const subjects: Record<Kind, (c: NoticeContext, b: Booking) => string> = {
+/** What an e-mail adds to its standard words: the workshop's own note, or what happened. */
+export interface MailWords {
+  /** Typed by someone at the workshop (a reason to cancel, a word with an answer). */
+  note?: string;
+  /** What the system did and why, in its own voice (never presented as the workshop's note). */
+  why?: string;
+  /** The local date the e-mail goes out ("today" for a reminder's "Tomorrow"). */
+  today?: string;
+}
+
+/** "Tomorrow" when the visit is the calendar day after `today`, else "On Mon 7 Dec". */
+function whenDayWords(start: string, today: string | undefined): string {
+  const d = new Date(`${start.slice(0, 10)}T12:00:00Z`);
+  if (today) {
+    const next = new Date(`${today}T12:00:00Z`);
+    next.setUTCDate(next.getUTCDate() + 1);
+    if (next.toISOString().slice(0, 10) === start.slice(0, 10))
+      return "Tomorrow";
+  }
+  return `On ${dayWords(d.toISOString())}`;
+}
+
+const subjects: Record<
+  Kind,
+  (c: NoticeContext, b: Booking, w: MailWords) => string
+> = {
   invitation: (c) =>
     `${c.workshop.name}: can you do ${c.task.name} at ${c.job.area}?`,
-  updated: (c) =>
-    `${c.workshop.name}: new dates for ${c.task.name} at ${c.job.area} — please confirm again`,
-  chase: (c) => `Reminder: please answer for ${c.task.name} at ${c.job.area}`,
+  // After a move the trade confirms again; after the workshop accepts their own proposal it is settled.
+  updated: (c, b) =>
+    stateIs(b.state, "chaseable")
+      ? `${c.workshop.name}: new dates for ${c.task.name} at ${c.job.area}, please confirm again`
+      : `${c.workshop.name}: ${c.task.name} at ${c.job.area} is confirmed for ${dayWords(b.start)}`,
+  chase: (c) =>
+    `${c.workshop.name}: please answer for ${c.task.name} at ${c.job.area}`,
   cancel: (c) =>
     `${c.workshop.name}: ${c.task.name} at ${c.job.area} is cancelled`,
-  // "Tomorrow" only when the reminder goes the working day before (the workshop's setting).
-  reminder: (c, b) =>
-    `${c.workshop.reminderDays > 1 ? `Coming up ${dayWords(b.start)}` : "Tomorrow"}: ${c.task.name} at ${c.job.area}`,
+  // The day in words unless it really is tomorrow (a Monday visit reminded on Friday says Monday).
+  reminder: (c, b, w) =>
+    `${whenDayWords(b.start, w.today)}: ${c.task.name} at ${c.job.area} for ${c.workshop.name}`,
   "proposal-rejected": (c) =>
     `${c.workshop.name}: your proposed date for ${c.task.name} doesn't work`,
 };
+
+/** The e-mail's opening line, by kind and by where the booking now stands. */
+function opening(ctx: NoticeContext, b: Booking, kind: Kind): string {
+  const at = `${ctx.task.name} at ${ctx.job.area}`;
+  switch (kind) {
+    case "cancel":
+      return `${ctx.workshop.name} has cancelled ${at} (${whenWords(b)}). Nothing more to do.`;
+    case "reminder":
+      return `A reminder of your visit for ${ctx.workshop.name}: ${at}, ${whenWords(b)}.`;
+    case "updated":
+      return stateIs(b.state, "chaseable")
+        ? `The dates for ${at} have changed: now ${whenWords(b)}. Please confirm again.`
+        : `${at} is confirmed for ${whenWords(b)}. Nothing more to do.`;
+    case "proposal-rejected":
+      return `${ctx.workshop.name} can't take your proposed date for ${ctx.task.name}. The booking stays ${whenWords(b)}: please confirm it, or propose another start.`;
+    case "chase":
+      return `${ctx.workshop.name} is still waiting for your answer for ${at}: ${whenWords(b)}.`;
+    case "invitation":
+      return `${ctx.workshop.name} would like to book you for ${at}: ${whenWords(b)}.`;
+  }
+}
 
 /** Writes a booking e-mail with its calendar part to the outbox, in the caller's transaction. */
 export async function queueBookingMail(
@@ -150,38 +202,43 @@ export async function queueBookingMail(
   ctx: NoticeContext,
   b: Booking,
   kind: Kind,
-  note = "",
+  words: MailWords = {},
 ): Promise<void> {
   const method = kind === "cancel" ? "CANCEL" : "REQUEST";
+  // Still waiting for their answer: the link and the calendar app's buttons answer it. Confirmed:
+  // the link is for saying they can't make it after all. Cancelled: nothing to answer.
+  const awaitsAnswer = kind !== "cancel" && b.state !== "confirmed";
   const lines = [
     `Hello ${ctx.trade.contactName},`,
     "",
-    kind === "cancel"
-      ? `${ctx.workshop.name} has cancelled ${ctx.task.name} at ${ctx.job.area} (${whenWords(b)}).`
-      : kind === "reminder"
-        ? `A reminder of your visit: ${ctx.task.name} at ${ctx.job.area}, ${whenWords(b)}.`
-        : kind === "updated"
-          ? `The dates for ${ctx.task.name} at ${ctx.job.area} have changed: now ${whenWords(b)}. Please confirm again.`
-          : kind === "proposal-rejected"
-            ? `${ctx.workshop.name} can't take your proposed date for ${ctx.task.name}. The booking stays ${whenWords(b)}: please confirm it, or propose another start.`
-            : `${ctx.workshop.name} would like to book you for ${ctx.task.name} at ${ctx.job.area}: ${whenWords(b)}.`,
-    note ? `Note from the workshop: ${note}` : "",
+    opening(ctx, b, kind),
+    words.why ? `Why: ${words.why}.`.replace(/\.\.$/, ".") : "",
+    words.note ? `Note from ${ctx.workshop.name}: ${words.note}` : "",
     "",
     ...(kind === "cancel" ? [] : ctx.waitsOn.map((w) => `It waits for ${w}.`)),
-    ctx.showAddress && kind !== "cancel"
-      ? `Address: ${ctx.job.siteAddress}, ${ctx.job.postcode}`
-      : `Area: ${ctx.job.area} (the full address comes once you confirm)`,
+    kind === "cancel"
+      ? ""
+      : ctx.showAddress
+        ? `Address: ${ctx.job.siteAddress}, ${ctx.job.postcode}`
+        : `Area: ${ctx.job.area} (the full address comes once you confirm)`,
     ctx.link && kind !== "cancel"
-      ? `\nConfirm, say you can't make it, or propose another start: ${ctx.link}`
+      ? awaitsAnswer
+        ? `\nConfirm, say you can't make it, or propose another start: ${ctx.link}`
+        : `\nCan't make it after all, or need another day? ${ctx.link}`
       : "",
     "",
-    "The calendar invitation is attached; accepting or declining it in your calendar app answers too.",
+    kind === "cancel"
+      ? "The attached calendar update takes the visit out of your calendar."
+      : awaitsAnswer
+        ? "The calendar invitation is attached; accepting or declining it in your calendar app answers too."
+        : "The calendar invitation is attached, so the visit is in your calendar.",
   ].filter((l, i, a) => !(l === "" && a[i - 1] === ""));
+  const linkLine = (l: string) => !!ctx.link && l.includes(ctx.link);
   const text = lines.join("\n");
   const html = lines
     .map((l) =>
-      l.includes(ctx.link ?? "\u0000")
-        ? `<p><a href="${ctx.link}">Confirm, say you can't make it, or propose another start</a></p>`
+      linkLine(l)
+        ? `<p><a href="${ctx.link}">${escapeHtml(l.trim().replace(`: ${ctx.link}`, "").replace(` ${ctx.link}`, ""))}</a></p>`
         : l
           ? `<p>${escapeHtml(l)}</p>`
           : "",
@@ -191,7 +248,7 @@ export async function queueBookingMail(
   await enqueueMail(m, {
     workshopId: ctx.workshop.id,
     to: ctx.trade.email,
-    subject: subjects[kind](ctx, b),
+    subject: subjects[kind](ctx, b, words),
     text,
     html,
     calendar: { method, content: ics, filename: "invite.ics" },

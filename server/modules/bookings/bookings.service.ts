@@ -1087,7 +1087,7 @@ export async function decideProposal(
         await noticeContext(m, deps, l, link),
         b,
         "updated",
-        note || "Your proposed start is accepted.",
+        { note },
       );
       await postSystemNote(
         m,
@@ -1113,7 +1113,7 @@ export async function decideProposal(
         await noticeContext(m, deps, l, await ensureLink(m, deps, b)),
         b,
         "proposal-rejected",
-        note,
+        { note },
       );
       await postSystemNote(
         m,
@@ -1170,7 +1170,7 @@ export async function cancelBooking(
         await noticeContext(m, deps, l, null),
         b,
         "cancel",
-        reason,
+        { note: reason },
       );
     await audit(m, {
       workshopId: b.workshopId,
@@ -1339,7 +1339,7 @@ export async function reconfirmAfterChange(
       await noticeContext(m, deps, l, link),
       l.booking,
       "updated",
-      r.reason,
+      { why: r.reason },
     );
     await postSystemNote(
       m,

@@ -90,7 +90,7 @@ export async function sendDueReminders(
         link: await ensureLink(m, deps, l.booking),
         showAddress: true,
       };
-      await queueBookingMail(m, ctx, l.booking, "reminder");
+      await queueBookingMail(m, ctx, l.booking, "reminder", { today });
       await recordEvent(
         m,
         l.booking,
