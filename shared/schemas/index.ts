@@ -7,6 +7,7 @@ export * from "./jobs";
 export * from "./health";
 export * from "./mail";
 export * from "./programme";
+export * from "./programme-view";
 export * from "./starters";
 export * from "./bookings";
 export * from "./feeds";

@@ -84,7 +84,7 @@ describe("the demo job's computed programme", () => {
     expect(booking.tradeName).toBe("Ashby Plaster & Coving");
     expect(template.plannedStart).toBe(booking.start);
     // The engine input is handed to the client for instant previews: the site calendar is in it.
-    expect((p.input.calendars as { id: string }[]).map((c) => c.id)).toEqual(
+    expect(p.engine.calendars.map((c) => c.id)).toEqual(
       expect.arrayContaining(["workshop", "site"]),
     );
   });

@@ -22,6 +22,5 @@ export function useApplyChange(jobId: string) {
   return useProgrammeMutation(
     jobId,
     (body: ChangeInput) => applyChange(jobId, body),
-    (a) => a.programme,
   );
 }
