@@ -68,14 +68,22 @@ export const versionSchema = z
   .int()
   .min(1);
 
-export const taskFieldsSchema = z.object({
+const taskFields = {
   name: z.string().trim().min(1, "Give the task a name").max(160),
   party: partySchema,
   durationDays: durationSchema,
-  notEarlierThan: isoDateSchema.nullable().default(null),
-  customerNote: z.string().max(1000).default(""),
-  internalNote: z.string().max(2000).default(""),
-  hazards: z.array(hazardSchema).max(3).default([]),
+  notEarlierThan: isoDateSchema.nullable(),
+  customerNote: z.string().max(1000),
+  internalNote: z.string().max(2000),
+  hazards: z.array(hazardSchema).max(3),
+};
+
+export const taskFieldsSchema = z.object({
+  ...taskFields,
+  notEarlierThan: taskFields.notEarlierThan.default(null),
+  customerNote: taskFields.customerNote.default(""),
+  internalNote: taskFields.internalNote.default(""),
+  hazards: taskFields.hazards.default([]),
 });
 
 export const createTaskBodySchema = taskFieldsSchema.extend({
@@ -83,7 +91,10 @@ export const createTaskBodySchema = taskFieldsSchema.extend({
 });
 export type CreateTaskBody = z.input<typeof createTaskBodySchema>;
 
-export const updateTaskBodySchema = taskFieldsSchema
+// Without the new task's defaults: zod's `.partial()` keeps a field's default, so an edit sending
+// only the duration used to clear the task's hazards, notes and "not earlier than".
+export const updateTaskBodySchema = z
+  .object(taskFields)
   .partial()
   .extend({ version: versionSchema });
 
