@@ -19,8 +19,7 @@ export function applyChange(
 }
 
 export function useApplyChange(jobId: string) {
-  return useProgrammeMutation(
-    jobId,
-    (body: ChangeInput) => applyChange(jobId, body),
+  return useProgrammeMutation(jobId, (body: ChangeInput) =>
+    applyChange(jobId, body),
   );
 }

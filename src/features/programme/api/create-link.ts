@@ -17,8 +17,7 @@ export function createLink(
 }
 
 export function useCreateLink(jobId: string) {
-  return useProgrammeMutation(
-    jobId,
-    (body: CreateLinkInput) => createLink(jobId, body),
+  return useProgrammeMutation(jobId, (body: CreateLinkInput) =>
+    createLink(jobId, body),
   );
 }

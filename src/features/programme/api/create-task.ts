@@ -19,8 +19,7 @@ export function createTask(
 }
 
 export function useCreateTask(jobId: string) {
-  return useProgrammeMutation(
-    jobId,
-    (body: CreateTaskInput) => createTask(jobId, body),
+  return useProgrammeMutation(jobId, (body: CreateTaskInput) =>
+    createTask(jobId, body),
   );
 }

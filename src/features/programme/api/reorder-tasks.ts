@@ -20,8 +20,7 @@ export function reorderTasks(
 }
 
 export function useReorderTasks(jobId: string) {
-  return useProgrammeMutation(
-    jobId,
-    (body: ReorderInput) => reorderTasks(jobId, body),
+  return useProgrammeMutation(jobId, (body: ReorderInput) =>
+    reorderTasks(jobId, body),
   );
 }
