@@ -8,6 +8,7 @@ export * from "./health";
 export * from "./mail";
 export * from "./programme";
 export * from "./programme-view";
+export * from "./cautions";
 export * from "./starters";
 export * from "./bookings";
 export * from "./feeds";

@@ -54,7 +54,6 @@ function task(
     customerNote: "",
     internalNote: "",
     hazards: [],
-    caution: null,
     booking: null,
     ...o,
   };

@@ -10,6 +10,7 @@ export const slotInstantSchema = z
   );
 
 export const hazardSchema = z.enum(["electrical", "height", "tall-unit"]);
+export type Hazard = z.infer<typeof hazardSchema>;
 export const linkKindSchema = z.enum(["FS", "SS", "FF"]);
 export const lagUnitSchema = z.enum(["workingDays", "elapsedHours"]);
 
@@ -219,7 +220,6 @@ export const programmeTaskSchema = z.object({
   customerNote: z.string(),
   internalNote: z.string(),
   hazards: z.array(hazardSchema),
-  caution: z.string().nullable(),
   booking: z
     .object({
       id: z.string(),

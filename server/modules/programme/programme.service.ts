@@ -32,7 +32,6 @@ import { Job } from "../jobs/jobs.entity";
 import { jobResource } from "../jobs/job-access";
 import { User } from "../users/users.entity";
 import { Workshop } from "../workshops/workshops.entity";
-import { cautionFor } from "./cautions";
 import { loadProgramme, type ProgrammeData } from "./programme-input";
 import { Task, TaskLink } from "./programme.entity";
 import { noteDay, postSystemNote } from "../thread/thread-notes";
@@ -76,7 +75,6 @@ function present(
         customerNote: t.customerNote,
         internalNote: t.internalNote,
         hazards: t.hazards,
-        caution: cautionFor(t.party, t.hazards),
         booking: b
           ? {
               id: b.id,

@@ -12,6 +12,7 @@ import {
 } from "../../../tests/factories/demo-scenario";
 import {
   applyProgrammeEdit,
+  cautionFor,
   type ProgrammeEdit,
   type ProgrammeResponse,
 } from "../../../shared/schemas";
@@ -150,10 +151,13 @@ describe("starting programmes", () => {
     const coving = resultOf(p, "Fit coving & make good");
     const paint = resultOf(p, "Fill, caulk & paint");
     expect(paint.earlyStart > coving.earlyFinish).toBe(true);
-    expect(
-      p.tasks.find((x) => x.name === "Electrician first fix (cabinet lights)")!
-        .caution,
-    ).toMatch(/qualified, registered electrician/);
+    // The screen words the caution from the task's party and hazards (shared `cautionFor`).
+    const firstFix = p.tasks.find(
+      (x) => x.name === "Electrician first fix (cabinet lights)",
+    )!;
+    expect(cautionFor(firstFix.party, firstFix.hazards)).toMatch(
+      /qualified, registered electrician/,
+    );
   });
 
   it("refuses a starter whose link names a missing task, naming the field", async () => {

@@ -40,7 +40,7 @@ import { listJobDrawings } from "../drawings/drawings.service";
 import { ACTIVE_STATES, jobResource } from "../jobs/job-access";
 import { Job } from "../jobs/jobs.entity";
 import { localToday } from "../jobs/jobs.presenter";
-import { cautionFor } from "../programme/cautions";
+import { cautionFor } from "../../../shared/schemas";
 import {
   loadProgramme,
   type ProgrammeData,
