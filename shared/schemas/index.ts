@@ -7,6 +7,8 @@ export * from "./jobs";
 export * from "./health";
 export * from "./mail";
 export * from "./programme";
+export * from "./programme-view";
+export * from "./cautions";
 export * from "./starters";
 export * from "./bookings";
 export * from "./feeds";

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { isoDateSchema, partySchema } from "./common";
+import { holidayRegionSchema, isoDateSchema, partySchema } from "./common";
 
 /** A date (that morning / that day's end) or a date-time on a slot boundary, local to the job. */
 export const slotInstantSchema = z
@@ -10,6 +10,7 @@ export const slotInstantSchema = z
   );
 
 export const hazardSchema = z.enum(["electrical", "height", "tall-unit"]);
+export type Hazard = z.infer<typeof hazardSchema>;
 export const linkKindSchema = z.enum(["FS", "SS", "FF"]);
 export const lagUnitSchema = z.enum(["workingDays", "elapsedHours"]);
 
@@ -68,14 +69,22 @@ export const versionSchema = z
   .int()
   .min(1);
 
-export const taskFieldsSchema = z.object({
+const taskFields = {
   name: z.string().trim().min(1, "Give the task a name").max(160),
   party: partySchema,
   durationDays: durationSchema,
-  notEarlierThan: isoDateSchema.nullable().default(null),
-  customerNote: z.string().max(1000).default(""),
-  internalNote: z.string().max(2000).default(""),
-  hazards: z.array(hazardSchema).max(3).default([]),
+  notEarlierThan: isoDateSchema.nullable(),
+  customerNote: z.string().max(1000),
+  internalNote: z.string().max(2000),
+  hazards: z.array(hazardSchema).max(3),
+};
+
+export const taskFieldsSchema = z.object({
+  ...taskFields,
+  notEarlierThan: taskFields.notEarlierThan.default(null),
+  customerNote: taskFields.customerNote.default(""),
+  internalNote: taskFields.internalNote.default(""),
+  hazards: taskFields.hazards.default([]),
 });
 
 export const createTaskBodySchema = taskFieldsSchema.extend({
@@ -83,7 +92,10 @@ export const createTaskBodySchema = taskFieldsSchema.extend({
 });
 export type CreateTaskBody = z.input<typeof createTaskBodySchema>;
 
-export const updateTaskBodySchema = taskFieldsSchema
+// Without the new task's defaults: zod's `.partial()` keeps a field's default, so an edit sending
+// only the duration used to clear the task's hazards, notes and "not earlier than".
+export const updateTaskBodySchema = z
+  .object(taskFields)
   .partial()
   .extend({ version: versionSchema });
 
@@ -208,7 +220,6 @@ export const programmeTaskSchema = z.object({
   customerNote: z.string(),
   internalNote: z.string(),
   hazards: z.array(hazardSchema),
-  caution: z.string().nullable(),
   booking: z
     .object({
       id: z.string(),
@@ -231,7 +242,42 @@ export const programmeLinkSchema = z.object({
   lagUnit: lagUnitSchema,
 });
 
-/** A job's programme: what is stored, the engine's input (for instant previews) and its result. */
+/** A calendar as the engine reads it (`CalendarInput`), as the server builds them. */
+const engineCalendarSchema = z.object({
+  id: z.string(),
+  workingWeekdays: z.array(z.number().int()),
+  dayStart: z.string(),
+  dayEnd: z.string(),
+  holidayRegion: holidayRegionSchema.nullable(),
+  daysOff: z.array(z.string()),
+});
+
+/**
+ * The part of the engine input that `tasks` and `links` do not already say (issue 15: the input
+ * used to repeat every task and link). `engineInputOf` (shared/schemas/programme-view.ts) puts the
+ * exact input the server scheduled back together from the whole response.
+ */
+export const programmeEngineSchema = z.object({
+  /** The workshop's, the site's and each booked trade's (`trade:<tradeId>`) calendar. */
+  calendars: z.array(engineCalendarSchema),
+  /** The booked trades' time held elsewhere (other jobs, other workshops as "busy"). */
+  busy: z.array(
+    z.object({
+      resource: z.string(),
+      start: z.string(),
+      finish: z.string(),
+      ref: z.string(),
+    }),
+  ),
+  /** The engine's resource name of each booked trade (its business name, made unique), by trade id. */
+  resources: z.record(z.string(), z.string()),
+});
+export type ProgrammeEngine = z.infer<typeof programmeEngineSchema>;
+
+/**
+ * A job's programme: what is stored (tasks, links), what else the engine needs (`engine`, so the
+ * client re-runs the same engine for instant previews) and the server's result.
+ */
 export const programmeResponseSchema = z.object({
   jobId: z.string(),
   version: z.number(),
@@ -240,8 +286,7 @@ export const programmeResponseSchema = z.object({
   timeZone: z.string(),
   tasks: z.array(programmeTaskSchema),
   links: z.array(programmeLinkSchema),
-  /** The exact engine input the server scheduled: the client re-runs the engine on it for what-ifs. */
-  input: z.record(z.string(), z.unknown()),
+  engine: programmeEngineSchema,
   result: programmeResultSchema,
 });
 export type ProgrammeResponse = z.infer<typeof programmeResponseSchema>;
@@ -278,7 +323,49 @@ export const previewResponseSchema = z.object({
   impact: impactSchema,
   result: programmeResultSchema,
 });
-export const applyResponseSchema = z.object({
+
+/**
+ * What one programme edit changed (issue 15), instead of the whole programme: the tasks and
+ * links added or changed (whole rows) or removed, the results that differ (moved dates, floats,
+ * readiness, problems), the finish and handover slip, and the new `version`. The client lays it
+ * over its cached programme with `applyProgrammeEdit` when `version` is its own + 1, and reloads
+ * otherwise. Built on the server by `programmeEditOf(before, after)`.
+ */
+export const programmeEditSchema = z.object({
+  jobId: z.string(),
+  /** The job's version after this edit. */
+  version: z.number(),
+  dataDate: z.string(),
+  handover: z.string().nullable(),
+  timeZone: z.string(),
+  /** Tasks added or changed, whole (a reorder lists every task whose place moved). */
+  tasks: z.array(programmeTaskSchema),
+  removedTaskIds: z.array(z.string()),
+  /** Every task id in order, only when merging would not give the server's order by itself. */
+  taskOrder: z.array(z.string()).optional(),
+  /** Links added or changed, whole. */
+  links: z.array(programmeLinkSchema),
+  removedLinkIds: z.array(z.string()),
+  /** Every link id in order, only when merging would not give the server's order by itself. */
+  linkOrder: z.array(z.string()).optional(),
+  /** Only when it changed (a moved booking, another trade's calendar…). */
+  engine: programmeEngineSchema.optional(),
+  result: z.object({
+    finish: z.string().nullable(),
+    handoverSlipDays: z.number().nullable(),
+    /** Only when it changed. */
+    criticalPath: z.array(z.string()).optional(),
+    /** The results of added tasks and of every task whose result differs. */
+    tasks: z.array(taskResultSchema),
+  }),
+});
+export type ProgrammeEdit = z.infer<typeof programmeEditSchema>;
+
+/** A new task's answer: its id and what changed. */
+export const createTaskResponseSchema = programmeEditSchema.extend({
+  taskId: z.string(),
+});
+/** An applied move's answer: the server's own knock-on and what changed. */
+export const applyResponseSchema = programmeEditSchema.extend({
   impact: impactSchema,
-  programme: programmeResponseSchema,
 });

@@ -7,12 +7,21 @@ import {
   type ProgrammeInput,
   type ProgrammeResult,
 } from "../../shared/programme";
-import type { ProgrammeResponse } from "../../shared/schemas";
+import { engineInputOf, type ProgrammeResponse } from "../../shared/schemas";
 import { formatDateShort } from "./format";
 
-/** The engine input the server scheduled (the API types it loosely; it is the engine's shape). */
+// A cached programme is never changed in place (an edit makes a new object), so its input can be
+// rebuilt once and kept for as long as the object lives.
+const inputs = new WeakMap<ProgrammeResponse, ProgrammeInput>();
+
+/** The exact engine input the server scheduled, rebuilt from the response (`engineInputOf`). */
 export function engineInput(p: ProgrammeResponse): ProgrammeInput {
-  return p.input as unknown as ProgrammeInput;
+  let input = inputs.get(p);
+  if (!input) {
+    input = engineInputOf(p);
+    inputs.set(p, input);
+  }
+  return input;
 }
 
 /** The date part of a local instant ("2026-03-05T12:00" → "2026-03-05"). */

@@ -13,10 +13,11 @@ import path from "node:path";
 import sharp from "sharp";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Locator, Page } from "playwright-core";
-import type {
-  DrawingDetail,
-  JobSummary,
-  ProgrammeResponse,
+import {
+  cautionFor,
+  type DrawingDetail,
+  type JobSummary,
+  type ProgrammeResponse,
 } from "../../shared/schemas";
 import { startTestApp, type TestApp } from "../setup/test-app";
 import { sampleDxf } from "../setup/uploads";
@@ -395,8 +396,9 @@ describe("scenario 5: drawings and templates", () => {
         .filter({ has: page.getByRole("heading", { name, exact: true }) });
       await visible(li.getByText(expected, { exact: true }));
       // Both coving tasks are done at height: the caution from the task's brief is shown.
-      expect(task.caution).toBeTruthy();
-      await visible(li.getByText(task.caution!));
+      const caution = cautionFor(task.party, task.hazards);
+      expect(caution).toBeTruthy();
+      await visible(li.getByText(caution!));
     }
     await visible(
       page
@@ -723,7 +725,9 @@ describe("scenario 5: drawings and templates", () => {
     const carcasses = programme.tasks.find(
       (x) => x.name === "Fix carcasses & scribes",
     )!;
-    await visible(page.getByText(carcasses.caution!));
+    await visible(
+      page.getByText(cautionFor(carcasses.party, carcasses.hazards)!),
+    );
     await visible(
       page.getByText(expectedReadiness(programme, carcasses.id), {
         exact: true,

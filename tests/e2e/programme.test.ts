@@ -3,7 +3,7 @@
 // then saved, reloaded and seen the same. Chromium against the built client, production CSP.
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, Locator, Page } from "playwright-core";
+import type { Browser, Locator, Page, Request } from "playwright-core";
 import { workingDaysBetween } from "../../shared/programme";
 import { startTestApp, type TestApp } from "../setup/test-app";
 import { demoAccounts } from "../factories/demo-scenario";
@@ -88,6 +88,28 @@ async function columnX(page: Page, date: string): Promise<number> {
   return box.x;
 }
 
+/**
+ * Watches for the page reading a whole programme (GET /api/jobs/:id/programme); `stop` ends the
+ * watch and gives the reads seen. Edits answer with what changed, so saving needs none.
+ */
+function programmeReads(page: Page): { stop: () => string[] } {
+  const reads: string[] = [];
+  const onRequest = (r: Request) => {
+    if (
+      r.method() === "GET" &&
+      /^\/api\/jobs\/[^/]+\/programme$/.test(new URL(r.url()).pathname)
+    )
+      reads.push(r.url());
+  };
+  page.on("request", onRequest);
+  return {
+    stop: () => {
+      page.off("request", onRequest);
+      return reads;
+    },
+  };
+}
+
 describe("the maker's programme screen", () => {
   let jobUrl = "";
 
@@ -157,12 +179,16 @@ describe("the maker's programme screen", () => {
     await linkForm
       .getByLabel("When it can go")
       .selectOption({ label: "after it finishes" });
+    // The answer is what changed, laid over the cached programme: the page shows the link and
+    // its knock-on without reading the programme again (issue 15).
+    let reads = programmeReads(page);
     await linkForm.getByRole("button", { name: "Add link" }).click();
     await visible(
       taskItem(page, "Electrician second fix").getByText(
         "Waits for Fill, caulk & paint — finish-to-start",
       ),
     );
+    expect(reads.stop()).toEqual([]);
 
     // What the survey and the programme's finish are now, read from the page.
     const surveyLabel = (await bar(page, "Survey & measure").getAttribute(
@@ -261,6 +287,7 @@ describe("the maker's programme screen", () => {
     );
     expect(still.result.finish.slice(0, 10)).toBe(finishDate);
 
+    reads = programmeReads(page);
     await panel.getByRole("button", { name: "Save the move" }).click();
     await panel.waitFor({ state: "detached" });
     await visible(
@@ -272,6 +299,7 @@ describe("the maker's programme screen", () => {
         .getByRole("status")
         .getByText(`Handover moves from ${dayText(finishDate)} to ${promised}`),
     );
+    expect(reads.stop()).toEqual([]);
     const after = await page.evaluate(
       async (id) => (await fetch(`/api/jobs/${id}/programme`)).json(),
       jobId,

@@ -11,7 +11,7 @@ import type {
 import { HttpError } from "../../http/errors";
 import { lockingTransaction } from "../../db/locks";
 import { loadProgramme } from "../programme/programme-input";
-import { cautionFor } from "../programme/cautions";
+import { cautionFor } from "../../../shared/schemas";
 import { schedule } from "../programme/programme.service";
 import { localToday } from "../jobs/jobs.presenter";
 import { hashLinkToken } from "./booking-links";

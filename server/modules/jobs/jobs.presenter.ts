@@ -8,7 +8,7 @@ import type {
 } from "../../../shared/schemas";
 import type { Booking } from "../bookings/bookings.entity";
 import type { Customer } from "../customers/customers.entity";
-import { cautionFor } from "../programme/cautions";
+import { cautionFor } from "../../../shared/schemas";
 import type { Task, TaskLink } from "../programme/programme.entity";
 import type { Trade } from "../trades/trades.entity";
 import type { Workshop } from "../workshops/workshops.entity";

@@ -1,11 +1,12 @@
 import { statesWhere } from "../../../shared/bookings/lifecycle";
 import { In, Not, type EntityManager } from "typeorm";
-import type {
-  BusyInput,
-  CalendarInput,
-  ProgrammeInput,
-  TaskInput,
-} from "../../../shared/programme";
+import type { BusyInput, ProgrammeInput } from "../../../shared/programme";
+import {
+  type ProgrammeEngine,
+  linkEngineInput,
+  taskEngineInput,
+  tradeCalendarId,
+} from "../../../shared/schemas";
 import { Booking } from "../bookings/bookings.entity";
 import type { Job } from "../jobs/jobs.entity";
 import { localToday } from "../jobs/jobs.presenter";
@@ -22,6 +23,8 @@ export interface ProgrammeData {
   /** The booking that holds each task, if any (latest pinning one). */
   bookingByTask: Map<string, Booking>;
   trades: Map<string, Trade>;
+  /** What the engine needs beyond the tasks and links (calendars, busy time, resource names). */
+  engine: ProgrammeEngine;
   input: ProgrammeInput;
 }
 
@@ -132,16 +135,16 @@ function programmeData(
   const bookingByTask = new Map(bookings.map((b) => [b.taskId, b]));
   const trades = new Map(tradeList.map((t) => [t.id, t]));
   // Resource ids double as the name in clash messages ("Ashby Plaster & Coving is already booked …").
-  const resourceOf = new Map<string, string>();
+  const resources: Record<string, string> = {};
   const used = new Set<string>();
   for (const t of tradeList) {
     let name = t.businessName;
     for (let k = 2; used.has(name); k++) name = `${t.businessName} (${k})`;
     used.add(name);
-    resourceOf.set(t.id, name);
+    resources[t.id] = name;
   }
 
-  const calendars: CalendarInput[] = [
+  const calendars: ProgrammeEngine["calendars"] = [
     {
       id: "workshop",
       workingWeekdays: workshop.workingWeekdays,
@@ -159,7 +162,7 @@ function programmeData(
       daysOff: job.siteClosedDates,
     },
     ...tradeList.map((t) => ({
-      id: `trade:${t.id}`,
+      id: tradeCalendarId(t.id),
       workingWeekdays: t.workingWeekdays,
       dayStart: t.dayStart,
       dayEnd: t.dayEnd,
@@ -168,30 +171,29 @@ function programmeData(
     })),
   ];
 
-  const taskInputs: TaskInput[] = tasks.map((t) => {
+  // The one rule for a task's calendars, resource and pin, shared with the client's rebuild.
+  const taskInputs = tasks.map((t) => {
     const booking = bookingByTask.get(t.id);
-    const calendar =
-      t.party === "workshop"
-        ? ["workshop", "site"]
-        : booking
-          ? [`trade:${booking.tradeId}`, "site"]
-          : ["site"];
-    return {
-      id: t.id,
-      name: t.name,
-      calendar,
-      durationDays: Number(t.durationDays),
-      resource: booking ? resourceOf.get(booking.tradeId) : null,
-      notEarlierThan: t.notEarlierThan,
-      bookedStart: booking && !t.actualStart ? booking.start : null,
-      actualStart: t.actualStart,
-      actualFinish: t.actualFinish,
-    };
+    return taskEngineInput(
+      {
+        id: t.id,
+        name: t.name,
+        party: t.party,
+        durationDays: Number(t.durationDays),
+        notEarlierThan: t.notEarlierThan,
+        actualStart: t.actualStart,
+        actualFinish: t.actualFinish,
+        booking: booking
+          ? { tradeId: booking.tradeId, start: booking.start }
+          : null,
+      },
+      resources,
+    );
   });
 
-  const busy: BusyInput[] = [];
+  const busy: ProgrammeEngine["busy"] = [];
   for (const t of tradeList) {
-    const resource = resourceOf.get(t.id)!;
+    const resource = resources[t.id];
     for (const row of busyOf.get(t.id) ?? [])
       if (row.jobId !== job.id)
         busy.push({
@@ -208,16 +210,17 @@ function programmeData(
     handover: job.handoverDate,
     calendars,
     tasks: taskInputs,
-    links: links.map((l) => ({
-      from: l.fromTaskId,
-      to: l.toTaskId,
-      kind: l.kind,
-      lag: Number(l.lag),
-      lagUnit: l.lagUnit,
-    })),
+    links: links.map((l) => linkEngineInput({ ...l, lag: Number(l.lag) })),
     busy,
   };
-  return { tasks, links, bookingByTask, trades, input };
+  return {
+    tasks,
+    links,
+    bookingByTask,
+    trades,
+    engine: { calendars, busy, resources },
+    input,
+  };
 }
 
 /** A trade's dates held elsewhere: `jobId` is null for another workshop's booking. */

@@ -5,8 +5,10 @@ import {
   changeBodySchema,
   createLinkBodySchema,
   createTaskBodySchema,
+  createTaskResponseSchema,
   idSchema,
   previewResponseSchema,
+  programmeEditSchema,
   programmeResponseSchema,
   progressBodySchema,
   reorderBodySchema,
@@ -54,14 +56,11 @@ export function registerProgrammeRoutes(
     method: "post",
     path: "/jobs/:jobId/tasks",
     tag,
-    summary: "Add a task",
+    summary: "Add a task; answers with its id and what changed",
     params: job,
     body: createTaskBodySchema,
     status: 201,
-    response: z.object({
-      taskId: z.string(),
-      programme: programmeResponseSchema,
-    }),
+    response: createTaskResponseSchema,
     handler: async ({ actor, params, body }) =>
       createTask(ds, actor, params.jobId, body),
   });
@@ -69,10 +68,11 @@ export function registerProgrammeRoutes(
     method: "patch",
     path: "/jobs/:jobId/tasks/:taskId",
     tag,
-    summary: "Edit a task",
+    summary:
+      "Edit a task; answers with what changed (the task, moved dates, version)",
     params: task,
     body: updateTaskBodySchema,
-    response: programmeResponseSchema,
+    response: programmeEditSchema,
     handler: async ({ actor, params, body }) =>
       updateTask(ds, actor, params.jobId, params.taskId, body),
   });
@@ -83,7 +83,7 @@ export function registerProgrammeRoutes(
     summary: "Remove a task (and its links)",
     params: task,
     query: versionQuerySchema,
-    response: programmeResponseSchema,
+    response: programmeEditSchema,
     handler: async ({ actor, params, query }) =>
       deleteTask(ds, actor, params.jobId, params.taskId, query.version),
   });
@@ -94,7 +94,7 @@ export function registerProgrammeRoutes(
     summary: "Reorder the tasks",
     params: job,
     body: reorderBodySchema,
-    response: programmeResponseSchema,
+    response: programmeEditSchema,
     handler: async ({ actor, params, body }) =>
       reorderTasks(ds, actor, params.jobId, body),
   });
@@ -105,7 +105,7 @@ export function registerProgrammeRoutes(
     summary: "Mark a task started or done, with its actual dates",
     params: task,
     body: progressBodySchema,
-    response: programmeResponseSchema,
+    response: programmeEditSchema,
     handler: async ({ actor, params, body }) =>
       recordProgress(ds, actor, params.jobId, params.taskId, body),
   });
@@ -117,7 +117,7 @@ export function registerProgrammeRoutes(
     params: job,
     body: createLinkBodySchema,
     status: 201,
-    response: programmeResponseSchema,
+    response: programmeEditSchema,
     handler: async ({ actor, params, body }) =>
       createLink(ds, actor, params.jobId, body),
   });
@@ -128,7 +128,7 @@ export function registerProgrammeRoutes(
     summary: "Edit a link's kind or lag",
     params: link,
     body: updateLinkBodySchema,
-    response: programmeResponseSchema,
+    response: programmeEditSchema,
     handler: async ({ actor, params, body }) =>
       updateLink(ds, actor, params.jobId, params.linkId, body),
   });
@@ -139,7 +139,7 @@ export function registerProgrammeRoutes(
     summary: "Remove a link",
     params: link,
     query: versionQuerySchema,
-    response: programmeResponseSchema,
+    response: programmeEditSchema,
     handler: async ({ actor, params, query }) =>
       deleteLink(ds, actor, params.jobId, params.linkId, query.version),
   });

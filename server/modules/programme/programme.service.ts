@@ -10,7 +10,10 @@ import {
 } from "../../../shared/programme";
 import {
   lagProblem,
+  engineInputOf,
+  programmeEditOf,
   type ProgrammeChange,
+  type ProgrammeEdit,
   type ProgrammeResponse,
   type createLinkBodySchema,
   type createTaskBodySchema,
@@ -29,7 +32,6 @@ import { Job } from "../jobs/jobs.entity";
 import { jobResource } from "../jobs/job-access";
 import { User } from "../users/users.entity";
 import { Workshop } from "../workshops/workshops.entity";
-import { cautionFor } from "./cautions";
 import { loadProgramme, type ProgrammeData } from "./programme-input";
 import { Task, TaskLink } from "./programme.entity";
 import { noteDay, postSystemNote } from "../thread/thread-notes";
@@ -73,7 +75,6 @@ function present(
         customerNote: t.customerNote,
         internalNote: t.internalNote,
         hazards: t.hazards,
-        caution: cautionFor(t.party, t.hazards),
         booking: b
           ? {
               id: b.id,
@@ -94,7 +95,7 @@ function present(
       lag: Number(l.lag),
       lagUnit: l.lagUnit,
     })),
-    input: data.input as unknown as Record<string, unknown>,
+    engine: data.engine,
     result,
   };
 }
@@ -170,7 +171,8 @@ async function staleVersion(
  * it never queues for the lock), then lock the job row and the trades booked on it (the locking
  * rule in server/db/locks.ts), check the version again, apply, re-check the whole programme with
  * the engine (a loop → 422), bump the version and leave an audit entry. Everything inside reads
- * and writes through `m`, the transaction's one connection.
+ * and writes through `m`, the transaction's one connection. The answer is what changed between
+ * the programme at the locked version and after the edit (issue 15), not the whole programme.
  */
 async function editProgramme<T>(
   ds: DataSource,
@@ -178,8 +180,8 @@ async function editProgramme<T>(
   jobId: string,
   version: number,
   summary: string,
-  apply: (m: EntityManager, job: Job) => Promise<T>,
-): Promise<{ value: T; job: Job }> {
+  apply: (m: EntityManager, job: Job, before: ProgrammeData) => Promise<T>,
+): Promise<{ value: T; edit: ProgrammeEdit }> {
   requireActor(actor);
   const seen = await loadJob(ds.manager, jobId);
   authorize(actor, "job.update", await jobResource(ds.manager, seen));
@@ -189,9 +191,12 @@ async function editProgramme<T>(
     const job = await lockJob(m, jobId);
     if (job.version !== version) throw await staleVersion(m, job, version);
     await lockJobTrades(m, job.id);
-    const value = await apply(m, job);
     const workshop = await m.findOneByOrFail(Workshop, { id: job.workshopId });
-    schedule((await loadProgramme(m, job, workshop)).input);
+    const beforeData = await loadProgramme(m, job, workshop);
+    const before = present(job, beforeData, schedule(beforeData.input));
+    const value = await apply(m, job, beforeData);
+    const afterData = await loadProgramme(m, job, workshop);
+    const result = schedule(afterData.input);
     await m.update(Job, { id: job.id }, { version: job.version + 1 });
     job.version += 1;
     await audit(m, {
@@ -202,7 +207,10 @@ async function editProgramme<T>(
       entityId: job.id,
       detail: { jobId: job.id, toVersion: job.version, summary },
     });
-    return { value, job };
+    return {
+      value,
+      edit: programmeEditOf(before, present(job, afterData, result)),
+    };
   });
 }
 
@@ -223,7 +231,7 @@ export async function createTask(
   body: z.output<typeof createTaskBodySchema>,
 ) {
   const { version, ...fields } = body;
-  const { value } = await editProgramme(
+  const { value, edit } = await editProgramme(
     ds,
     actor,
     jobId,
@@ -249,7 +257,7 @@ export async function createTask(
       return id;
     },
   );
-  return { taskId: value, programme: await getProgramme(ds, actor, jobId) };
+  return { ...edit, taskId: value };
 }
 
 export async function updateTask(
@@ -260,7 +268,7 @@ export async function updateTask(
   body: z.output<typeof updateTaskBodySchema>,
 ) {
   const { version, ...fields } = body;
-  await editProgramme(
+  const { edit } = await editProgramme(
     ds,
     actor,
     jobId,
@@ -281,7 +289,7 @@ export async function updateTask(
       );
     },
   );
-  return getProgramme(ds, actor, jobId);
+  return edit;
 }
 
 export async function deleteTask(
@@ -291,7 +299,7 @@ export async function deleteTask(
   taskId: string,
   version: number,
 ) {
-  await editProgramme(
+  const { edit } = await editProgramme(
     ds,
     actor,
     jobId,
@@ -302,7 +310,7 @@ export async function deleteTask(
       await m.delete(Task, { id: task.id });
     },
   );
-  return getProgramme(ds, actor, jobId);
+  return edit;
 }
 
 export async function reorderTasks(
@@ -311,7 +319,7 @@ export async function reorderTasks(
   jobId: string,
   body: z.output<typeof reorderBodySchema>,
 ) {
-  await editProgramme(
+  const { edit } = await editProgramme(
     ds,
     actor,
     jobId,
@@ -336,7 +344,7 @@ export async function reorderTasks(
         await m.update(Task, { id }, { sortOrder: i + 1 });
     },
   );
-  return getProgramme(ds, actor, jobId);
+  return edit;
 }
 
 export async function createLink(
@@ -346,7 +354,7 @@ export async function createLink(
   body: z.output<typeof createLinkBodySchema>,
 ) {
   const { version, ...fields } = body;
-  await editProgramme(
+  const { edit } = await editProgramme(
     ds,
     actor,
     jobId,
@@ -377,7 +385,7 @@ export async function createLink(
       });
     },
   );
-  return getProgramme(ds, actor, jobId);
+  return edit;
 }
 
 export async function updateLink(
@@ -388,7 +396,7 @@ export async function updateLink(
   body: z.output<typeof updateLinkBodySchema>,
 ) {
   const { version, ...fields } = body;
-  await editProgramme(
+  const { edit } = await editProgramme(
     ds,
     actor,
     jobId,
@@ -412,7 +420,7 @@ export async function updateLink(
       );
     },
   );
-  return getProgramme(ds, actor, jobId);
+  return edit;
 }
 
 export async function deleteLink(
@@ -422,7 +430,7 @@ export async function deleteLink(
   linkId: string,
   version: number,
 ) {
-  await editProgramme(
+  const { edit } = await editProgramme(
     ds,
     actor,
     jobId,
@@ -434,7 +442,7 @@ export async function deleteLink(
       await m.delete(TaskLink, { id: link.id });
     },
   );
-  return getProgramme(ds, actor, jobId);
+  return edit;
 }
 
 /** Marks a task started or done (or undoes it) with its actual dates. */
@@ -450,7 +458,7 @@ export async function recordProgress(
     : body.actualStart
       ? "started"
       : "not started";
-  await editProgramme(
+  const { edit } = await editProgramme(
     ds,
     actor,
     jobId,
@@ -480,7 +488,7 @@ export async function recordProgress(
         );
     },
   );
-  return getProgramme(ds, actor, jobId);
+  return edit;
 }
 
 function withChanges(
@@ -530,7 +538,7 @@ export async function previewChange(
       `Someone else changed this programme (now version ${current.version}, you had ${version}). Reload to see it.`,
     );
   }
-  const before = current.input as unknown as ProgrammeInput;
+  const before = engineInputOf(current);
   const after = withChanges(before, changes);
   return { impact: impactOf(before, after), result: schedule(after) };
 }
@@ -552,17 +560,17 @@ export async function applyChange(
   changes: ProgrammeChange[],
   afterApply?: AfterApply,
 ) {
-  const { value: impact } = await editProgramme(
+  const { value: impact, edit } = await editProgramme(
     ds,
     actor,
     jobId,
     version,
     `moved ${changes.length === 1 ? "a task" : `${changes.length} tasks`}`,
-    async (m, job) => {
+    async (m, job, beforeData) => {
       const workshop = await m.findOneByOrFail(Workshop, {
         id: job.workshopId,
       });
-      const before = (await loadProgramme(m, job, workshop)).input;
+      const before = beforeData.input;
       for (const c of changes) {
         const task = await taskOf(m, job, c.taskId);
         await m.update(
@@ -585,5 +593,5 @@ export async function applyChange(
       return impact;
     },
   );
-  return { impact, programme: await getProgramme(ds, actor, jobId) };
+  return { ...edit, impact };
 }

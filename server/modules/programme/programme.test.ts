@@ -10,7 +10,12 @@ import {
   demoJobTitles,
   DEMO_WORKSHOP_NAME,
 } from "../../../tests/factories/demo-scenario";
-import type { ProgrammeResponse } from "../../../shared/schemas";
+import {
+  applyProgrammeEdit,
+  cautionFor,
+  type ProgrammeEdit,
+  type ProgrammeResponse,
+} from "../../../shared/schemas";
 import { AuditEntry } from "../audit/audit.entity";
 import { Customer } from "../customers/customers.entity";
 import { Job } from "../jobs/jobs.entity";
@@ -60,6 +65,19 @@ const programme = async (jobId: string): Promise<ProgrammeResponse> =>
   (await owner.agent.get(`/api/jobs/${jobId}/programme`).expect(200)).body;
 const taskId = (p: ProgrammeResponse, name: string) =>
   p.tasks.find((x) => x.name === name)!.id;
+/**
+ * The programme after an edit's answer, laid over the one before as the client does (issue 15),
+ * and checked against a fresh GET.
+ */
+async function afterEdit(
+  p: ProgrammeResponse,
+  edit: ProgrammeEdit,
+): Promise<ProgrammeResponse> {
+  expect(edit.version).toBe(p.version + 1);
+  const next = applyProgrammeEdit(p, edit);
+  expect(next).toEqual(await programme(p.jobId));
+  return next;
+}
 const resultOf = (p: ProgrammeResponse, name: string) =>
   p.result.tasks.find((x) => x.id === taskId(p, name))!;
 
@@ -84,7 +102,7 @@ describe("the demo job's computed programme", () => {
     expect(booking.tradeName).toBe("Ashby Plaster & Coving");
     expect(template.plannedStart).toBe(booking.start);
     // The engine input is handed to the client for instant previews: the site calendar is in it.
-    expect((p.input.calendars as { id: string }[]).map((c) => c.id)).toEqual(
+    expect(p.engine.calendars.map((c) => c.id)).toEqual(
       expect.arrayContaining(["workshop", "site"]),
     );
   });
@@ -133,10 +151,13 @@ describe("starting programmes", () => {
     const coving = resultOf(p, "Fit coving & make good");
     const paint = resultOf(p, "Fill, caulk & paint");
     expect(paint.earlyStart > coving.earlyFinish).toBe(true);
-    expect(
-      p.tasks.find((x) => x.name === "Electrician first fix (cabinet lights)")!
-        .caution,
-    ).toMatch(/qualified, registered electrician/);
+    // The screen words the caution from the task's party and hazards (shared `cautionFor`).
+    const firstFix = p.tasks.find(
+      (x) => x.name === "Electrician first fix (cabinet lights)",
+    )!;
+    expect(cautionFor(firstFix.party, firstFix.hazards)).toMatch(
+      /qualified, registered electrician/,
+    );
   });
 
   it("refuses a starter whose link names a missing task, naming the field", async () => {
@@ -173,7 +194,10 @@ describe("editing a programme", () => {
         durationDays: 0.5,
       });
     expect(add.status).toBe(201);
-    p = add.body.programme;
+    expect(add.body.tasks.map((x: { id: string }) => x.id)).toEqual([
+      add.body.taskId,
+    ]);
+    p = await afterEdit(p, add.body);
     const link = await owner.agent
       .post(`/api/jobs/${jobId}/links`)
       .set("X-CSRF-Token", owner.csrf)
@@ -185,7 +209,7 @@ describe("editing a programme", () => {
         lag: 0,
       });
     expect(link.status).toBe(201);
-    p = link.body;
+    p = await afterEdit(p, link.body);
     expect(
       resultOf(p, "Fit cornice returns").readiness.waitingOn.map((w) => w.task),
     ).toEqual([taskId(p, "Fit shelves & doors")]);
@@ -272,13 +296,10 @@ describe("editing a programme", () => {
       });
     expect(applied.status).toBe(200);
     expect(applied.body.impact).toEqual(preview.body.impact);
-    expect(applied.body.programme.version).toBe(p.version + 1);
-    expect(
-      resultOf(applied.body.programme, "Hang doors").plannedStart.slice(
-        0,
-        10,
-      ) >= to,
-    ).toBe(true);
+    const after = await afterEdit(p, applied.body);
+    expect(resultOf(after, "Hang doors").plannedStart.slice(0, 10) >= to).toBe(
+      true,
+    );
     const entries = await t.db.ds
       .getRepository(AuditEntry)
       .findBy({ entityId: jobId, action: "programme.changed" });
@@ -305,7 +326,7 @@ describe("editing a programme", () => {
         actualFinish: weekAgo,
       });
     expect(res.status).toBe(200);
-    p = res.body;
+    p = await afterEdit(p, res.body);
     expect(resultOf(p, "Survey & measure").readiness.state).toBe("done");
     expect(resultOf(p, "Lay floor").readiness.state).toBe("clear");
     const bad = await owner.agent
@@ -329,13 +350,16 @@ describe("editing a programme", () => {
     );
     let p = await programme(jobId);
     const reversed = [...p.tasks].reverse().map((x) => x.id);
-    p = (
-      await owner.agent
-        .put(`/api/jobs/${jobId}/tasks/order`)
-        .set("X-CSRF-Token", owner.csrf)
-        .send({ version: p.version, taskIds: reversed })
-        .expect(200)
-    ).body;
+    p = await afterEdit(
+      p,
+      (
+        await owner.agent
+          .put(`/api/jobs/${jobId}/tasks/order`)
+          .set("X-CSRF-Token", owner.csrf)
+          .send({ version: p.version, taskIds: reversed })
+          .expect(200)
+      ).body,
+    );
     expect(p.tasks.map((x) => x.id)).toEqual(reversed);
     const missing = await owner.agent
       .put(`/api/jobs/${jobId}/tasks/order`)
@@ -343,33 +367,42 @@ describe("editing a programme", () => {
       .send({ version: p.version, taskIds: reversed.slice(1) });
     expect(missing.status).toBe(422);
     const link = p.links.find((l) => l.lagUnit === "workingDays")!;
-    p = (
-      await owner.agent
-        .patch(`/api/jobs/${jobId}/links/${link.id}`)
-        .set("X-CSRF-Token", owner.csrf)
-        .send({ version: p.version, lag: 1.5 })
-        .expect(200)
-    ).body;
+    p = await afterEdit(
+      p,
+      (
+        await owner.agent
+          .patch(`/api/jobs/${jobId}/links/${link.id}`)
+          .set("X-CSRF-Token", owner.csrf)
+          .send({ version: p.version, lag: 1.5 })
+          .expect(200)
+      ).body,
+    );
     expect(p.links.find((l) => l.id === link.id)!.lag).toBe(1.5);
     const halfHour = await owner.agent
       .patch(`/api/jobs/${jobId}/links/${link.id}`)
       .set("X-CSRF-Token", owner.csrf)
       .send({ version: p.version, lag: 0.3 });
     expect(halfHour.status).toBe(400);
-    p = (
-      await owner.agent
-        .delete(`/api/jobs/${jobId}/links/${link.id}?version=${p.version}`)
-        .set("X-CSRF-Token", owner.csrf)
-        .expect(200)
-    ).body;
+    p = await afterEdit(
+      p,
+      (
+        await owner.agent
+          .delete(`/api/jobs/${jobId}/links/${link.id}?version=${p.version}`)
+          .set("X-CSRF-Token", owner.csrf)
+          .expect(200)
+      ).body,
+    );
     expect(p.links.some((l) => l.id === link.id)).toBe(false);
     const handover = taskId(p, "Handover");
-    p = (
-      await owner.agent
-        .delete(`/api/jobs/${jobId}/tasks/${handover}?version=${p.version}`)
-        .set("X-CSRF-Token", owner.csrf)
-        .expect(200)
-    ).body;
+    p = await afterEdit(
+      p,
+      (
+        await owner.agent
+          .delete(`/api/jobs/${jobId}/tasks/${handover}?version=${p.version}`)
+          .set("X-CSRF-Token", owner.csrf)
+          .expect(200)
+      ).body,
+    );
     expect(p.tasks.some((x) => x.id === handover)).toBe(false);
     const badDuration = await owner.agent
       .post(`/api/jobs/${jobId}/tasks`)

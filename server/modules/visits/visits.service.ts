@@ -43,7 +43,7 @@ import { drawingsOfJobs } from "../drawings/drawings.service";
 import { ACTIVE_STATES, jobResource, jobResources } from "../jobs/job-access";
 import { Job } from "../jobs/jobs.entity";
 import { localToday, zonedFormatter } from "../jobs/jobs.presenter";
-import { cautionFor } from "../programme/cautions";
+import { cautionFor } from "../../../shared/schemas";
 import {
   loadProgramme,
   loadProgrammes,

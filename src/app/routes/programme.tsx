@@ -1,4 +1,5 @@
 import { Link, useParams, useSearchParams } from "react-router-dom";
+import { cautionFor } from "../../../shared/schemas";
 import { useJob } from "../../features/jobs/api/get-job";
 import { useRefreshJobBookings } from "../../features/bookings/api/booking-mutation";
 import { TaskBookingControl } from "../../features/bookings/components/TaskBookingControl";
@@ -63,7 +64,11 @@ export function ProgrammeRoute() {
         selectedTaskId={selectedTaskId}
         onChanged={() => void refreshBookings()}
         renderBooking={(task, refresh) => (
-          <TaskBookingControl jobId={jobId} task={task} onChanged={refresh} />
+          <TaskBookingControl
+            jobId={jobId}
+            task={{ ...task, caution: cautionFor(task.party, task.hazards) }}
+            onChanged={refresh}
+          />
         )}
       />
     </>

@@ -19,9 +19,7 @@ export function applyChange(
 }
 
 export function useApplyChange(jobId: string) {
-  return useProgrammeMutation(
-    jobId,
-    (body: ChangeInput) => applyChange(jobId, body),
-    (a) => a.programme,
+  return useProgrammeMutation(jobId, (body: ChangeInput) =>
+    applyChange(jobId, body),
   );
 }

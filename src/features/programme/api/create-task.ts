@@ -1,17 +1,15 @@
 import type { z } from "zod";
 import type {
   createTaskBodySchema,
-  ProgrammeResponse,
+  createTaskResponseSchema,
 } from "../../../../shared/schemas";
 import { api } from "../../../lib/api-client";
 import { programmePath } from "./get-programme";
 import { useProgrammeMutation } from "./programme-mutation";
 
 export type CreateTaskInput = z.output<typeof createTaskBodySchema>;
-export interface CreateTaskAnswer {
-  taskId: string;
-  programme: ProgrammeResponse;
-}
+/** The new task's id and what changed. */
+export type CreateTaskAnswer = z.output<typeof createTaskResponseSchema>;
 
 export function createTask(
   jobId: string,
@@ -21,9 +19,7 @@ export function createTask(
 }
 
 export function useCreateTask(jobId: string) {
-  return useProgrammeMutation(
-    jobId,
-    (body: CreateTaskInput) => createTask(jobId, body),
-    (a) => a.programme,
+  return useProgrammeMutation(jobId, (body: CreateTaskInput) =>
+    createTask(jobId, body),
   );
 }

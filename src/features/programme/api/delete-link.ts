@@ -1,14 +1,14 @@
-import type { ProgrammeResponse } from "../../../../shared/schemas";
+import type { ProgrammeEdit } from "../../../../shared/schemas";
 import { apiRequest } from "../../../lib/api-client";
 import { programmePath } from "./get-programme";
-import { itself, useProgrammeMutation } from "./programme-mutation";
+import { useProgrammeMutation } from "./programme-mutation";
 
 export function deleteLink(
   jobId: string,
   linkId: string,
   version: number,
-): Promise<ProgrammeResponse> {
-  return apiRequest<ProgrammeResponse>(
+): Promise<ProgrammeEdit> {
+  return apiRequest<ProgrammeEdit>(
     `${programmePath(jobId)}/links/${encodeURIComponent(linkId)}?version=${version}`,
     { method: "DELETE" },
   );
@@ -19,6 +19,5 @@ export function useDeleteLink(jobId: string) {
     jobId,
     ({ linkId, version }: { linkId: string; version: number }) =>
       deleteLink(jobId, linkId, version),
-    itself,
   );
 }

@@ -1,14 +1,14 @@
-import type { ProgrammeResponse } from "../../../../shared/schemas";
+import type { ProgrammeEdit } from "../../../../shared/schemas";
 import { apiRequest } from "../../../lib/api-client";
 import { programmePath } from "./get-programme";
-import { itself, useProgrammeMutation } from "./programme-mutation";
+import { useProgrammeMutation } from "./programme-mutation";
 
 export function deleteTask(
   jobId: string,
   taskId: string,
   version: number,
-): Promise<ProgrammeResponse> {
-  return apiRequest<ProgrammeResponse>(
+): Promise<ProgrammeEdit> {
+  return apiRequest<ProgrammeEdit>(
     `${programmePath(jobId)}/tasks/${encodeURIComponent(taskId)}?version=${version}`,
     { method: "DELETE" },
   );
@@ -19,6 +19,5 @@ export function useDeleteTask(jobId: string) {
     jobId,
     ({ taskId, version }: { taskId: string; version: number }) =>
       deleteTask(jobId, taskId, version),
-    itself,
   );
 }

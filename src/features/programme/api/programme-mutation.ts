@@ -1,27 +1,32 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import type { ProgrammeResponse } from "../../../../shared/schemas";
+import type { ProgrammeEdit } from "../../../../shared/schemas";
+import { takeProgrammeEdit } from "../../../lib/programme-edit";
+import { getProgramme } from "./get-programme";
 import { programmeKeys } from "./keys";
 
 /**
- * Every programme edit answers with the whole recomputed programme: put it straight into the
- * cache (the server's answer, never the client's preview). A 409 is left to the screen, which
- * shows who changed what and offers the reload.
+ * Every programme edit answers with what changed (the server's answer, never the client's
+ * preview): lay it over the cached programme, or read the programme again when someone else
+ * changed it meanwhile. The mutation resolves once the cache holds the new version, so an Undo
+ * offered next sends that version. A 409 is left to the screen, which shows who changed what and
+ * offers the reload.
  */
-export function useProgrammeMutation<TBody, TAnswer>(
+export function useProgrammeMutation<TBody, TAnswer extends ProgrammeEdit>(
   jobId: string,
   mutationFn: (body: TBody) => Promise<TAnswer>,
-  programmeOf: (answer: TAnswer) => ProgrammeResponse,
 ) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn,
-    onSuccess: (answer) => {
-      queryClient.setQueryData(
-        programmeKeys.detail(jobId),
-        programmeOf(answer),
+    onSuccess: async (answer) => {
+      await takeProgrammeEdit(
+        queryClient,
+        {
+          queryKey: programmeKeys.detail(jobId),
+          queryFn: () => getProgramme(jobId),
+        },
+        answer,
       );
     },
   });
 }
-
-export const itself = (p: ProgrammeResponse) => p;

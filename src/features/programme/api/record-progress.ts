@@ -1,11 +1,11 @@
 import type { z } from "zod";
 import type {
-  ProgrammeResponse,
+  ProgrammeEdit,
   progressBodySchema,
 } from "../../../../shared/schemas";
 import { api } from "../../../lib/api-client";
 import { programmePath } from "./get-programme";
-import { itself, useProgrammeMutation } from "./programme-mutation";
+import { useProgrammeMutation } from "./programme-mutation";
 
 export type ProgressInput = z.output<typeof progressBodySchema>;
 
@@ -13,8 +13,8 @@ export function recordProgress(
   jobId: string,
   taskId: string,
   body: ProgressInput,
-): Promise<ProgrammeResponse> {
-  return api.post<ProgrammeResponse>(
+): Promise<ProgrammeEdit> {
+  return api.post<ProgrammeEdit>(
     `${programmePath(jobId)}/tasks/${encodeURIComponent(taskId)}/progress`,
     body,
   );
@@ -25,6 +25,5 @@ export function useRecordProgress(jobId: string) {
     jobId,
     ({ taskId, body }: { taskId: string; body: ProgressInput }) =>
       recordProgress(jobId, taskId, body),
-    itself,
   );
 }

@@ -1,11 +1,11 @@
 import type { z } from "zod";
 import type {
-  ProgrammeResponse,
+  ProgrammeEdit,
   updateLinkBodySchema,
 } from "../../../../shared/schemas";
 import { api } from "../../../lib/api-client";
 import { programmePath } from "./get-programme";
-import { itself, useProgrammeMutation } from "./programme-mutation";
+import { useProgrammeMutation } from "./programme-mutation";
 
 export type UpdateLinkInput = z.output<typeof updateLinkBodySchema>;
 
@@ -13,8 +13,8 @@ export function updateLink(
   jobId: string,
   linkId: string,
   body: UpdateLinkInput,
-): Promise<ProgrammeResponse> {
-  return api.patch<ProgrammeResponse>(
+): Promise<ProgrammeEdit> {
+  return api.patch<ProgrammeEdit>(
     `${programmePath(jobId)}/links/${encodeURIComponent(linkId)}`,
     body,
   );
@@ -25,6 +25,5 @@ export function useUpdateLink(jobId: string) {
     jobId,
     ({ linkId, body }: { linkId: string; body: UpdateLinkInput }) =>
       updateLink(jobId, linkId, body),
-    itself,
   );
 }

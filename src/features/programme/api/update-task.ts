@@ -1,11 +1,11 @@
 import type { z } from "zod";
 import type {
-  ProgrammeResponse,
+  ProgrammeEdit,
   updateTaskBodySchema,
 } from "../../../../shared/schemas";
 import { api } from "../../../lib/api-client";
 import { programmePath } from "./get-programme";
-import { itself, useProgrammeMutation } from "./programme-mutation";
+import { useProgrammeMutation } from "./programme-mutation";
 
 export type UpdateTaskInput = z.output<typeof updateTaskBodySchema>;
 
@@ -13,8 +13,8 @@ export function updateTask(
   jobId: string,
   taskId: string,
   body: UpdateTaskInput,
-): Promise<ProgrammeResponse> {
-  return api.patch<ProgrammeResponse>(
+): Promise<ProgrammeEdit> {
+  return api.patch<ProgrammeEdit>(
     `${programmePath(jobId)}/tasks/${encodeURIComponent(taskId)}`,
     body,
   );
@@ -25,6 +25,5 @@ export function useUpdateTask(jobId: string) {
     jobId,
     ({ taskId, body }: { taskId: string; body: UpdateTaskInput }) =>
       updateTask(jobId, taskId, body),
-    itself,
   );
 }

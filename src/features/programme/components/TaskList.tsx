@@ -10,6 +10,7 @@ import {
   StatusBadge,
 } from "../../../components/ui";
 import { clearFromWhenDone } from "../../../../shared/programme";
+import { cautionFor } from "../../../../shared/schemas";
 import type { CreateLinkInput } from "../api/create-link";
 import type { ProgressInput } from "../api/record-progress";
 import {
@@ -124,6 +125,7 @@ export function TaskList({
     <ol className="flex flex-col divide-y divide-rule" aria-label="Tasks">
       {ordered.map((row, index) => {
         const { task, result: r } = row;
+        const caution = cautionFor(task.party, task.hazards);
         const headingId = `task-${task.id}`;
         const waits: ProgrammeLink[] = programme.links.filter(
           (l) => l.toTaskId === task.id,
@@ -277,7 +279,7 @@ export function TaskList({
                 ))}
               </ul>
             ) : null}
-            {task.caution ? <CautionNote>{task.caution}</CautionNote> : null}
+            {caution ? <CautionNote>{caution}</CautionNote> : null}
             {renderBooking && task.party !== "workshop" && !reordering
               ? renderBooking(task)
               : null}

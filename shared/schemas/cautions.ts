@@ -1,8 +1,9 @@
-import type { Party } from "../../../shared/schemas";
-import type { Hazard } from "./programme.entity";
+import type { Party } from "./common";
+import type { Hazard } from "./programme";
 
 // The brief's Safety section: a short caution that defers to local regulations and licensed
-// practice. Sitecue plans work; it does not certify it.
+// practice. Sitecue plans work; it does not certify it. Shared, so the programme screen derives
+// each task's caution from its party and hazards rather than receiving the sentence per task.
 const cautions: Record<Hazard, string> = {
   electrical:
     "Electrical work: to be done by a qualified, registered electrician under local regulations. Isolate circuits before cabinets are fixed over cable routes.",
