@@ -1,3 +1,4 @@
+import { partyWords } from "../../shared/words/trades";
 import {
   nationLabels,
   type ArrivalWindow,
@@ -11,15 +12,10 @@ import {
 
 // Every word shown for an enum value, in one place, taken from the brief's Words table.
 
-export const partyLabels: Record<Party, string> = {
-  workshop: "Workshop",
-  plasterer: "Plasterer",
-  decorator: "Decorator",
-  electrician: "Electrician",
-  flooring: "Flooring",
-  plumber: "Plumber",
-  other: "Other trade",
-};
+/** A party as a choice or a label ("Flooring fitter", "Other trade"): the shared trade words. */
+export const partyLabels = Object.fromEntries(
+  Object.entries(partyWords).map(([p, w]) => [p, w.choice]),
+) as Record<Party, string>;
 
 export const jobStatusLabels: Record<JobStatus, string> = {
   survey: "Survey",

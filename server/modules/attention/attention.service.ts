@@ -1,3 +1,4 @@
+import { aParty, partyNoun } from "../../../shared/words/trades";
 import { stateIs } from "../../../shared/bookings/lifecycle";
 import { In, type DataSource } from "typeorm";
 import {
@@ -12,7 +13,6 @@ import {
   type AttentionItem,
   type AttentionResponse,
   openJobStatuses,
-  type Party,
 } from "../../../shared/schemas";
 import { authorize, type Actor } from "../../policies";
 import { notFound } from "../../http/errors";
@@ -34,18 +34,6 @@ export const BOOK_AHEAD_WORKING_DAYS = 5;
 
 /** A sent booking unanswered this long reads as a wait to chase (the bookings panel uses the same 48 h). */
 export const CHASE_AFTER_HOURS = 48;
-
-const kindNouns: Record<Party, string> = {
-  workshop: "workshop",
-  plasterer: "plasterer",
-  decorator: "decorator",
-  electrician: "electrician",
-  flooring: "flooring fitter",
-  plumber: "plumber",
-  other: "trade",
-};
-const aKind = (p: Party) =>
-  `${/^[aeiou]/.test(kindNouns[p]) ? "an" : "a"} ${kindNouns[p]}`;
 
 const shortDay = new Intl.DateTimeFormat("en-GB", {
   weekday: "short",
@@ -340,7 +328,7 @@ export async function attentionFor(
             since: since.toISOString(),
             waited: ago(since, job),
             action: {
-              label: `Book the next ${kindNouns[task.party]}`,
+              label: `Book the next ${partyNoun(task.party)}`,
               to: fixPaths.bookAnother(job.id, b.id),
             },
           },
@@ -468,7 +456,7 @@ export async function attentionFor(
             bookingId: draft?.id ?? null,
             sentence: draft
               ? `${when}; the booking for ${draftTrade?.businessName ?? "a trade"} is a draft, not sent yet.`
-              : `${when} and no ${kindNouns[task.party]} is booked.`,
+              : `${when} and no ${partyNoun(task.party)} is booked.`,
             since: null,
             waited: null,
             action: draft
@@ -477,7 +465,7 @@ export async function attentionFor(
                   to: fixPaths.booking(job.id, draft.id),
                 }
               : {
-                  label: `Book ${aKind(task.party)}`,
+                  label: `Book ${aParty(task.party)}`,
                   to: fixPaths.book(job.id, r.id),
                 },
           },

@@ -1,10 +1,11 @@
 // What a person's subscription feed holds (issue 6): exactly what the brief's roles table lets
 // them see, as one PUBLISH calendar (RFC 5546 §3.2.1: ORGANIZER, no ATTENDEE).
+import { partyTitle } from "../../../shared/words/trades";
 import { createHash } from "node:crypto";
 import ical, { ICalCalendarMethod } from "ical-generator";
 import { tzlib_get_ical_block } from "timezones-ical-library";
 import { In, Not, type EntityManager } from "typeorm";
-import type { BookingState, TradeKind } from "../../../shared/schemas";
+import type { BookingState } from "../../../shared/schemas";
 import { bookingStateTraits } from "../../../shared/bookings/lifecycle";
 import { HttpError } from "../../http/errors";
 import { bookingShowsAddress, type Actor } from "../../policies";
@@ -27,15 +28,6 @@ export interface FeedContent {
   /** The latest change of anything in it (Last-Modified). */
   lastModified: Date;
 }
-
-const kindWords: Record<TradeKind, string> = {
-  plasterer: "Plasterer",
-  decorator: "Decorator",
-  electrician: "Electrician",
-  flooring: "Flooring fitter",
-  plumber: "Plumber",
-  other: "Trade",
-};
 
 const stateWords: Record<string, string> = {
   draft: "draft (not sent yet)",
@@ -188,7 +180,7 @@ export async function feedContent(
           },
           summary: `${task.name}: ${trade.businessName} — ${job.title}`,
           description: [
-            `${kindWords[trade.kind]}: ${trade.businessName} (${trade.contactName}, ${trade.phone}).`,
+            `${partyTitle(trade.kind)}: ${trade.businessName} (${trade.contactName}, ${trade.phone}).`,
             `When: ${whenWords(b)}.`,
             `Booking: ${stateWords[b.state] ?? b.state}.`,
             task.internalNote ? `Workshop note: ${task.internalNote}` : "",
@@ -346,7 +338,7 @@ export async function feedContent(
           sequence: b.sequence,
           stamp: b.updatedAt,
           organizer: { name: ws.name, email: calendarAddress },
-          summary: `${kindWords[trade.kind]}: ${trade.businessName}`,
+          summary: `${partyTitle(trade.kind)}: ${trade.businessName}`,
           description: [
             `${task.name}, ${whenWords(b)}.`,
             task.customerNote ? `To prepare: ${task.customerNote}` : "",

@@ -1,3 +1,4 @@
+import { partyTitle } from "../../../shared/words/trades";
 import type { Actor } from "../../policies";
 import type {
   BookingView,
@@ -22,15 +23,6 @@ export function viewerRoleFor(actor: Actor, job: Job): ViewerRole {
   return "trade";
 }
 
-const tradeWords: Record<string, string> = {
-  plasterer: "Plasterer",
-  decorator: "Decorator",
-  electrician: "Electrician",
-  flooring: "Flooring fitter",
-  plumber: "Plumber",
-  other: "Trade",
-};
-
 export function presentJobSummary(
   job: Job,
   ctx: {
@@ -52,7 +44,7 @@ export function presentJobSummary(
     const task = ctx.tasks.get(next.taskId);
     nextEvent = {
       date: next.start.slice(0, 10),
-      label: `${trade ? tradeWords[trade.kind] : "Visit"}: ${task?.name ?? "visit"}`,
+      label: `${trade ? partyTitle(trade.kind) : "Visit"}: ${task?.name ?? "visit"}`,
     };
   } else if (job.handoverDate && job.handoverDate >= today) {
     nextEvent = { date: job.handoverDate, label: "Handover" };

@@ -1,3 +1,4 @@
+import { partyColours } from "./party-colours";
 import type { ReactNode } from "react";
 import type {
   BookingState,
@@ -16,16 +17,6 @@ import { cx } from "./cx";
 // Colour is decoration here: the swatch or dot carries the token, the text is always
 // ink so every badge keeps its contrast and reads without colour.
 
-const partySwatch: Record<Party, string> = {
-  workshop: "bg-trade-workshop",
-  plasterer: "bg-trade-plasterer",
-  decorator: "bg-trade-decorator",
-  electrician: "bg-trade-electrician",
-  flooring: "bg-trade-flooring",
-  plumber: "bg-trade-plumber",
-  other: "bg-trade-other",
-};
-
 /** A trade kind (or the workshop) as a chip: colour swatch plus its name. */
 export function PartyChip({
   party,
@@ -38,7 +29,7 @@ export function PartyChip({
     <span className="inline-flex max-w-full items-center gap-1.5 rounded border border-rule bg-paper px-2 py-0.5 text-xs font-medium text-ink">
       <span
         aria-hidden="true"
-        className={cx("size-2.5 shrink-0 rounded-sm", partySwatch[party])}
+        className={cx("size-2.5 shrink-0 rounded-sm", partyColours[party].fill)}
       />
       <span className="truncate">{children ?? partyLabels[party]}</span>
     </span>

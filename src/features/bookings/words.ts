@@ -1,5 +1,6 @@
 // Booking dates, arrival windows and history in words (brief, "Words" and "Look and feel":
 // dates with the weekday, times on the 24-hour clock).
+import { aParty, partyNoun } from "../../../shared/words/trades";
 import type {
   BookingChannel,
   BookingResponse,
@@ -101,22 +102,11 @@ export function todayLocal(): string {
   return `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, "0")}-${String(d.getDate()).padStart(2, "0")}`;
 }
 
-const kindNouns: Record<Party, string> = {
-  workshop: "workshop",
-  plasterer: "plasterer",
-  decorator: "decorator",
-  electrician: "electrician",
-  flooring: "flooring fitter",
-  plumber: "plumber",
-  other: "trade",
-};
-
-/** The trade a task needs, as a noun: "plasterer", "flooring fitter". */
-export const kindNoun = (party: Party) => kindNouns[party];
+/** The trade a task needs, as a noun: "plasterer", "flooring fitter" (the shared trade words). */
+export const kindNoun = (party: Party) => partyNoun(party);
 
 /** With its article: "a plasterer", "an electrician". */
-export const aKind = (party: Party) =>
-  `${/^[aeiou]/.test(kindNouns[party]) ? "an" : "a"} ${kindNouns[party]}`;
+export const aKind = (party: Party) => aParty(party);
 
 /**
  * What a start window keeps: the agreed handover, or — with none agreed yet — the programme's

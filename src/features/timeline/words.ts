@@ -1,26 +1,14 @@
 // The timeline in the customer's words (brief, Words: "visit", "handover"; Look and feel: dates
 // with the weekday, times on the 24-hour clock). No booking states, no float.
-import type {
-  Party,
-  TimelineVisit,
-  VisitArrival,
-} from "../../../shared/schemas";
+import { partyTitle } from "../../../shared/words/trades";
+import type { TimelineVisit, VisitArrival } from "../../../shared/schemas";
 import { formatDateShort } from "../../lib/format";
-
-const tradeWords: Record<Exclude<Party, "workshop">, string> = {
-  plasterer: "Plasterer",
-  decorator: "Decorator",
-  electrician: "Electrician",
-  flooring: "Flooring fitter",
-  plumber: "Plumber",
-  other: "Trade",
-};
 
 /** "Plasterer — Ashby Plaster & Coving"; the workshop's own visits by the workshop's name. */
 export function whoWords(v: Pick<TimelineVisit, "party" | "businessName">) {
   return v.party === "workshop"
     ? v.businessName
-    : `${tradeWords[v.party]} — ${v.businessName}`;
+    : `${partyTitle(v.party)} — ${v.businessName}`;
 }
 
 /** "Thu 14 Jan" (the year only outside this year). */

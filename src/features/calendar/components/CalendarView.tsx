@@ -1,3 +1,4 @@
+import { partyColours } from "../../../components/ui/party-colours";
 import { useMemo, useState, useSyncExternalStore, type ReactNode } from "react";
 import FullCalendar from "@fullcalendar/react";
 import type {
@@ -23,17 +24,6 @@ import {
   type DayRange,
   type Entry,
 } from "../model";
-
-/** Left rule per trade kind (a token): decoration beside the text label, never alone. */
-export const partyRule: Record<Entry["party"], string> = {
-  workshop: "border-l-trade-workshop",
-  plasterer: "border-l-trade-plasterer",
-  decorator: "border-l-trade-decorator",
-  electrician: "border-l-trade-electrician",
-  flooring: "border-l-trade-flooring",
-  plumber: "border-l-trade-plumber",
-  other: "border-l-trade-other",
-};
 
 // Options live outside the component: FullCalendar re-initialises on a new object (a re-render
 // would otherwise throw the week view back to the month).
@@ -98,7 +88,7 @@ function EventBox({ entry }: { entry: Entry }) {
     <div
       className={cx(
         "w-full overflow-hidden rounded-sm border border-rule border-l-4 bg-card px-1.5 py-0.5 text-xs leading-snug text-ink",
-        partyRule[entry.party],
+        partyColours[entry.party].rule,
         entry.previewed && "outline-2 outline-dashed outline-accent",
       )}
       title={`${entryLabel(entry)} — ${entryDetail(entry)}`}
@@ -335,7 +325,7 @@ export function CalendarView({
                         key={e.id}
                         className={cx(
                           "flex flex-col gap-1 border-l-4 px-3 py-2 text-sm",
-                          partyRule[e.party],
+                          partyColours[e.party].rule,
                         )}
                         data-testid="calendar-list-entry"
                       >

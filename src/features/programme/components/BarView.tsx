@@ -1,3 +1,4 @@
+import { partyColours } from "../../../components/ui/party-colours";
 import {
   useEffect,
   useMemo,
@@ -48,17 +49,6 @@ const MONTH = [
   "Nov",
   "Dec",
 ];
-
-// Trade-kind tokens (tailwind.config.ts): decoration only, every bar also carries its label.
-const barFill: Record<string, string> = {
-  workshop: "bg-trade-workshop",
-  plasterer: "bg-trade-plasterer",
-  decorator: "bg-trade-decorator",
-  electrician: "bg-trade-electrician",
-  flooring: "bg-trade-flooring",
-  plumber: "bg-trade-plumber",
-  other: "bg-trade-other",
-};
 
 // Days off are hatched, not only tinted, so they read without colour.
 const offDayStyle = {
@@ -364,7 +354,7 @@ export function BarView({
                       aria-hidden="true"
                       className={cx(
                         "absolute top-1.5 left-[-7px] size-3.5 rotate-45 rounded-[2px]",
-                        barFill[row.task.party],
+                        partyColours[row.task.party].fill,
                       )}
                     />
                   ) : (
@@ -374,7 +364,7 @@ export function BarView({
                         aria-hidden="true"
                         className={cx(
                           "absolute top-1 h-5 rounded-sm",
-                          barFill[row.task.party],
+                          partyColours[row.task.party].fill,
                           done && "opacity-55",
                           r.critical &&
                             !done &&
