@@ -13,13 +13,13 @@ import { Button, FormError } from "./ui";
 
 type Impact = Preview["impact"];
 
-/** "Handover moves from Mon 14 Dec to Wed 16 Dec" / "Handover stays Mon 14 Dec". */
+/** "Planned finish moves from Mon 14 Dec to Wed 16 Dec" / "Planned finish stays Mon 14 Dec" (never "handover": that is the agreed date). */
 export function handoverSentence(impact: Impact): string {
   const { finishBefore, finishAfter } = impact.handover;
-  if (!finishBefore || !finishAfter) return "Handover: no finish planned yet";
+  if (!finishBefore || !finishAfter) return "No planned finish yet";
   if (dayText(finishBefore) === dayText(finishAfter))
-    return `Handover stays ${dayText(finishAfter)}`;
-  return `Handover moves from ${dayText(finishBefore)} to ${dayText(finishAfter)}`;
+    return `Planned finish stays ${dayText(finishAfter)}`;
+  return `Planned finish moves from ${dayText(finishBefore)} to ${dayText(finishAfter)}`;
 }
 
 export function movesSentence(byDays: number): string {

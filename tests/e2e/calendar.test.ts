@@ -253,7 +253,7 @@ describe("workshop calendar", () => {
       /Electrician second fix \(Brightwire Electrical\)/,
     );
     expect(await panel.getByTestId("handover-change").innerText()).toMatch(
-      /^Handover (moves|stays)/,
+      /^Planned finish (moves|stays)/,
     );
     await expect(panel.innerText()).resolves.toContain("Not saved yet");
     await shot(page, "calendar-drag-preview-desktop");

@@ -141,7 +141,7 @@ describe("the maker's programme screen", () => {
       "Fix carcasses & scribes",
       "Template coving",
       "Fill, caulk & paint",
-      "Handover",
+      "Walk-round with the customer",
     ]) {
       await visible(taskItem(page, name));
     }
@@ -261,7 +261,7 @@ describe("the maker's programme screen", () => {
     for (const name of [
       "Fit coving & make good",
       "Fill, caulk & paint",
-      "Handover",
+      "Walk-round with the customer",
     ]) {
       await visible(
         moves
@@ -274,7 +274,7 @@ describe("the maker's programme screen", () => {
       .getByTestId("handover-change")
       .textContent())!;
     const m =
-      /^Handover moves from (\w{3} \d{1,2} \w{3}(?: \d{4})?) to (\w{3} \d{1,2} \w{3}(?: \d{4})?)/.exec(
+      /^Planned finish moves from (\w{3} \d{1,2} \w{3}(?: \d{4})?) to (\w{3} \d{1,2} \w{3}(?: \d{4})?)/.exec(
         sentence,
       );
     expect(m, sentence).not.toBeNull();
@@ -297,7 +297,7 @@ describe("the maker's programme screen", () => {
     await visible(
       page
         .getByRole("status")
-        .getByText(`Handover moves from ${dayText(finishDate)} to ${promised}`),
+        .getByText(`Planned finish moves from ${dayText(finishDate)} to ${promised}`),
     );
     expect(reads.stop()).toEqual([]);
     const after = await page.evaluate(

@@ -88,7 +88,7 @@ async function addJob(
     durationDays: 1,
   });
   const handover = await buildTask(m, job, {
-    name: "Handover",
+    name: "Walk-round with the customer",
     party: "workshop",
     durationDays: 0,
   });

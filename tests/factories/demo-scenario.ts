@@ -201,7 +201,7 @@ export async function loadDemoScenario(
       customerNote: "Keep the room free of dust for painting; windows closed.",
     });
     const handover = await buildTask(m, alcoves, {
-      name: "Handover",
+      name: "Walk-round with the customer",
       party: "workshop",
       durationDays: 0,
     });
@@ -296,7 +296,7 @@ export async function loadDemoScenario(
       durationDays: 1,
     });
     const wHandover = await buildTask(m, wardrobe, {
-      name: "Handover",
+      name: "Walk-round with the customer",
       party: "workshop",
       durationDays: 0,
     });

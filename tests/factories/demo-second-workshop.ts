@@ -89,7 +89,7 @@ export async function loadSecondWorkshop(
     durationDays: 0.5,
   });
   const handover = await buildTask(m, job, {
-    name: "Handover",
+    name: "Walk-round with the customer",
     party: "workshop",
     durationDays: 0,
   });

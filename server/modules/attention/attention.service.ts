@@ -408,7 +408,7 @@ export async function attentionFor(
             trade: null,
             bookingId: null,
             sentence: job.handoverDate
-              ? `Handover on ${dayText(job.handoverDate)} is at risk: ${task.name} is ${plural(days, "working day")} behind what it allows.`
+              ? `Agreed handover on ${dayText(job.handoverDate)} is at risk: ${task.name} is ${plural(days, "working day")} behind what it allows.`
               : // Without a handover date the engine measures against the programme's own finish: its words.
                 `${worst.problems.find((p) => p.code === "handover-at-risk")!.message}.`,
             since: null,

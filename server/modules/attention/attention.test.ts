@@ -379,7 +379,7 @@ describe("the programme", () => {
     expect(risk[0].task?.id).toBe(worst.id);
     expect(risk[0].sentence).toMatch(
       new RegExp(
-        `^Handover on \\w{3} \\d{1,2} \\w{3} is at risk: .+ is ${behind} working days? behind what it allows\\.$`,
+        `^Agreed handover on \\w{3} \\d{1,2} \\w{3} is at risk: .+ is ${behind} working days? behind what it allows\\.$`,
       ),
     );
     expect(risk[0].action).toEqual({

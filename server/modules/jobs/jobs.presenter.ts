@@ -47,7 +47,7 @@ export function presentJobSummary(
       label: `${trade ? partyTitle(trade.kind) : "Visit"}: ${task?.name ?? "visit"}`,
     };
   } else if (job.handoverDate && job.handoverDate >= today) {
-    nextEvent = { date: job.handoverDate, label: "Handover" };
+    nextEvent = { date: job.handoverDate, label: "Agreed handover" };
   }
   return {
     id: job.id,

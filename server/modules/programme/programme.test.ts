@@ -141,7 +141,7 @@ describe("starting programmes", () => {
       "Hang doors",
       "Electrician second fix",
       "Fill, caulk & paint",
-      "Handover",
+      "Walk-round with the customer",
     ]);
     expect(p.links).toHaveLength(9);
     const survey = p.tasks.find((x) => x.name === "Survey & measure")!;
@@ -393,7 +393,7 @@ describe("editing a programme", () => {
       ).body,
     );
     expect(p.links.some((l) => l.id === link.id)).toBe(false);
-    const handover = taskId(p, "Handover");
+    const handover = taskId(p, "Walk-round with the customer");
     p = await afterEdit(
       p,
       (

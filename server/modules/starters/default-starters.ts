@@ -59,7 +59,7 @@ export const defaultStarters: StarterBody[] = [
         customerNote:
           "Keep the room free of dust for painting; windows closed.",
       },
-      { key: "handover", name: "Handover", party: "workshop", durationDays: 0 },
+      { key: "handover", name: "Walk-round with the customer", party: "workshop", durationDays: 0 },
     ],
     links: [
       {
@@ -145,7 +145,7 @@ export const defaultStarters: StarterBody[] = [
         party: "decorator",
         durationDays: 1,
       },
-      { key: "handover", name: "Handover", party: "workshop", durationDays: 0 },
+      { key: "handover", name: "Walk-round with the customer", party: "workshop", durationDays: 0 },
     ],
     links: [
       { from: "survey", to: "first-fix" },
@@ -228,7 +228,7 @@ export const defaultStarters: StarterBody[] = [
         party: "electrician",
         durationDays: 0.5,
       },
-      { key: "handover", name: "Handover", party: "workshop", durationDays: 0 },
+      { key: "handover", name: "Walk-round with the customer", party: "workshop", durationDays: 0 },
     ],
     links: [
       { from: "survey", to: "first-fix" },

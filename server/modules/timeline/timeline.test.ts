@@ -117,7 +117,7 @@ describe("the customer's timeline", () => {
     // Over already: the first fix three days ago.
     expect(visit(tl, "Electrician first fix (cabinet lights)").past).toBe(true);
     // Handover is a date, not a visit.
-    expect(tl.visits.some((v) => v.taskName === "Handover")).toBe(false);
+    expect(tl.visits.some((v) => v.taskName === "Walk-round with the customer")).toBe(false);
     // In date order.
     const starts = tl.visits.map((v) => v.start);
     expect(starts).toEqual([...starts].sort());

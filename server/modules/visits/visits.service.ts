@@ -685,7 +685,7 @@ export async function extendVisit(
       // again, and they asked for this. Their feed shows the new end (SEQUENCE raised above).
       const handover =
         shown.handover.changeDays > 0
-          ? ` Handover moves ${shown.handover.changeDays} working day${shown.handover.changeDays === 1 ? "" : "s"} later.`
+          ? ` The planned finish moves ${shown.handover.changeDays} working day${shown.handover.changeDays === 1 ? "" : "s"} later.`
           : "";
       const moved =
         (shown.moves.length

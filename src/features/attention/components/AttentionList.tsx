@@ -18,7 +18,7 @@ import { useRetryMail } from "../api/retry-mail";
 
 /** Each kind's label beside its sentence (words always; the colour only repeats them). */
 const kindLabels: Record<AttentionKind, string> = {
-  "handover-at-risk": "Handover at risk",
+  "handover-at-risk": "Agreed handover at risk",
   clash: "Clash",
   "customer-away": "Customer away",
   "mail-failed": "E-mail not sent",

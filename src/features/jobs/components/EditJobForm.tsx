@@ -101,7 +101,7 @@ export function EditJobForm({ job, onSaved, onCancel }: EditJobFormProps) {
         ))}
       </Select>
       <TextField
-        label="Handover"
+        label="Agreed handover"
         type="date"
         optional
         inputClassName="font-mono"

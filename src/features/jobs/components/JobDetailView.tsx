@@ -64,7 +64,7 @@ export function JobDetailsSection({ job }: { job: JobDetail }) {
         ) : null}
         {/* The customer's timeline shows the handover, with how it changed since her last look. */}
         {job.viewerRole !== "customer" ? (
-          <DetailRow label="Handover">
+          <DetailRow label="Agreed handover">
             {job.handoverDate ? (
               <span className="font-mono">{formatDate(job.handoverDate)}</span>
             ) : (

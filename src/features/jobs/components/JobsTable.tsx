@@ -53,7 +53,7 @@ const statusColumn: Column = {
 };
 const handoverColumn: Column = {
   key: "handover",
-  label: "Handover",
+  label: "Agreed handover",
   className: "whitespace-nowrap",
   render: (job) =>
     job.handoverDate ? (

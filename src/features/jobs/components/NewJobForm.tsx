@@ -216,7 +216,7 @@ export function NewJobForm({
           ))}
         </Select>
         <TextField
-          label="Handover"
+          label="Agreed handover"
           type="date"
           optional
           hint={handover ? formatDate(handover) : undefined}

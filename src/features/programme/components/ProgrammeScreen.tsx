@@ -52,7 +52,7 @@ function Summary({ programme }: { programme: ProgrammeResponse }) {
         <dd className="font-mono">{dayText(programme.dataDate)}</dd>
       </div>
       <div>
-        <dt className="text-ink-soft">Handover</dt>
+        <dt className="text-ink-soft">Agreed handover</dt>
         <dd className="font-mono">
           {programme.handover ? dayText(programme.handover) : "Not set"}
         </dd>
@@ -65,10 +65,10 @@ function Summary({ programme }: { programme: ProgrammeResponse }) {
       </div>
       {slip !== null ? (
         <div>
-          <dt className="text-ink-soft">Against handover</dt>
+          <dt className="text-ink-soft">Against the agreed handover</dt>
           <dd className={slip > 0 ? "font-medium text-risk" : "text-ok"}>
             {slip > 0
-              ? `${workingDaysText(slip)} late — handover at risk`
+              ? `${workingDaysText(slip)} late — agreed handover at risk`
               : "On time"}
           </dd>
         </div>

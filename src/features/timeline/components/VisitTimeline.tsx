@@ -243,7 +243,7 @@ export function VisitTimeline({ jobId }: { jobId: string }) {
     >
       <div className="flex flex-col gap-4">
         <p className="flex flex-wrap items-baseline gap-x-2 text-sm">
-          <span className="text-ink-soft">Handover</span>
+          <span className="text-ink-soft">Agreed handover</span>
           <span className="font-mono font-semibold" data-testid="handover">
             {t.handoverDate ? dayWords(t.handoverDate) : "to be set"}
           </span>

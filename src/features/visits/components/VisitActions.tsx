@@ -89,8 +89,8 @@ function ExtendKnockOn({ impact }: { impact: ExtendImpact }) {
     !h.finishBefore || !h.finishAfter
       ? null
       : h.changeDays > 0
-        ? `Handover moves ${workingDaysText(h.changeDays)} later: planned finish ${dayWords(h.finishAfter)}${h.date ? ` (target ${dayWords(h.date)})` : ""}.`
-        : `Handover stays ${dayWords(h.finishAfter)}.`;
+        ? `The planned finish moves ${workingDaysText(h.changeDays)} later, to ${dayWords(h.finishAfter)}${h.date ? ` (agreed handover ${dayWords(h.date)})` : ""}.`
+        : `The planned finish stays ${dayWords(h.finishAfter)}.`;
   return (
     <div className="flex flex-col gap-2 text-sm" data-testid="extend-knock-on">
       <p>
