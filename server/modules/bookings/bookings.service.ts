@@ -1,3 +1,4 @@
+import { arrivalForSlot } from "../../../shared/bookings/arrival";
 import {
   actionAllowed,
   stateIs,
@@ -1067,6 +1068,7 @@ export async function decideProposal(
         );
       b.start = b.proposedStart;
       b.finish = check.finish;
+      Object.assign(b, arrivalForSlot(b.start, b));
       b.proposedStart = null;
       b.sequence += 1; // RFC 5546 §2.1.4: the dates changed
       b.state = "confirmed";
@@ -1319,6 +1321,7 @@ export async function reconfirmAfterChange(
     const from = l.booking.state;
     l.booking.start = r.proposedStart;
     l.booking.finish = check.finish;
+    Object.assign(l.booking, arrivalForSlot(l.booking.start, l.booking));
     l.booking.sequence += 1; // RFC 5546 §2.1.4: DTSTART changed
     l.booking.state = "needs-reconfirming";
     const link = issueLink(deps, l.booking);
