@@ -361,8 +361,18 @@ describe("scenario 2: a trade confirms by link", () => {
     expect(accepted.body.start.slice(0, 10)).toBe(other);
     const mail = await mailTo(
       demoAccounts.trade.email,
-      (m) => m.subject.includes("new dates") && m.text.includes("accepted"),
+      (m) =>
+        m.subject.includes(`is confirmed for`) &&
+        m.text.includes("Nothing more to do"),
     );
+    // Their own proposal, accepted: they are not asked to confirm again (issue 16).
+    expect(mail.text).not.toMatch(/confirm again/i);
+    expect(mail.text).not.toContain("accepting or declining it");
+    // The proposal was a date: their day's start, 08:00, where the 08:00–09:00 arrival still fits.
+    expect(accepted.body).toMatchObject({
+      arrivalWindow: "range",
+      arrivalFrom: "08:00",
+    });
     const { event } = eventOf(mail);
     expect(event.getFirstPropertyValue("sequence")).toBe(1);
     expect(event.getFirstPropertyValue("uid")).toBe(

@@ -4,6 +4,7 @@ import { demoJobTitles } from "../../../tests/factories/demo-scenario";
 import { Job } from "../jobs/jobs.entity";
 import { Trade } from "../trades/trades.entity";
 import { Booking } from "./bookings.entity";
+import { dayWords } from "./booking-notices";
 import { nextWorkingDay } from "./reminders";
 
 let t: TestApp;
@@ -47,9 +48,24 @@ it("reminds a confirmed trade once, the working day before their visit", async (
   expect(await t.sitecue.sendReminders(dayBefore)).toBe(1);
   expect(await t.sitecue.sendReminders(dayBefore)).toBe(0); // once only
   const mail = await t.mail.waitFor(
-    (x) => x.to.includes(decorator.email) && x.subject.startsWith("Tomorrow:"),
+    (x) =>
+      x.to.includes(decorator.email) &&
+      x.subject.includes("Fill, caulk & paint"),
   );
-  expect(mail.subject).toBe(`Tomorrow: Fill, caulk & paint at ${job.area}`);
+  // "Tomorrow" only when the visit is the next calendar day; a Monday visit reminded on the
+  // Friday names its day (issue 16).
+  const next = new Date(`${dayBefore.toISOString().slice(0, 10)}T12:00:00Z`);
+  next.setUTCDate(next.getUTCDate() + 1);
+  const when =
+    next.toISOString().slice(0, 10) === start
+      ? "Tomorrow"
+      : `On ${dayWords(start)}`;
+  expect(mail.subject).toBe(
+    `${when}: Fill, caulk & paint at ${job.area} for Hollin & Vane Joinery`,
+  );
+  // Confirmed already: the reminder does not ask them to confirm.
+  expect(mail.text).not.toMatch(/Confirm, say you can't make it/);
+  expect(mail.text).not.toContain("accepting or declining it");
   // Confirmed, so the full address is in the reminder.
   expect(mail.text).toContain("14 Larkspur Terrace, Wetherfold");
 });

@@ -487,7 +487,7 @@ describe("reminder timing", () => {
     const mail = await t.mail.waitFor((x) => x.to.includes(trade.email));
     // Not "Tomorrow": it goes two working days before.
     expect(mail.subject).toMatch(
-      /^Coming up \w{3} \d{1,2} \w{3}( \d{4})?: Second fix sockets/,
+      /^On \w{3} \d{1,2} \w{3}( \d{4})?: Second fix sockets/,
     );
   });
 });
