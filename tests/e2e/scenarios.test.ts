@@ -579,8 +579,13 @@ describe("the three used-by scenarios, as the three people", () => {
     expect(await visit.getByTestId("visit-days").textContent()).toBe(
       dayText(proposed),
     );
+    // Accepted at the trade's day start, the afternoon arrival became the morning (issue 16:
+    // the arrival follows the booked slot), so the old arrival is said too.
+    const arrivalNow = await visit.getByTestId("visit-arrival").textContent();
     expect(await visit.getByTestId("visit-was").textContent()).toBe(
-      `Was ${dayText(firstStart)}`,
+      arrivalNow === "Afternoon"
+        ? `Was ${dayText(firstStart)}`
+        : `Was ${dayText(firstStart)}, afternoon`,
     );
     await visible(job.getByText(/changed since you last looked/));
     // Her other job, where nothing moved, has nothing highlighted.

@@ -361,7 +361,14 @@ describe("the programme", () => {
       (i) => i.bookingId === b.id,
     )!;
     expect(reconfirm.sentence).toMatch(
-      /^Brightwire Electrical has not re-confirmed Electrician second fix since its dates moved: now \w{3} \d{1,2} \w{3}, afternoon\. Asked less than an hour ago\.$/,
+      /^Brightwire Electrical has not re-confirmed Electrician second fix since its dates moved: now \w{3} \d{1,2} \w{3}, (morning|afternoon)\. Asked less than an hour ago\.$/,
+    );
+    // The arrival follows the re-booked slot (issue 16), not the old afternoon.
+    const rebooked = await t.db.ds.manager.findOneByOrFail(Booking, {
+      id: b.id,
+    });
+    expect(reconfirm.sentence).toContain(
+      rebooked.start.slice(11, 16) >= "12:00" ? ", afternoon." : ", morning.",
     );
     expect(reconfirm.action).toMatchObject({
       to: `/jobs/${jobId}?booking=${b.id}#job-bookings`,
