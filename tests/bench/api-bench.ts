@@ -13,6 +13,7 @@ import { statementsIn } from "../../server/db/query-tally";
 const CONNECTIONS = Number(process.env.BENCH_CONNECTIONS ?? 50);
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 8);
 const WARM_SECONDS = 2;
+const SETTLE_MS = 3000;
 
 /** Starts `node --import tsx <script>` and resolves with the JSON line it prints first. */
 function startProcess<T>(
@@ -71,6 +72,9 @@ async function measure(
   await run(WARM_SECONDS);
   const times: number[] = [];
   const result = await run(SECONDS, times);
+  // The generator stops at its time with requests still queued in the app: let them finish, so
+  // the next route is measured on an idle app.
+  await new Promise((r) => setTimeout(r, SETTLE_MS));
   // Refusals and errors make the figures meaningless; slowness is a figure (a timeout or no answer
   // within the run shows as an infinite p95), so the other routes are still measured.
   if (result.non2xx || result.errors)
@@ -137,7 +141,9 @@ try {
     if (only && name !== routes[0][0] && !name.includes(only)) continue;
     const m = await measure(name, url, headers);
     results.push(m);
-    console.log(`measured ${name}: p95 ${m.p95} ms, ${m.rps.toFixed(0)} req/s`);
+    console.log(
+      `measured ${name}: p95 ${m.p95.toFixed(1)} ms, ${m.rps.toFixed(0)} req/s`,
+    );
   }
   const bareRps = results[0].rps;
   const pad = (s: string, n: number) => s.padEnd(n);
@@ -149,7 +155,7 @@ try {
   );
   for (const m of results)
     console.log(
-      `${pad(m.name, 30)}${pad(String(m.p50), 9)}${pad(String(m.p95), 9)}${pad(m.rps.toFixed(0), 9)}${pad((m.rps / bareRps).toFixed(3), 9)}${pad(String(m.statements ?? "-"), 6)}${m.bytes}`,
+      `${pad(m.name, 30)}${pad(m.p50.toFixed(1), 9)}${pad(m.p95.toFixed(1), 9)}${pad(m.rps.toFixed(0), 9)}${pad((m.rps / bareRps).toFixed(3), 9)}${pad(String(m.statements ?? "-"), 6)}${m.bytes}`,
     );
   if (!only) {
     const by = (name: string) => results.find((r) => r.name === name)!;
@@ -160,7 +166,7 @@ try {
         "plasterer's visits",
         "owner's .ics feed",
       ].map((n): [string, boolean] => [
-        `${n}: p95 ${by(n).p95} ms < 150 ms`,
+        `${n}: p95 ${by(n).p95.toFixed(1)} ms < 150 ms`,
         by(n).p95 < 150,
       ]),
       [

@@ -37,7 +37,17 @@ function post(s: inspector.Session, method: string): Promise<unknown> {
   );
 }
 
+// The load generator stops at its time limit with requests still being answered: shutting down
+// waits for them, so none meets a closed database.
+let inFlight = 0;
+server.on("request", (_req, res) => {
+  inFlight += 1;
+  res.once("close", () => (inFlight -= 1));
+});
+
 async function shutDown() {
+  for (let waited = 0; inFlight > 0 && waited < 60_000; waited += 100)
+    await new Promise((r) => setTimeout(r, 100));
   if (profiler) {
     const { profile } = (await post(profiler, "Profiler.stop")) as {
       profile: unknown;
