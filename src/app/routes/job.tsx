@@ -166,6 +166,7 @@ export function JobRoute() {
                 name: t.name,
                 party: t.party,
                 caution: t.detail?.caution ?? null,
+                done: t.status === "done",
               }))}
               onChanged={() =>
                 void queryClient.invalidateQueries({

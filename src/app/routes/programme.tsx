@@ -66,7 +66,11 @@ export function ProgrammeRoute() {
         renderBooking={(task, refresh) => (
           <TaskBookingControl
             jobId={jobId}
-            task={{ ...task, caution: cautionFor(task.party, task.hazards) }}
+            task={{
+              ...task,
+              caution: cautionFor(task.party, task.hazards),
+              done: !!task.actualFinish,
+            }}
             onChanged={refresh}
           />
         )}

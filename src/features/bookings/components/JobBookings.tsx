@@ -1,10 +1,7 @@
+import { stateIs } from "../../../../shared/bookings/lifecycle";
 import { useState } from "react";
 import { useSearchParams } from "react-router-dom";
-import type {
-  BookingResponse,
-  BookingState,
-  Party,
-} from "../../../../shared/schemas";
+import type { BookingResponse, Party } from "../../../../shared/schemas";
 import {
   BookingStateBadge,
   Button,
@@ -44,17 +41,12 @@ export interface BookableTask {
   name: string;
   party: Party;
   caution: string | null;
+  /** Marked done: nothing to book any more (issue 16: done work asked for a booking). */
+  done?: boolean;
 }
 
-/** States in which a booking holds its task: a new one cannot be made beside it. */
-const STANDING: BookingState[] = [
-  "draft",
-  "sent",
-  "confirmed",
-  "date-proposed",
-  "needs-reconfirming",
-];
-export const isStanding = (b: BookingResponse) => STANDING.includes(b.state);
+/** A booking that holds its task (the lifecycle table): a new one cannot be made beside it. */
+export const isStanding = (b: BookingResponse) => stateIs(b.state, "standing");
 
 /** How long a sent booking waits for an answer before it is flagged to chase. */
 const UNANSWERED_HOURS = 48;
@@ -415,7 +407,10 @@ export function JobBookings({
     );
     const unbooked = tasks.filter(
       (t) =>
-        t.party !== "workshop" && !standingTask.has(t.id) && !asked.has(t.id),
+        t.party !== "workshop" &&
+        !t.done &&
+        !standingTask.has(t.id) &&
+        !asked.has(t.id),
     );
     const taskOf = (id: string) => tasks.find((t) => t.id === id);
     body = (

@@ -23,6 +23,9 @@ export function TaskBookingControl({
   const [open, setOpen] = useState(false);
   const [notice, setNotice] = useState<string | null>(null);
   if (task.party === "workshop" || !bookings.data) return null;
+  // Done work needs no booking: no "Not booked yet — Book …" under a finished task.
+  if (task.done && !bookings.data.some((b) => b.taskId === task.id))
+    return null;
   const mine = bookings.data.filter((b) => b.taskId === task.id);
   const standing = mine.find(isStanding);
   const declined = !standing

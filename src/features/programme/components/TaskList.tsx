@@ -97,6 +97,16 @@ interface TaskListProps {
 }
 
 /** The programme as a list: the main view on a phone, and the keyboard's way to everything. */
+/** "Thu 3 Dec", or "Tue 1 Dec – Thu 3 Dec": the days the work was really done. */
+function doneDaysText(
+  actualStart: string | null,
+  actualFinish: string,
+): string {
+  const last = dayText(actualFinish);
+  const first = actualStart ? dayText(actualStart) : last;
+  return first === last ? last : `${first} – ${last}`;
+}
+
 export function TaskList({
   programme,
   rows,
@@ -155,27 +165,39 @@ export function TaskList({
                   ? "milestone"
                   : daysText(task.durationDays)}
               </span>
-              {r.critical ? (
+              {r.critical && !done ? (
                 <StatusBadge tone="risk">Critical</StatusBadge>
               ) : null}
               <Readiness row={row} name={name} isDone={isDone} />
             </div>
             <p className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
-              <span>
-                <span className="text-ink-soft">Planned </span>
-                <span className="font-mono">
-                  {r.plannedStart === r.plannedFinish
-                    ? finishText(r.plannedFinish)
-                    : `${startText(r.plannedStart)} – ${finishText(r.plannedFinish)}`}
+              {done ? (
+                // Done: when it was really done, not a plan or its float (issue 16).
+                <span>
+                  <span className="text-ink-soft">Done </span>
+                  <span className="font-mono">
+                    {doneDaysText(task.actualStart, task.actualFinish!)}
+                  </span>
                 </span>
-              </span>
-              <span>
-                <span className="text-ink-soft">Float </span>
-                <span className="font-mono">
-                  {r.totalFloatDays} working{" "}
-                  {Math.abs(r.totalFloatDays) === 1 ? "day" : "days"}
-                </span>
-              </span>
+              ) : (
+                <>
+                  <span>
+                    <span className="text-ink-soft">Planned </span>
+                    <span className="font-mono">
+                      {r.plannedStart === r.plannedFinish
+                        ? finishText(r.plannedFinish)
+                        : `${startText(r.plannedStart)} – ${finishText(r.plannedFinish)}`}
+                    </span>
+                  </span>
+                  <span>
+                    <span className="text-ink-soft">Float </span>
+                    <span className="font-mono">
+                      {r.totalFloatDays} working{" "}
+                      {Math.abs(r.totalFloatDays) === 1 ? "day" : "days"}
+                    </span>
+                  </span>
+                </>
+              )}
               {task.notEarlierThan ? (
                 <span>
                   <span className="text-ink-soft">Not earlier than </span>
@@ -325,7 +347,8 @@ export function TaskList({
                   >
                     Waits for…
                   </Button>
-                  {!started ? (
+                  {/* A milestone has no duration to start: it is only done. */}
+                  {!started && task.durationDays > 0 ? (
                     <Button
                       variant="secondary"
                       size="sm"
