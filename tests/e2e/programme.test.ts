@@ -297,7 +297,9 @@ describe("the maker's programme screen", () => {
     await visible(
       page
         .getByRole("status")
-        .getByText(`Planned finish moves from ${dayText(finishDate)} to ${promised}`),
+        .getByText(
+          `Planned finish moves from ${dayText(finishDate)} to ${promised}`,
+        ),
     );
     expect(reads.stop()).toEqual([]);
     const after = await page.evaluate(
@@ -409,6 +411,49 @@ describe("the maker's programme screen", () => {
     await visible(taskItem(page, "Hang doors").getByText("1.5 days"));
     // The browser logs the refused request itself; nothing else may be in the console.
     expect(problems.filter((p) => !p.includes("409"))).toEqual([]);
+    await page.context().close();
+  });
+});
+
+describe("done work on the demo's programme (issue 16)", () => {
+  it("says when a done task was done, with no float, and a milestone offers only Mark done", async () => {
+    const { page, problems } = await signIn();
+    await page.goto(`${t.url}/jobs`);
+    const jobs = (await page.evaluate(async () =>
+      (await fetch("/api/jobs")).json(),
+    )) as { jobs: { id: string; title: string }[] };
+    const alcoves = jobs.jobs.find(
+      (j) => j.title === "Alcove cabinets, front room",
+    )!;
+    const prog = (await page.evaluate(
+      async (id) => (await fetch(`/api/jobs/${id}/programme`)).json(),
+      alcoves.id,
+    )) as {
+      tasks: {
+        name: string;
+        actualStart: string | null;
+        actualFinish: string | null;
+      }[];
+    };
+    const survey = prog.tasks.find((x) => x.name === "Survey & measure")!;
+    expect(survey.actualFinish).not.toBeNull();
+    await page.goto(`${t.url}/jobs/${alcoves.id}/programme`);
+    const item = taskItem(page, "Survey & measure");
+    await visible(item);
+    const text = (await item.innerText()).replace(/\s+/g, " ");
+    expect(text).toContain(
+      `Done ${dayText(survey.actualFinish!.slice(0, 10))}`,
+    );
+    expect(text).not.toContain("Float");
+    expect(text).not.toContain("Planned");
+    expect(text).not.toContain("Critical");
+    const milestone = taskItem(page, "Walk-round with the customer");
+    await visible(milestone);
+    expect(
+      await milestone.getByRole("button", { name: /^Mark started/ }).count(),
+    ).toBe(0);
+    await visible(milestone.getByRole("button", { name: /^Mark done/ }));
+    expect(problems).toEqual([]);
     await page.context().close();
   });
 });
