@@ -4,6 +4,7 @@ import {
   type BookingMailKind,
 } from "../../../shared/bookings/lifecycle";
 import type { EntityManager } from "typeorm";
+import type { BookingState } from "../../../shared/schemas";
 import { enqueueMail } from "../../infra/outbox/outbox";
 import { escapeHtml } from "../auth/auth.service";
 import type { Job } from "../jobs/jobs.entity";
@@ -253,6 +254,28 @@ export async function queueBookingMail(
     html,
     calendar: { method, content: ics, filename: "invite.ics" },
   });
+}
+
+/**
+ * The workshop's notice of a trade's answer, however it came, with the visit's day (issue 16:
+ * most workshop notices named no date): "Ashby Plaster & Coving confirmed Template coving, Mon 7
+ * Dec 2026, arriving in the morning: Alcove cabinets, front room."
+ */
+export function answerNoticeLine(
+  l: { trade: Trade; task: Task; job: Job },
+  b: Booking,
+  /** What the answer led to (applyAnswer): confirmed, declined or date-proposed. */
+  to: BookingState,
+  reason: string,
+): string {
+  const who = l.trade.businessName;
+  const what =
+    to === "confirmed"
+      ? `${who} confirmed ${l.task.name}, ${whenWords(b)}`
+      : to === "declined"
+        ? `${who} can't make ${l.task.name} on ${dayWords(b.start)}${reason ? ` (${reason})` : ""}`
+        : `${who} proposes ${dayWords(b.proposedStart!)} instead of ${dayWords(b.start)} for ${l.task.name}`;
+  return `${what}: ${l.job.title}.`;
 }
 
 /** Tells the workshop's owners and fitters at once when a trade answers (the in-app view updates on its own). */

@@ -56,6 +56,7 @@ import { Workshop } from "../workshops/workshops.entity";
 import { linkExpiry, linkToken, hashLinkToken } from "./booking-links";
 import {
   dayWords,
+  answerNoticeLine,
   notifyWorkshop,
   queueBookingMail,
   whenWords,
@@ -1000,16 +1001,10 @@ export async function applyAnswer(
       `${l.trade.businessName} proposes ${dayWords(b.proposedStart!)} for ${l.task.name} instead of ${dayWords(b.start)}.`,
     );
   if (channel === "link" || channel === "calendar-reply") {
-    const words =
-      to === "confirmed"
-        ? "confirmed"
-        : to === "declined"
-          ? `can't make it${answer.note ? ` (${answer.note})` : ""}`
-          : `proposes ${dayWords(b.proposedStart!)} instead`;
     await notifyWorkshop(
       m,
       l,
-      `${l.trade.businessName} ${words}: ${l.task.name}, ${l.job.title}.`,
+      answerNoticeLine(l, b, to, answer.note),
       `${deps.appUrl}/jobs/${l.job.id}`,
     );
   }

@@ -29,7 +29,7 @@ import {
 } from "../../policies";
 import { audit } from "../audit/audit.service";
 import { bookingPage } from "../bookings/booking-link.service";
-import { dayWords, notifyWorkshop } from "../bookings/booking-notices";
+import { answerNoticeLine, notifyWorkshop } from "../bookings/booking-notices";
 import { Booking, BookingEvent } from "../bookings/bookings.entity";
 import {
   applyAnswer,
@@ -375,17 +375,10 @@ export async function answerVisit(
     // applyAnswer mails the workshop for answers that come without a person signed in; this one
     // comes from the trade's own account, so the workshop is told here the same way.
     if (from !== to || to === "date-proposed") {
-      const b = l.booking;
-      const words =
-        to === "confirmed"
-          ? "confirmed"
-          : to === "declined"
-            ? `can't make it${body.reason ? ` (${body.reason})` : ""}`
-            : `proposes ${dayWords(b.proposedStart!)} instead`;
       await notifyWorkshop(
         m,
         l,
-        `${l.trade.businessName} ${words}: ${l.task.name}, ${l.job.title}.`,
+        answerNoticeLine(l, l.booking, to, body.reason ?? ""),
         jobUrl(deps, l.job),
       );
     }

@@ -1,5 +1,6 @@
 // A trade's visits (issue 8, trade part): one person speaking for trade records in two workshops,
 // what they see of each booking, and the actions they may take on their own bookings only.
+import { whenWords } from "../bookings/booking-notices";
 import { In } from "typeorm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import {
@@ -411,8 +412,9 @@ describe("answering signed in", () => {
     });
     expect(b.state).toBe("confirmed");
     const mail = await t.db.ds.manager.findBy(OutboxMessage, { to: f.ownerB });
+    // The notice names the visit's day and arrival (issue 16).
     expect(mail.map((x) => x.subject)).toContain(
-      "Farrow Plastering confirmed: Run coving, Visits job B.",
+      `Farrow Plastering confirmed Run coving, ${whenWords(b)}: Visits job B.`,
     );
     // Workshop A heard nothing of workshop B's booking.
     const toA = await t.db.ds.manager.findBy(OutboxMessage, {
