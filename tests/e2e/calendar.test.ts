@@ -292,6 +292,12 @@ describe("workshop calendar", () => {
       .filter({ hasText: "Template coving" });
     await visible(entry);
     expect(await page.locator(".fc").count()).toBe(0);
+    // A fitter has the workshop's calendar feed here too (issue 16), made by the same control.
+    await visible(
+      page
+        .getByRole("region", { name: "Calendar feed" })
+        .getByRole("button", { name: "Make a feed link" }),
+    );
     await shot(page, "calendar-phone");
     const wide = await page.evaluate(
       () => document.documentElement.scrollWidth,

@@ -95,7 +95,12 @@ export function DaysOffEditor() {
 }
 
 /** The person's secret calendar-feed URL: made, remade or turned off here. */
-export function FeedLink() {
+/** The person's private calendar feed: what it holds depends on who they are (their visits, or the workshop's bookings and tasks). */
+export function FeedLink({
+  description = "Subscribe to your visits in your own calendar app. Keep the link private.",
+}: {
+  description?: string;
+} = {}) {
   const feed = useMyFeed();
   const make = useMakeMyFeed();
   const revoke = useRevokeMyFeed();
@@ -114,11 +119,7 @@ export function FeedLink() {
     });
   };
   return (
-    <Section
-      title="Calendar feed"
-      id="feed"
-      description="Subscribe to your visits in your own calendar app. Keep the link private."
-    >
+    <Section title="Calendar feed" id="feed" description={description}>
       {url ? (
         <label className="flex flex-col gap-1 text-sm">
           Your feed link (shown this once)
