@@ -21,7 +21,7 @@ import type {
 } from "../../../shared/schemas";
 import { Job } from "../jobs/jobs.entity";
 import { Trade } from "../trades/trades.entity";
-import { Booking } from "./bookings.entity";
+import { Booking, BookingEvent } from "./bookings.entity";
 import { buildItipReply } from "./itip-reply";
 import { createJobFromStarter } from "../../../tests/setup/jobs";
 
@@ -464,7 +464,7 @@ describe("answers from the trade's own calendar app (iTIP REPLY by e-mail)", () 
     bookingId: string,
     uid: string,
     sequence: number,
-    partstat: "ACCEPTED" | "DECLINED",
+    partstat: "ACCEPTED" | "DECLINED" | "TENTATIVE",
   ) {
     const ics = buildItipReply({
       uid,
@@ -540,6 +540,30 @@ describe("answers from the trade's own calendar app (iTIP REPLY by e-mail)", () 
         "ACCEPTED",
       ),
     ).rejects.toThrow(/older version|dates have changed/);
+    // "Maybe" (PARTSTAT=TENTATIVE) is recorded and told, and the booking still waits (issue 16).
+    await sendReply(
+      demoAccounts.trade.email,
+      booking.id,
+      stored.icalUid,
+      stored.sequence,
+      "TENTATIVE",
+    );
+    const maybe = await t.db.ds.manager.findOneByOrFail(Booking, {
+      id: booking.id,
+    });
+    expect(maybe.state).toBe("sent");
+    const events = await t.db.ds.manager.findBy(BookingEvent, {
+      bookingId: booking.id,
+      channel: "calendar-reply",
+    });
+    expect(events.map((e) => e.note)).toEqual([
+      "Maybe, from their calendar app",
+    ]);
+    await mailTo(demoAccounts.owner.email, (m) =>
+      m.subject.startsWith(
+        'Ashby Plaster & Coving answered "maybe" for Template coving',
+      ),
+    );
     await sendReply(
       demoAccounts.trade.email,
       booking.id,

@@ -2,7 +2,14 @@ import type { DataSource } from "typeorm";
 import type { InboundMail } from "../../infra/mail/inbound";
 import { lockingTransaction } from "../../db/locks";
 import { Booking } from "./bookings.entity";
-import { applyAnswer, loadBooking, type BookingDeps } from "./bookings.service";
+import { postSystemNote } from "../thread/thread-notes";
+import { notifyWorkshop, whenWords } from "./booking-notices";
+import {
+  applyAnswer,
+  loadBooking,
+  recordEvent,
+  type BookingDeps,
+} from "./bookings.service";
 import { parseItipReply } from "./itip-reply";
 
 /**
@@ -51,7 +58,24 @@ export async function receiveCalendarReply(
         "This reply is for an older version of the invitation; the dates have changed",
       );
     if (reply.partstat === "TENTATIVE") {
-      // Tentative is "maybe": recorded in the history, the booking still waits for a yes or no.
+      // Tentative is "maybe" (RFC 5545 §3.2.12): recorded in the history and told to the workshop,
+      // while the booking still waits for a yes or no (issue 16: it was answered 250 and dropped).
+      const note = reply.comment
+        ? `Maybe, from their calendar app: ${reply.comment}`
+        : "Maybe, from their calendar app";
+      await recordEvent(
+        m,
+        booking,
+        booking.state,
+        booking.state,
+        "calendar-reply",
+        null,
+        note,
+        { partstat: "TENTATIVE" },
+      );
+      const line = `${l.trade.businessName} answered "maybe" for ${l.task.name}, ${whenWords(booking)}: ${l.job.title}. It still waits for a yes or no.`;
+      await postSystemNote(m, l.job, "workshop", line);
+      await notifyWorkshop(m, l, line, `${deps.appUrl}/jobs/${l.job.id}`);
       return;
     }
     await applyAnswer(
