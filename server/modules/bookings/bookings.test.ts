@@ -13,6 +13,7 @@ import {
 import {
   demoAccounts,
   demoJobTitles,
+  weekdaysFrom,
 } from "../../../tests/factories/demo-scenario";
 import type {
   BookingResponse,
@@ -465,6 +466,7 @@ describe("answers from the trade's own calendar app (iTIP REPLY by e-mail)", () 
     uid: string,
     sequence: number,
     partstat: "ACCEPTED" | "DECLINED" | "TENTATIVE",
+    counterStart?: string,
   ) {
     const ics = buildItipReply({
       uid,
@@ -473,6 +475,7 @@ describe("answers from the trade's own calendar app (iTIP REPLY by e-mail)", () 
       attendee: { name: "Ashby Plaster & Coving", email: from },
       partstat,
       stamp: new Date(),
+      counterStart,
     });
     const transport = nodemailer.createTransport({
       host: "127.0.0.1",
@@ -486,7 +489,7 @@ describe("answers from the trade's own calendar app (iTIP REPLY by e-mail)", () 
         to: `booking-${bookingId}@replies.sitecue.example.test`,
         subject: "Accepted: Template coving",
         text: "Accepted",
-        icalEvent: { method: "REPLY", content: ics },
+        icalEvent: { method: counterStart ? "COUNTER" : "REPLY", content: ics },
       });
     } finally {
       transport.close();
@@ -576,6 +579,49 @@ describe("answers from the trade's own calendar app (iTIP REPLY by e-mail)", () 
     });
     expect(after.state).toBe("confirmed");
     expect(after.sequence).toBe(stored.sequence); // RFC 5546 §2.1.4: never bumped by a reply
+  });
+
+  it("takes a calendar app's 'Propose new time' (iTIP COUNTER, RFC 5546 §3.2.7) as a proposal", async () => {
+    const { jobId, p } = await readyJob("Booking: calendar counter");
+    const template = taskNamed(p, "Template coving");
+    const options = (
+      await owner.agent.get(
+        `/api/jobs/${jobId}/tasks/${template.id}/booking-options`,
+      )
+    ).body;
+    const booking = (
+      await owner.agent
+        .post(`/api/jobs/${jobId}/bookings`)
+        .set("X-CSRF-Token", owner.csrf)
+        .send({
+          taskId: template.id,
+          tradeId: ashby(options).tradeId,
+          start: ashby(options).firstFree.start,
+          arrivalWindow: "morning",
+        })
+        .expect(201)
+    ).body;
+    const stored = await t.db.ds.manager.findOneByOrFail(Booking, {
+      id: booking.id,
+    });
+    const other = weekdaysFrom(stored.start.slice(0, 10), 3);
+    await sendReply(
+      demoAccounts.trade.email,
+      booking.id,
+      stored.icalUid,
+      stored.sequence,
+      "TENTATIVE",
+      other,
+    );
+    const after = await t.db.ds.manager.findOneByOrFail(Booking, {
+      id: booking.id,
+    });
+    expect(after.state).toBe("date-proposed");
+    expect(after.proposedStart?.slice(0, 10)).toBe(other);
+    // The workshop hears of it as of a proposal by link, with the days.
+    await mailTo(demoAccounts.owner.email, (m) =>
+      m.subject.startsWith(`Ashby Plaster & Coving proposes `),
+    );
   });
 });
 

@@ -32,8 +32,8 @@ export async function receiveCalendarReply(
   if (!address) throw new Error("No booking reply address in this message");
   const bookingId = address.slice("booking-".length, address.indexOf("@"));
   const part =
-    mail.calendarParts.find(
-      (p) => (p.method ?? "").toUpperCase() === "REPLY",
+    mail.calendarParts.find((p) =>
+      ["REPLY", "COUNTER"].includes((p.method ?? "").toUpperCase()),
     ) ?? mail.calendarParts[0];
   if (!part) throw new Error("No calendar reply in this message");
   const parsed = parseItipReply(part.content);
@@ -57,6 +57,23 @@ export async function receiveCalendarReply(
       throw new Error(
         "This reply is for an older version of the invitation; the dates have changed",
       );
+    if (reply.method === "COUNTER") {
+      // "Propose new time" in a calendar app (RFC 5546 §3.2.7): the same proposal as the link's
+      // "propose another start", through the same answer path (issue 16: it used to bounce).
+      await applyAnswer(
+        m,
+        deps,
+        l,
+        {
+          answer: "propose",
+          proposedStart: reply.proposedStart,
+          note: reply.comment ?? "Proposed from their calendar app",
+        },
+        "calendar-reply",
+        null,
+      );
+      return;
+    }
     if (reply.partstat === "TENTATIVE") {
       // Tentative is "maybe" (RFC 5545 §3.2.12): recorded in the history and told to the workshop,
       // while the booking still waits for a yes or no (issue 16: it was answered 250 and dropped).

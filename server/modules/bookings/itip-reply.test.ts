@@ -70,15 +70,29 @@ describe("parseItipReply", () => {
       expect(r).toEqual({
         ok: true,
         reply: {
+          method: "REPLY",
           uid: UID,
           sequence: 2,
           attendeeEmail: "ann@hartplastering.example.test",
           partstat,
+          proposedStart: null,
           comment: null,
         },
       });
     },
   );
+
+  it('RFC 5546 §3.2.7: reads a COUNTER ("Propose new time") with its proposed first day', () => {
+    const r = parseItipReply(
+      reply({ partstat: "TENTATIVE", counterStart: "2026-12-14" }),
+    );
+    expect(r.ok && r.reply).toMatchObject({
+      method: "COUNTER",
+      uid: UID,
+      sequence: 2,
+      proposedStart: "2026-12-14",
+    });
+  });
 
   it("RFC 5545 §3.8.1.4: keeps the COMMENT the trade typed, unescaped", () => {
     const r = parseItipReply(

@@ -4,13 +4,18 @@
 // booking) is the bookings service's job: this module only reads the object faithfully.
 import ICAL from "ical.js";
 
-/** What a usable REPLY says: which booking (UID, SEQUENCE), who answers, and the answer. */
+/** What a usable REPLY or COUNTER says: which booking (UID, SEQUENCE), who answers, and the answer. */
 export interface ParsedReply {
+  /** REPLY answers (RFC 5546 §3.2.3); COUNTER proposes another time (§3.2.7, "Propose new time"). */
+  method: "REPLY" | "COUNTER";
   uid: string;
   sequence: number;
   /** The ATTENDEE's mailto: address, lower-cased for comparison. */
   attendeeEmail: string;
-  partstat: "ACCEPTED" | "DECLINED" | "TENTATIVE";
+  /** A REPLY's answer; a COUNTER's is taken as a proposal whatever its PARTSTAT says. */
+  partstat: "ACCEPTED" | "DECLINED" | "TENTATIVE" | null;
+  /** A COUNTER's proposed first day (its DTSTART's date, as written), "YYYY-MM-DD". */
+  proposedStart: string | null;
   comment: string | null;
 }
 
@@ -51,8 +56,10 @@ export function parseItipReply(
 
   // RFC 5546 §3.2.3: an answer to an invitation is METHOD:REPLY. Values of enumerated
   // properties are case-insensitive (RFC 5545 §2.1).
-  const method = String(root.getFirstPropertyValue("method") ?? "").trim();
-  if (method.toUpperCase() !== "REPLY")
+  const method = String(root.getFirstPropertyValue("method") ?? "")
+    .trim()
+    .toUpperCase();
+  if (method !== "REPLY" && method !== "COUNTER")
     return fail(
       method
         ? `This is a ${method.toUpperCase()} message, not a reply to an invitation (METHOD:REPLY).`
@@ -105,8 +112,16 @@ export function parseItipReply(
   const stat = String(Array.isArray(rawStat) ? rawStat[0] : (rawStat ?? ""))
     .trim()
     .toUpperCase();
-  const partstat = answers.find((a) => a === stat);
-  if (!partstat)
+  const partstat = answers.find((a) => a === stat) ?? null;
+  // RFC 5546 §3.2.7: a COUNTER's point is its new DTSTART; its PARTSTAT is not an answer.
+  let proposedStart: string | null = null;
+  if (method === "COUNTER") {
+    const start = event.getFirstPropertyValue("dtstart");
+    if (!(start instanceof ICAL.Time))
+      return fail("The proposal (COUNTER) gives no new start (DTSTART).");
+    const p2 = (n: number) => String(n).padStart(2, "0");
+    proposedStart = `${start.year}-${p2(start.month)}-${p2(start.day)}`;
+  } else if (!partstat)
     return fail(
       stat
         ? `The answer "${stat}" is not one Sitecue understands (accepted, declined or tentative).`
@@ -122,10 +137,12 @@ export function parseItipReply(
   return {
     ok: true,
     reply: {
+      method,
       uid,
       sequence,
       attendeeEmail,
       partstat,
+      proposedStart,
       comment: comments.length ? comments.join("\n") : null,
     },
   };
@@ -140,11 +157,13 @@ export function buildItipReply(input: {
   partstat: "ACCEPTED" | "DECLINED" | "TENTATIVE";
   stamp: Date;
   comment?: string;
+  /** A COUNTER ("Propose new time", RFC 5546 §3.2.7) for this first day, instead of a REPLY. */
+  counterStart?: string;
 }): string {
   const cal = new ICAL.Component(["vcalendar", [], []]);
   cal.addPropertyWithValue("prodid", "-//Sitecue//Test calendar app//EN");
   cal.addPropertyWithValue("version", "2.0");
-  cal.addPropertyWithValue("method", "REPLY");
+  cal.addPropertyWithValue("method", input.counterStart ? "COUNTER" : "REPLY");
 
   const event = new ICAL.Component("vevent");
   event.addPropertyWithValue("uid", input.uid);
@@ -164,6 +183,11 @@ export function buildItipReply(input: {
   // ical.js quotes a parameter value with : ; or , itself (RFC 5545 §3.2).
   if (input.attendee.name) attendee.setParameter("cn", input.attendee.name);
   if (input.comment) event.addPropertyWithValue("comment", input.comment);
+  if (input.counterStart)
+    event.addPropertyWithValue(
+      "dtstart",
+      ICAL.Time.fromDateString(input.counterStart),
+    );
   cal.addSubcomponent(event);
   // ical.js writes CRLF and folds at 75 octets, like a calendar app (RFC 5545 §3.1).
   return cal.toString() + "\r\n";
