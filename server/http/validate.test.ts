@@ -87,3 +87,20 @@ describe("a lone surrogate in a string", () => {
     expect(res.body.name).toBe("Ann Lee \u{1F600}");
   });
 });
+
+describe("validation messages over the API (issue 16)", () => {
+  it("are plain sentences with the limit, not the schema library's words", async () => {
+    const res = await postRaw(
+      `/api/workshops/${workshopId}/customers`,
+      JSON.stringify({
+        name: "A".repeat(500),
+        email: "not an address",
+        phone: 7,
+      }),
+    );
+    expect(res.status).toBe(400);
+    const text = JSON.stringify(res.body.error.fields);
+    expect(text).not.toMatch(/Too big|Too small|expected string|Invalid/);
+    expect(res.body.error.fields.name[0]).toMatch(/^At most \d+ characters\.$/);
+  });
+});

@@ -1,3 +1,5 @@
+// Plain validation messages for every schema, before any schema is used (issue 16).
+import "./messages";
 export * from "./common";
 export * from "./auth";
 export * from "./workshops";
