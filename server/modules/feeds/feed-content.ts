@@ -324,7 +324,11 @@ export async function feedContent(
           order: { start: "ASC" },
         })
       : [];
-    const l = await loadAround(m, bookings);
+    const l = await loadAround(
+      m,
+      bookings,
+      jobs.map((j) => j.id),
+    );
     for (const b of bookings) {
       const job = l.jobs.get(b.jobId);
       const task = l.tasks.get(b.taskId);
@@ -356,6 +360,62 @@ export async function feedContent(
         },
         later(b.updatedAt, task.updatedAt),
       );
+    }
+    // The workshop's own visits too, as her timeline lists them (issue 16: the feed held 5 of her
+    // 8 visits, never when the joiners are in her house): its on-site tasks at the planned dates.
+    const live = jobs.filter(
+      (j) => j.status !== "cancelled" && l.workshops.has(j.workshopId),
+    );
+    const inputs = await loadProgrammes(
+      m,
+      live,
+      [...l.workshops.values()],
+      now,
+    );
+    for (const job of live) {
+      const ws = l.workshops.get(job.workshopId)!;
+      const data = inputs.get(job.id);
+      const own = (data?.tasks ?? []).filter(
+        (t) => t.party === "workshop" && Number(t.durationDays) > 0,
+      );
+      if (!data || !own.length) continue;
+      let result;
+      try {
+        result = schedule(data.input);
+      } catch (err) {
+        if (err instanceof HttpError && err.status === 422) continue;
+        throw err;
+      }
+      const planned = new Map(result.tasks.map((r) => [r.id, r]));
+      for (const t of own) {
+        const r = planned.get(t.id);
+        if (!r) continue;
+        const timed = r.plannedFinish > r.plannedStart;
+        add(
+          {
+            method: "PUBLISH",
+            uid: taskEventUid(t.id),
+            sequence: Math.max(0, job.version - 1),
+            stamp: later(t.updatedAt, job.updatedAt),
+            organizer: { name: ws.name, email: calendarAddress },
+            summary: `${ws.name}: ${t.name}`,
+            description: [
+              `${ws.name} on site: ${t.name}.`,
+              t.customerNote ? `To prepare: ${t.customerNote}` : "",
+              "Planned dates: they move if the work before them does.",
+            ]
+              .filter(Boolean)
+              .join("\n"),
+            location: address(job),
+            timeZone: job.timeZone,
+            allDay: !timed,
+            start: timed ? r.plannedStart : r.plannedStart.slice(0, 10),
+            end: timed ? r.plannedFinish : r.plannedStart.slice(0, 10),
+            alarmEveningBefore: false,
+          },
+          later(t.updatedAt, job.updatedAt),
+        );
+      }
     }
   }
 

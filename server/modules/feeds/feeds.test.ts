@@ -1,5 +1,6 @@
 // Per-person calendar feeds (issue 6), each parsed with ical.js (the reference parser named in
 // references.md §2) and checked against the demo scenario: the right events, nothing more.
+import type { TimelineResponse } from "../../../shared/schemas";
 import ICAL from "ical.js";
 import { In, Not } from "typeorm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -261,7 +262,22 @@ describe("a customer's feed", () => {
       state: In(["sent", "confirmed", "date-proposed", "needs-reconfirming"]),
     });
     expect(visits.length).toBeGreaterThanOrEqual(5);
-    expect(uids(events)).toEqual(visits.map((b) => b.icalUid).sort());
+    // Feed = timeline (issue 16): every visit her timeline lists, the workshop's own visits too
+    // (a booking by its UID, a workshop task by its stable task UID).
+    const fromTimeline: string[] = [];
+    for (const job of jobs) {
+      const tl = (
+        await rosaS.agent.get(`/api/jobs/${job.id}/timeline`).expect(200)
+      ).body as TimelineResponse;
+      for (const v of tl.visits)
+        fromTimeline.push(
+          v.party === "workshop"
+            ? taskEventUid(v.id)
+            : visits.find((b) => b.id === v.id)!.icalUid,
+        );
+    }
+    expect(fromTimeline.length).toBeGreaterThan(visits.length);
+    expect(uids(events)).toEqual(fromTimeline.sort());
     // Nothing of the other customers' jobs.
     const wardrobe = await m.findOneByOrFail(Job, {
       title: demoJobTitles.wardrobe,
