@@ -442,7 +442,7 @@ describe("done work on the demo's programme (issue 16)", () => {
     await visible(item);
     const text = (await item.innerText()).replace(/\s+/g, " ");
     expect(text).toContain(
-      `Done ${dayText(survey.actualFinish!.slice(0, 10))}`,
+      `Finished ${dayText(survey.actualFinish!.slice(0, 10))}`,
     );
     expect(text).not.toContain("Float");
     expect(text).not.toContain("Planned");

@@ -96,17 +96,19 @@ interface TaskListProps {
   selectedTaskId?: string | null;
 }
 
-/** The programme as a list: the main view on a phone, and the keyboard's way to everything. */
-/** "Thu 3 Dec", or "Tue 1 Dec – Thu 3 Dec": the days the work was really done. */
+/** "Finished Thu 3 Dec", or "Started Tue 1 Dec, finished Thu 3 Dec": when the work was really done. */
 function doneDaysText(
   actualStart: string | null,
   actualFinish: string,
 ): string {
   const last = dayText(actualFinish);
   const first = actualStart ? dayText(actualStart) : last;
-  return first === last ? last : `${first} – ${last}`;
+  return first === last
+    ? `Finished ${last}`
+    : `Started ${first}, finished ${last}`;
 }
 
+/** The programme as a list: the main view on a phone, and the keyboard's way to everything. */
 export function TaskList({
   programme,
   rows,
@@ -173,11 +175,8 @@ export function TaskList({
             <p className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
               {done ? (
                 // Done: when it was really done, not a plan or its float (issue 16).
-                <span>
-                  <span className="text-ink-soft">Done </span>
-                  <span className="font-mono">
-                    {doneDaysText(task.actualStart, task.actualFinish!)}
-                  </span>
+                <span className="font-mono">
+                  {doneDaysText(task.actualStart, task.actualFinish!)}
                 </span>
               ) : (
                 <>
