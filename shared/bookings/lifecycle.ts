@@ -192,12 +192,13 @@ export const bookingActions = {
     note: null,
     mail: null,
   },
+  // The confirmed invitation goes back with the full address (same UID and SEQUENCE).
   confirm: {
     from: answerableStates,
     to: "confirmed",
     sequenceUp: "never",
     note: "trades",
-    mail: null,
+    mail: "updated",
   },
   decline: {
     from: answerableStates,

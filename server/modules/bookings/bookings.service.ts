@@ -1,6 +1,7 @@
 import { arrivalForSlot } from "../../../shared/bookings/arrival";
 import {
   actionAllowed,
+  bookingActions,
   stateIs,
   statesWhere,
 } from "../../../shared/bookings/lifecycle";
@@ -979,14 +980,23 @@ export async function applyAnswer(
   });
   await bumpJob(m, l.job);
   // Confirmations are news for the other trades too; declines and proposals stay with the workshop.
-  if (to === "confirmed")
+  if (to === "confirmed") {
     await postSystemNote(
       m,
       l.job,
       "trades",
       `${l.trade.businessName} confirmed ${l.task.name}: ${whenWords(b)}.`,
     );
-  else if (to === "declined")
+    // The lifecycle table's confirm action sends the confirmed invitation: the same UID and
+    // SEQUENCE (no date changed, RFC 5546 §2.1.4) with the full address now in LOCATION, so the
+    // trade's calendar shows where to go before the reminder (issue 16).
+    await queueBookingMail(
+      m,
+      await noticeContext(m, deps, l, await ensureLink(m, deps, b)),
+      b,
+      bookingActions.confirm.mail,
+    );
+  } else if (to === "declined")
     await postSystemNote(
       m,
       l.job,

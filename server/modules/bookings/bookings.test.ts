@@ -236,6 +236,26 @@ describe("scenario 2: a trade confirms by link", () => {
     await mailTo(demoAccounts.owner.email, (m) =>
       m.subject.startsWith("Ashby Plaster & Coving confirmed"),
     );
+    // The trade gets the confirmed invitation with the full address: the same UID and SEQUENCE
+    // (no date changed, RFC 5546 §2.1.4), PARTSTAT=ACCEPTED (issue 16).
+    const stored = await t.db.ds.manager.findOneByOrFail(Booking, {
+      id: booking.id,
+    });
+    const confirmedMail = await mailTo(
+      demoAccounts.trade.email,
+      (m) =>
+        m.subject.includes("is confirmed for") &&
+        m.text.includes("9 Example Row"),
+    );
+    const { event } = eventOf(confirmedMail);
+    expect(event.getFirstPropertyValue("uid")).toBe(stored.icalUid);
+    expect(event.getFirstPropertyValue("sequence")).toBe(stored.sequence);
+    expect(String(event.getFirstPropertyValue("location"))).toContain(
+      "9 Example Row, Wetherfold",
+    );
+    expect(event.getFirstProperty("attendee")!.getParameter("partstat")).toBe(
+      "ACCEPTED",
+    );
     // A repeat click shows the answer again and changes nothing.
     const again = (
       await anon
@@ -360,11 +380,18 @@ describe("scenario 2: a trade confirms by link", () => {
     expect(accepted.status, JSON.stringify(accepted.body)).toBe(200);
     expect(accepted.body).toMatchObject({ state: "confirmed", sequence: 1 });
     expect(accepted.body.start.slice(0, 10)).toBe(other);
+    const uid = (
+      await t.db.ds.manager.findOneByOrFail(Booking, { id: booking.id })
+    ).icalUid;
+    // This booking's mail with the accepted dates (its confirmed invitation after the proposal).
     const mail = await mailTo(
       demoAccounts.trade.email,
       (m) =>
         m.subject.includes(`is confirmed for`) &&
-        m.text.includes("Nothing more to do"),
+        m.text.includes("Nothing more to do") &&
+        m.calendars.length > 0 &&
+        eventOf(m).event.getFirstPropertyValue("uid") === uid &&
+        Number(eventOf(m).event.getFirstPropertyValue("sequence")) === 1,
     );
     // Their own proposal, accepted: they are not asked to confirm again (issue 16).
     expect(mail.text).not.toMatch(/confirm again/i);
