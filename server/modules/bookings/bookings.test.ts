@@ -494,6 +494,7 @@ describe("answers from the trade's own calendar app (iTIP REPLY by e-mail)", () 
     sequence: number,
     partstat: "ACCEPTED" | "DECLINED" | "TENTATIVE",
     counterStart?: string,
+    envelopeFrom = from,
   ) {
     const ics = buildItipReply({
       uid,
@@ -513,6 +514,10 @@ describe("answers from the trade's own calendar app (iTIP REPLY by e-mail)", () 
     try {
       await transport.sendMail({
         from,
+        envelope: {
+          from: envelopeFrom,
+          to: `booking-${bookingId}@replies.sitecue.example.test`,
+        },
         to: `booking-${bookingId}@replies.sitecue.example.test`,
         subject: "Accepted: Template coving",
         text: "Accepted",
@@ -554,6 +559,18 @@ describe("answers from the trade's own calendar app (iTIP REPLY by e-mail)", () 
         stored.icalUid,
         stored.sequence,
         "ACCEPTED",
+      ),
+    ).rejects.toThrow(/Only the invited trade/);
+    // The From: header alone is not enough: the SMTP envelope sender must be the trade too.
+    await expect(
+      sendReply(
+        demoAccounts.trade.email,
+        booking.id,
+        stored.icalUid,
+        stored.sequence,
+        "ACCEPTED",
+        undefined,
+        "someone.else@example.test",
       ),
     ).rejects.toThrow(/Only the invited trade/);
     expect(

@@ -45,8 +45,12 @@ export async function receiveCalendarReply(
     const l = await loadBooking(m, known.id, true);
     const booking = l.booking; // as it stands under the lock
     const trade = l.trade.email.toLowerCase();
+    // The From: header, the SMTP envelope sender (MAIL FROM) and the ATTENDEE must all be the
+    // trade (issue 16: From alone is trivially forged). In production the inbound relay checks
+    // SPF/DKIM/DMARC before handing the message on (DEVELOPERS.md, "Calendar replies").
     if (
       mail.from.toLowerCase() !== trade ||
+      mail.envelopeFrom.toLowerCase() !== trade ||
       reply.attendeeEmail.toLowerCase() !== trade
     ) {
       throw new Error("Only the invited trade may answer this invitation");
