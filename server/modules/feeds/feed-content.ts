@@ -14,7 +14,11 @@ import { Booking } from "../bookings/bookings.entity";
 import { organizerAddress, whenWords } from "../bookings/booking-notices";
 import { bookingCalendar, type BookingEventInput } from "../bookings/ical";
 import { Job } from "../jobs/jobs.entity";
-import { PINNING_STATES, loadProgrammes } from "../programme/programme-input";
+import {
+  PINNING_STATES,
+  loadProgrammes,
+  type ProgrammeData,
+} from "../programme/programme-input";
 import { Task } from "../programme/programme.entity";
 import { schedule } from "../programme/programme.service";
 import { Trade } from "../trades/trades.entity";
@@ -125,6 +129,70 @@ interface Collected {
   lastModified: Date;
 }
 
+/**
+ * Events for a job's tasks the engine plans (the workshop's own), on their planned dates, in the
+ * words `wordsOf` gives: one rule for the workshop's feed and the customer's. A programme the
+ * engine refuses (a loop saved before the check existed…) must not take the whole feed down:
+ * that job's tasks are left out until it is fixed. Planned dates move with "today" (the engine's
+ * data date), so the feed's Last-Modified moves daily too.
+ */
+function plannedTaskEvents(
+  ctx: {
+    job: Job;
+    ws: Workshop;
+    data: ProgrammeData;
+    now: Date;
+    calendarAddress: string;
+  },
+  which: (t: Task) => boolean,
+  wordsOf: (t: Task) => { summary: string; description: string[] },
+  add: (e: BookingEventInput, changed: Date) => void,
+  out: Collected,
+): void {
+  const { job, ws, data, now } = ctx;
+  const own = data.tasks.filter(which);
+  if (!own.length) return;
+  let result;
+  try {
+    result = schedule(data.input);
+  } catch (err) {
+    if (err instanceof HttpError && err.status === 422) return;
+    throw err;
+  }
+  out.lastModified = later(
+    out.lastModified,
+    new Date(
+      Math.min(now.getTime(), Date.parse(`${data.input.dataDate}T00:00:00Z`)),
+    ),
+  );
+  const planned = new Map(result.tasks.map((r) => [r.id, r]));
+  for (const t of own) {
+    const r = planned.get(t.id);
+    if (!r) continue;
+    const timed = r.plannedFinish > r.plannedStart;
+    const words = wordsOf(t);
+    add(
+      {
+        method: "PUBLISH",
+        uid: taskEventUid(t.id),
+        // The job's version goes up with every programme edit, so it never goes down (RFC 5546 §2.1.4).
+        sequence: Math.max(0, job.version - 1),
+        stamp: later(t.updatedAt, job.updatedAt),
+        organizer: { name: ws.name, email: ctx.calendarAddress },
+        summary: words.summary,
+        description: words.description.filter(Boolean).join("\n"),
+        location: address(job),
+        timeZone: job.timeZone,
+        allDay: !timed,
+        start: timed ? r.plannedStart : r.plannedStart.slice(0, 10),
+        end: timed ? r.plannedFinish : r.plannedStart.slice(0, 10),
+        alarmEveningBefore: false,
+      },
+      later(t.updatedAt, job.updatedAt),
+    );
+  }
+}
+
 /** Builds the feed of everything `actor` may see, for the person `name`. */
 export async function feedContent(
   m: EntityManager,
@@ -208,57 +276,19 @@ export async function feedContent(
       const ws = l.workshops.get(job.workshopId);
       const data = inputs.get(job.id);
       if (!ws || !data) continue;
-      const own = data.tasks.filter((t) => t.party === "workshop");
-      if (own.length === 0) continue;
-      let result;
-      try {
-        result = schedule(data.input);
-      } catch (err) {
-        // A programme the engine refuses (a loop saved before the check existed…) must not take
-        // the whole feed down: that job's tasks are left out until it is fixed.
-        if (err instanceof HttpError && err.status === 422) continue;
-        throw err;
-      }
-      // Planned dates move with "today" (the engine's data date), so the feed changes daily too.
-      out.lastModified = later(
-        out.lastModified,
-        new Date(
-          Math.min(
-            now.getTime(),
-            Date.parse(`${data.input.dataDate}T00:00:00Z`),
-          ),
-        ),
+      plannedTaskEvents(
+        { job, ws, data, now, calendarAddress },
+        (t) => t.party === "workshop",
+        (t) => ({
+          summary: `${t.name} — ${job.title}`,
+          description: [
+            `Workshop task for ${job.title}.`,
+            t.internalNote ? `Workshop note: ${t.internalNote}` : "",
+          ],
+        }),
+        add,
+        out,
       );
-      const planned = new Map(result.tasks.map((r) => [r.id, r]));
-      for (const t of own) {
-        const r = planned.get(t.id);
-        if (!r) continue;
-        const timed = r.plannedFinish > r.plannedStart;
-        add(
-          {
-            method: "PUBLISH",
-            uid: taskEventUid(t.id),
-            // The job's version goes up with every programme edit, so it never goes down (RFC 5546 §2.1.4).
-            sequence: Math.max(0, job.version - 1),
-            stamp: later(t.updatedAt, job.updatedAt),
-            organizer: { name: ws.name, email: calendarAddress },
-            summary: `${t.name} — ${job.title}`,
-            description: [
-              `Workshop task for ${job.title}.`,
-              t.internalNote ? `Workshop note: ${t.internalNote}` : "",
-            ]
-              .filter(Boolean)
-              .join("\n"),
-            location: address(job),
-            timeZone: job.timeZone,
-            allDay: !timed,
-            start: timed ? r.plannedStart : r.plannedStart.slice(0, 10),
-            end: timed ? r.plannedFinish : r.plannedStart.slice(0, 10),
-            alarmEveningBefore: false,
-          },
-          later(t.updatedAt, job.updatedAt),
-        );
-      }
     }
   }
 
@@ -373,49 +403,23 @@ export async function feedContent(
       now,
     );
     for (const job of live) {
-      const ws = l.workshops.get(job.workshopId)!;
       const data = inputs.get(job.id);
-      const own = (data?.tasks ?? []).filter(
+      if (!data) continue;
+      const ws = l.workshops.get(job.workshopId)!;
+      plannedTaskEvents(
+        { job, ws, data, now, calendarAddress },
         (t) => t.party === "workshop" && Number(t.durationDays) > 0,
+        (t) => ({
+          summary: `${ws.name}: ${t.name}`,
+          description: [
+            `${ws.name} on site: ${t.name}.`,
+            t.customerNote ? `To prepare: ${t.customerNote}` : "",
+            "Planned dates: they move if the work before them does.",
+          ],
+        }),
+        add,
+        out,
       );
-      if (!data || !own.length) continue;
-      let result;
-      try {
-        result = schedule(data.input);
-      } catch (err) {
-        if (err instanceof HttpError && err.status === 422) continue;
-        throw err;
-      }
-      const planned = new Map(result.tasks.map((r) => [r.id, r]));
-      for (const t of own) {
-        const r = planned.get(t.id);
-        if (!r) continue;
-        const timed = r.plannedFinish > r.plannedStart;
-        add(
-          {
-            method: "PUBLISH",
-            uid: taskEventUid(t.id),
-            sequence: Math.max(0, job.version - 1),
-            stamp: later(t.updatedAt, job.updatedAt),
-            organizer: { name: ws.name, email: calendarAddress },
-            summary: `${ws.name}: ${t.name}`,
-            description: [
-              `${ws.name} on site: ${t.name}.`,
-              t.customerNote ? `To prepare: ${t.customerNote}` : "",
-              "Planned dates: they move if the work before them does.",
-            ]
-              .filter(Boolean)
-              .join("\n"),
-            location: address(job),
-            timeZone: job.timeZone,
-            allDay: !timed,
-            start: timed ? r.plannedStart : r.plannedStart.slice(0, 10),
-            end: timed ? r.plannedFinish : r.plannedStart.slice(0, 10),
-            alarmEveningBefore: false,
-          },
-          later(t.updatedAt, job.updatedAt),
-        );
-      }
     }
   }
 
