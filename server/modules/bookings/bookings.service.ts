@@ -990,12 +990,7 @@ export async function applyAnswer(
     // The lifecycle table's confirm action sends the confirmed invitation: the same UID and
     // SEQUENCE (no date changed, RFC 5546 §2.1.4) with the full address now in LOCATION, so the
     // trade's calendar shows where to go before the reminder (issue 16).
-    await queueBookingMail(
-      m,
-      await noticeContext(m, deps, l, await ensureLink(m, deps, b)),
-      b,
-      bookingActions.confirm.mail,
-    );
+    await sendConfirmedInvitation(m, deps, l);
   } else if (to === "declined")
     await postSystemNote(
       m,
@@ -1019,6 +1014,24 @@ export async function applyAnswer(
     );
   }
   return to;
+}
+
+/**
+ * The invitation as it now stands, to a trade whose booking is confirmed (after they confirm, or
+ * after "Need another day" moved its end): their calendar gets the current dates and the full
+ * address, and a later reply from it matches the current SEQUENCE. It asks nothing of them.
+ */
+export async function sendConfirmedInvitation(
+  m: EntityManager,
+  deps: BookingDeps,
+  l: Loaded,
+): Promise<void> {
+  await queueBookingMail(
+    m,
+    await noticeContext(m, deps, l, await ensureLink(m, deps, l.booking)),
+    l.booking,
+    bookingActions.confirm.mail,
+  );
 }
 
 /** The maker records an answer given by phone or text, on the trade's behalf. */

@@ -36,6 +36,7 @@ import {
   loadBooking,
   reconfirmAfterChange,
   recordEvent,
+  sendConfirmedInvitation,
   type BookingDeps,
   type Loaded,
 } from "../bookings/bookings.service";
@@ -674,8 +675,9 @@ export async function extendVisit(
         actor!.userId,
         `Needs another day: now until ${noteDay(shown.toFinish)}.`,
       );
-      // No updated invitation to them: the booking e-mail for changed dates asks them to confirm
-      // again, and they asked for this. Their feed shows the new end (SEQUENCE raised above).
+      // The updated invitation goes to them, confirmed (they asked for this): their calendar shows
+      // the new end, and a later reply from it matches the raised SEQUENCE (issue 16: it bounced).
+      await sendConfirmedInvitation(m, deps, l);
       const handover =
         shown.handover.changeDays > 0
           ? ` The planned finish moves ${shown.handover.changeDays} working day${shown.handover.changeDays === 1 ? "" : "s"} later.`

@@ -565,6 +565,17 @@ describe("need another day", () => {
     expect(mail.some((x) => x.subject.includes("needs another day"))).toBe(
       true,
     );
+    // They get the invitation as it now stands, confirmed, at the raised SEQUENCE, so a later
+    // reply from their calendar app is not refused as out of date (issue 16).
+    const trade = await m.findOneByOrFail(Trade, { id: f.mine.tradeId });
+    const toThem = (await m.findBy(OutboxMessage, { to: trade.email })).filter(
+      (x) =>
+        x.subject.includes("is confirmed for") &&
+        x.calendar?.content.includes(`\r\nUID:${mine.icalUid}\r\n`) &&
+        x.calendar.content.includes(`\r\nSEQUENCE:${mine.sequence}\r\n`),
+    );
+    expect(toThem.length).toBe(1);
+    expect(toThem[0].text).toContain("Nothing more to do");
     const job = await m.findOneByOrFail(Job, { id: f.jobA.id });
     expect(job.version).toBe(preview.version + 1);
   });
