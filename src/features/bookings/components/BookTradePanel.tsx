@@ -119,8 +119,8 @@ function WindowLine({ o }: { o: BookingOptionsResponse }) {
   if (!o.keepsHandover)
     return (
       <p className="text-sm">
-        <span className="font-medium text-risk">Handover at risk: </span>
-        no start keeps handover. The earliest start is{" "}
+        <span className="font-medium text-risk">Agreed handover at risk: </span>
+        no start keeps the agreed handover. The earliest start is{" "}
         <span className="font-mono">{startWords(o.earliestStart)}</span>.
       </p>
     );

@@ -426,7 +426,7 @@ export function BarView({
                 left: handoverX + 4,
               }}
             >
-              Handover {dayText(programme.handover)}
+              Agreed handover {dayText(programme.handover)}
             </span>
           ) : null}
         </div>
