@@ -528,8 +528,9 @@ describe("answers from the trade's own calendar app (iTIP REPLY by e-mail)", () 
     }
   }
 
-  it("records an Accept from the invited trade, and refuses one from another address", async () => {
-    const { jobId, p } = await readyJob("Booking: calendar reply");
+  /** A fresh job's template, booked with Ashby and sent: the booking and its stored row. */
+  async function sentTemplate(title: string) {
+    const { jobId, p } = await readyJob(title);
     const template = taskNamed(p, "Template coving");
     const options = (
       await owner.agent.get(
@@ -551,6 +552,11 @@ describe("answers from the trade's own calendar app (iTIP REPLY by e-mail)", () 
     const stored = await t.db.ds.manager.findOneByOrFail(Booking, {
       id: booking.id,
     });
+    return { booking: booking as BookingResponse, stored };
+  }
+
+  it("records an Accept from the invited trade, and refuses one from another address", async () => {
+    const { booking, stored } = await sentTemplate("Booking: calendar reply");
     // RFC 6047 §2.2.1: only the invited attendee may answer for themselves.
     await expect(
       sendReply(
@@ -626,28 +632,7 @@ describe("answers from the trade's own calendar app (iTIP REPLY by e-mail)", () 
   });
 
   it("takes a calendar app's 'Propose new time' (iTIP COUNTER, RFC 5546 §3.2.7) as a proposal", async () => {
-    const { jobId, p } = await readyJob("Booking: calendar counter");
-    const template = taskNamed(p, "Template coving");
-    const options = (
-      await owner.agent.get(
-        `/api/jobs/${jobId}/tasks/${template.id}/booking-options`,
-      )
-    ).body;
-    const booking = (
-      await owner.agent
-        .post(`/api/jobs/${jobId}/bookings`)
-        .set("X-CSRF-Token", owner.csrf)
-        .send({
-          taskId: template.id,
-          tradeId: ashby(options).tradeId,
-          start: ashby(options).firstFree.start,
-          arrivalWindow: "morning",
-        })
-        .expect(201)
-    ).body;
-    const stored = await t.db.ds.manager.findOneByOrFail(Booking, {
-      id: booking.id,
-    });
+    const { booking, stored } = await sentTemplate("Booking: calendar counter");
     const other = weekdaysFrom(stored.start.slice(0, 10), 3);
     await sendReply(
       demoAccounts.trade.email,
